@@ -1,0 +1,37 @@
+#pragma once
+// A finding: one thing a reviewer must see, from a data problem to a freeboard violation.
+// Findings are data aligned with the network; the run always completes.
+#include <cmath>
+#include <limits>
+#include <string>
+#include <vector>
+
+#include "rimline/units.hpp"
+
+namespace rimline {
+
+enum class Severity { info = 0, warning = 1, error = 2 };
+std::string_view severity_name(Severity s);  // "info" | "warning" | "error"
+
+// Which layer a finding belongs to, so the exception list names the source layer.
+enum class LayerRole { conduits, structures, force_mains, catchments, project };
+std::string_view layer_role_name(LayerRole r);
+
+struct Finding {
+  std::string code;  // stable, documented in README (FREEBOARD, SURCHARGED, DATA_MISSING, ...)
+  Severity severity = Severity::warning;
+  LayerRole layer = LayerRole::conduits;
+  std::string feature_id;  // the feature's own id from the source layer
+  std::string field;       // source field concerned, if any
+  double value = std::numeric_limits<double>::quiet_NaN();  // SI, in `dimension`
+  double limit = std::numeric_limits<double>::quiet_NaN();  // SI
+  units::Dimension dimension = units::Dimension::dimensionless;
+  std::string message;  // one sentence a reviewer understands (SI figures; report converts)
+};
+
+using Findings = std::vector<Finding>;
+
+// Stable order for outputs: by severity (worst first), code, layer, feature id.
+void sort_findings(Findings& findings);
+
+}  // namespace rimline

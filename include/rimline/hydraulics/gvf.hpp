@@ -1,0 +1,72 @@
+#pragma once
+// Water-surface profile along one closed conduit: gradually varied flow by a step method
+// (step count set by accuracy), surcharged (pressure) reaches, free outlets, hydraulic jumps.
+#include <optional>
+#include <string>
+#include <vector>
+
+#include "rimline/hydraulics/depth.hpp"
+
+namespace rimline::hydraulics {
+
+struct ConduitReach {
+  Section section;
+  Roughness roughness;
+  double length_m = 0.0;       // plan length along the pipe (> 0)
+  double invert_up_m = 0.0;    // inlet invert elevation
+  double invert_down_m = 0.0;  // outlet invert elevation (may be above invert_up: adverse)
+  double flow_m3_s = 0.0;      // >= 0; 0 gives a still (level-pool or dry) pipe
+};
+
+enum class Regime { dry, subcritical, supercritical, mixed, pressurized, partly_pressurized };
+std::string_view regime_name(Regime r);
+
+// What set the water level at the conduit's upstream end.
+enum class Governs {
+  outlet_water_level,   // backwater from the downstream structure / tailwater (subcritical)
+  critical_depth_outlet,  // free outlet or drop: critical depth at the outlet, M2 upstream
+  normal_depth,         // long enough that uniform flow is reached upstream
+  inlet_control,        // steep: critical depth at the inlet, supercritical downstream
+  surcharge,            // full (pressure) flow reaching the inlet
+  still_water           // no flow
+};
+std::string_view governs_name(Governs g);
+
+struct ProfilePoint {
+  double station_m = 0.0;  // distance from the outlet end, increasing upstream (0 = outlet)
+  double invert_m = 0.0;
+  double depth_m = 0.0;    // capped at the rise when full
+  double hgl_m = 0.0;      // water surface, or pressure head + elevation when full
+  double egl_m = 0.0;      // hgl + V^2/2g
+  double velocity_m_s = 0.0;
+  bool full = false;
+};
+
+struct GvfOptions {
+  double depth_tolerance_m = 1.0e-4;  // standard-step closure per step
+  double max_depth_change_m = 0.0;    // 0: auto (2% of the rise) - limits step size for accuracy
+  int max_steps = 4000;
+};
+
+struct ConduitProfile {
+  std::vector<ProfilePoint> points;  // outlet (station 0) first, inlet (station = length) last
+  Regime regime = Regime::subcritical;
+  Governs governs = Governs::outlet_water_level;
+  std::string profile_class;         // e.g. "M1", "M2", "S2", "S2-jump-S1", "full", "M1-full"
+  double normal_depth_m = 0.0;       // NaN when none (adverse/horizontal, or Q above peak)
+  double critical_depth_m = 0.0;     // rise when above the rise
+  double surcharged_length_m = 0.0;
+  std::optional<double> jump_station_m;
+  bool free_outlet = false;          // downstream level below outlet invert + critical depth
+  bool converged = true;
+  std::string note;                  // non-convergence or other caveat, one sentence
+
+  const ProfilePoint& outlet() const { return points.front(); }
+  const ProfilePoint& inlet() const { return points.back(); }
+};
+
+// downstream_level_m: water level (HGL) in the structure or tailwater the conduit discharges into.
+// Throws rimline::Error(bad_argument) for invalid reach data (non-positive length, bad section...).
+ConduitProfile compute_profile(const ConduitReach& reach, double downstream_level_m, const GvfOptions& options = {});
+
+}  // namespace rimline::hydraulics

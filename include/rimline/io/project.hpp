@@ -1,0 +1,124 @@
+#pragma once
+// The project file (TOML): where the layers are, how the export's own field names map to
+// rimline's roles and in which units, the boundary conditions, methods and criteria.
+// Every quantity is held here in SI; the conversion happens in the parser, once.
+//
+// Schema (all paths relative to the project file; quantities are strings "<number> <unit>"):
+//   [project]   name, units = "si"|"us" (report units), crs = "EPSG:xxxx" (only when a source has none)
+//   [pipes]     source, layer, snap_tolerance = "0.5 m"
+//   [pipes.fields]  id, from, to, shape, material, manning_n, split   -> "FIELD"
+//                   diameter, width, height, ks, invert_up, invert_down, length, flow
+//                                                           -> { field = "FIELD", unit = "mm" }
+//   [pipes.defaults] shape, manning_n, ks, diameter...; [pipes.defaults.manning_n_by_material] RC = 0.013
+//   [pipes.shapes]   circular = ["CIRC", "C"], box = ["BOX", "RECT"]      (source values -> shape)
+//   [structures] source, layer; [structures.fields] id, type, loss_k -> "FIELD";
+//                rim, invert, diameter, inflow, tailwater -> { field, unit }
+//   [structures.types] outfall = ["OF"], inlet = ["CB"], manhole = ["MH"], junction = [...]
+//   [structures.defaults] diameter = "1.2 m", loss_k = 0.5
+//   [flows]     mode = "pipe_field" | "structure_inflows", split = "capacity" | "field"
+//   [tailwater] mode = "fixed" | "free" | "higher", levels = ["12.4 m", "13.0 m"]
+//   [methods]   friction = "manning" | "darcy_weisbach", structure_loss = "constant_k" | "bend" | "hec22",
+//               water_temperature = "15 C", benching = "flat"|"half"|"full"
+//   [methods.k_by_type] manhole = 0.5, inlet = 0.5, junction = 0.6
+//   [criteria]  freeboard = "0.3 m", velocity_min = "0.9 m/s", velocity_max = "4.6 m/s",
+//               capacity_ratio_max = 1.0, cover_min = "0.6 m"
+#include <map>
+#include <optional>
+#include <string>
+#include <vector>
+
+#include "rimline/hydraulics/friction.hpp"
+#include "rimline/hydraulics/losses.hpp"
+#include "rimline/hydraulics/section.hpp"
+#include "rimline/units.hpp"
+
+namespace rimline::io {
+
+// A mapped source field and the unit its values are in.
+struct FieldRef {
+  std::string field;
+  units::Unit unit = units::Unit::one;
+  bool mapped() const { return !field.empty(); }
+};
+
+struct LayerSource {
+  std::string source;  // path (resolved against the project file) or a GDAL connection string
+  std::string layer;   // empty: the only / first layer
+};
+
+struct PipeFields {
+  std::string id, from, to, shape, material, manning_n, split;
+  FieldRef diameter, width, height, ks, invert_up, invert_down, length, flow;
+};
+
+struct PipeDefaults {
+  hydraulics::Shape shape = hydraulics::Shape::circular;
+  std::optional<double> manning_n;
+  std::optional<double> ks_m;
+  std::optional<double> diameter_m;
+  std::map<std::string, double> manning_n_by_material;
+  std::map<std::string, double> ks_m_by_material;
+};
+
+struct StructureFields {
+  std::string id, type, loss_k;
+  FieldRef rim, invert, diameter, inflow, tailwater;
+};
+
+struct StructureDefaults {
+  double diameter_m = 1.2;
+  std::optional<double> loss_k;
+};
+
+enum class FlowMode { pipe_field, structure_inflows };
+enum class SplitRule { capacity, field };
+enum class TailwaterMode { fixed, free, higher };
+
+struct Criteria {
+  double freeboard_m = 0.3;          // common practice, no source (agency manuals range 0 - 0.3 m)
+  double velocity_min_m_s = 0.9;     // storm: TxDOT Hydraulic Design Manual (2016 revision), 3 ft/s
+  std::optional<double> velocity_max_m_s = 4.6;  // erosion protection ~15 ft/s (Ten States Standards, from memory)
+  double capacity_ratio_max = 1.0;   // Q/Qfull; common practice, no source
+  std::optional<double> cover_min_m; // off unless set
+};
+
+struct Methods {
+  hydraulics::FrictionLaw friction = hydraulics::FrictionLaw::manning;
+  hydraulics::StructureLossMethod structure_loss = hydraulics::StructureLossMethod::constant_k;
+  hydraulics::Benching benching = hydraulics::Benching::flat;
+  double water_temperature_c = 15.0;
+  std::map<std::string, double> k_by_type;  // structure kind name -> K
+};
+
+struct Project {
+  std::string file;        // the project file path as given
+  std::string directory;   // its directory, for relative sources
+  std::string name;
+  units::System report_units = units::System::si;
+  std::string crs_override;
+  LayerSource pipes;
+  LayerSource structures;  // source empty: structures derived from pipe ends
+  double snap_tolerance_m = 0.5;
+  PipeFields pipe_fields;
+  PipeDefaults pipe_defaults;
+  std::map<std::string, hydraulics::Shape> shape_values;   // source value -> shape
+  StructureFields structure_fields;
+  StructureDefaults structure_defaults;
+  std::map<std::string, std::string> structure_type_values;  // source value -> kind name
+  FlowMode flow_mode = FlowMode::pipe_field;
+  SplitRule split_rule = SplitRule::capacity;
+  TailwaterMode tailwater_mode = TailwaterMode::higher;
+  std::vector<double> tailwater_levels_m;  // a sweep when more than one
+  Methods methods;
+  Criteria criteria;
+};
+
+// Parses and validates a project file. Throws rimline::Error(bad_config) naming the file,
+// the key and, for unknown keys, the closest known one ("did you mean ...?").
+Project load_project(const std::string& path);
+Project parse_project(const std::string& toml_text, const std::string& path_for_messages);
+
+// "0.3 m" -> 0.3 (SI), checked against the expected dimension. Throws bad_config.
+double parse_quantity(const std::string& text, units::Dimension expected, const std::string& where);
+
+}  // namespace rimline::io
