@@ -5,8 +5,13 @@
 //
 // Schema (all paths relative to the project file; quantities are strings "<number> <unit>"):
 //   [project]   name, units = "si"|"us" (report units), crs = "EPSG:xxxx" (only when a source has none)
-//   [pipes]     source, layer, snap_tolerance = "0.5 m"
-//   [pipes.fields]  id, from, to, shape, material, manning_n, split   -> "FIELD"
+//   [pipes]     source, layer, snap_tolerance = "0.5 m",
+//               open_options = ["X_POSSIBLE_NAMES=X"]  (GDAL open options, e.g. for CSV; any layer source)
+//               shape_from_height = true   (no shape field: a feature whose mapped height is > 0 is a box
+//                                           width x height, else circular with the diameter field or,
+//                                           when no diameter field is mapped, the width field)
+//               force_main_values = ["RM"] (values of fields.force_main that mark a pressure main)
+//   [pipes.fields]  id, from, to, shape, material, manning_n, split, force_main   -> "FIELD"
 //                   diameter, width, height, ks, invert_up, invert_down, length, flow
 //                                                           -> { field = "FIELD", unit = "mm" }
 //   [pipes.defaults] shape, manning_n, ks, diameter...; [pipes.defaults.manning_n_by_material] RC = 0.013
@@ -20,7 +25,9 @@
 //   [methods]   friction = "manning" | "darcy_weisbach", structure_loss = "constant_k" | "bend" | "hec22",
 //               water_temperature = "15 C", benching = "flat"|"half"|"full"
 //   [methods.k_by_type] manhole = 0.5, inlet = 0.5, junction = 0.6
-//   [criteria]  freeboard = "0.3 m", velocity_min = "0.9 m/s", velocity_max = "4.6 m/s",
+//   [plausibility] invert_min = "-500 m", invert_max = "900 m" (inverts and rims outside are sentinels),
+//               diameter_min = "30 mm", diameter_max = "10 m", length_tolerance = 0.2 (mapped vs geometry)
+//   [criteria]  freeboard = "0.3 m", velocity_min = "0.9 m/s", velocity_max = "4.6 m/s" (or "off"),
 //               capacity_ratio_max = 1.0, cover_min = "0.6 m"
 #include <map>
 #include <optional>
@@ -44,10 +51,11 @@ struct FieldRef {
 struct LayerSource {
   std::string source;  // path (resolved against the project file) or a GDAL connection string
   std::string layer;   // empty: the only / first layer
+  std::vector<std::string> open_options;  // GDAL open options "KEY=VALUE" (CSV X/Y columns, ...)
 };
 
 struct PipeFields {
-  std::string id, from, to, shape, material, manning_n, split;
+  std::string id, from, to, shape, material, manning_n, split, force_main;
   FieldRef diameter, width, height, ks, invert_up, invert_down, length, flow;
 };
 
@@ -73,6 +81,15 @@ struct StructureDefaults {
 enum class FlowMode { pipe_field, structure_inflows };
 enum class SplitRule { capacity, field };
 enum class TailwaterMode { fixed, free, higher };
+
+// Limits beyond which a source value is treated as a data error rather than used.
+struct Plausibility {
+  double invert_min_m = -500.0;   // below any inhabited land (Dead Sea shore ~ -430 m); common practice, no source
+  double invert_max_m = 900.0;    // catches 999 / 999.5 no-data sentinels; raise it for high-altitude cities
+  double diameter_min_m = 0.03;   // smaller than any sewer or drain main; common practice, no source
+  double diameter_max_m = 10.0;   // larger than any sewer tunnel bore; common practice, no source
+  double length_tolerance = 0.2;  // mapped length accepted within +-20 % of the geometry length
+};
 
 struct Criteria {
   double freeboard_m = 0.3;          // common practice, no source (agency manuals range 0 - 0.3 m)
@@ -102,6 +119,8 @@ struct Project {
   PipeFields pipe_fields;
   PipeDefaults pipe_defaults;
   std::map<std::string, hydraulics::Shape> shape_values;   // source value -> shape
+  bool shape_from_height = false;                          // see [pipes] shape_from_height above
+  std::vector<std::string> force_main_values;              // values of pipe_fields.force_main
   StructureFields structure_fields;
   StructureDefaults structure_defaults;
   std::map<std::string, std::string> structure_type_values;  // source value -> kind name
@@ -110,10 +129,11 @@ struct Project {
   TailwaterMode tailwater_mode = TailwaterMode::higher;
   std::vector<double> tailwater_levels_m;  // a sweep when more than one
   Methods methods;
+  Plausibility plausibility;
   Criteria criteria;
 };
 
-// Parses and validates a project file. Throws rimline::Error(bad_config) naming the file,
+// Parses and validates a project file. Unknown keys and values of the wrong type are errors. Throws rimline::Error(bad_config) naming the file,
 // the key and, for unknown keys, the closest known one ("did you mean ...?").
 Project load_project(const std::string& path);
 Project parse_project(const std::string& toml_text, const std::string& path_for_messages);
