@@ -26,10 +26,15 @@ struct Finding {
   double value = std::numeric_limits<double>::quiet_NaN();  // SI, in `dimension`
   double limit = std::numeric_limits<double>::quiet_NaN();  // SI
   units::Dimension dimension = units::Dimension::dimensionless;
-  std::string message;  // one sentence a reviewer understands (SI figures; report converts)
+  std::string message;  // one sentence a reviewer understands; quantities as q() tokens
 };
 
 using Findings = std::vector<Finding>;
+
+// Messages carry quantities as tokens so each report renders them in its own unit system:
+// q(2.5, length) -> "{{2.5|L}}", rendered "2.500 m" (SI) or "8.202 ft" (US).
+std::string q(double si_value, units::Dimension d);
+std::string render_message(const std::string& message, units::System system);
 
 // Stable order for outputs: by severity (worst first), code, layer, feature id.
 void sort_findings(Findings& findings);

@@ -33,3 +33,83 @@ void sort_findings(Findings& findings) {
 }
 
 }  // namespace rimline
+
+#include <cstdio>
+#include <cstdlib>
+
+namespace rimline {
+namespace {
+
+char dimension_letter(units::Dimension d) {
+  switch (d) {
+    case units::Dimension::length: return 'L';
+    case units::Dimension::flow: return 'Q';
+    case units::Dimension::velocity: return 'V';
+    case units::Dimension::area: return 'A';
+    case units::Dimension::pressure_head: return 'P';
+    case units::Dimension::temperature: return 'T';
+    case units::Dimension::slope: return 'S';
+    case units::Dimension::dimensionless: return 'N';
+  }
+  return 'N';
+}
+
+units::Dimension dimension_from_letter(char c) {
+  switch (c) {
+    case 'L': return units::Dimension::length;
+    case 'Q': return units::Dimension::flow;
+    case 'V': return units::Dimension::velocity;
+    case 'A': return units::Dimension::area;
+    case 'P': return units::Dimension::pressure_head;
+    case 'T': return units::Dimension::temperature;
+    case 'S': return units::Dimension::slope;
+    default: return units::Dimension::dimensionless;
+  }
+}
+
+int decimals_for(units::Dimension d) {
+  switch (d) {
+    case units::Dimension::length:
+    case units::Dimension::pressure_head:
+    case units::Dimension::flow: return 3;
+    default: return 2;
+  }
+}
+
+}  // namespace
+
+std::string q(double si_value, units::Dimension d) {
+  char buf[64];
+  std::snprintf(buf, sizeof buf, "{{%.9g|%c}}", si_value, dimension_letter(d));
+  return buf;
+}
+
+std::string render_message(const std::string& message, units::System system) {
+  std::string out;
+  out.reserve(message.size());
+  std::size_t i = 0;
+  while (i < message.size()) {
+    const std::size_t open = message.find("{{", i);
+    const std::size_t close = open == std::string::npos ? std::string::npos : message.find("}}", open);
+    const std::size_t bar = close == std::string::npos ? std::string::npos : message.rfind('|', close);
+    if (open == std::string::npos || close == std::string::npos || bar == std::string::npos || bar < open) {
+      out.append(message, i, std::string::npos);
+      break;
+    }
+    out.append(message, i, open - i);
+    const double si = std::strtod(message.c_str() + open + 2, nullptr);
+    const auto dim = dimension_from_letter(message[bar + 1]);
+    const auto unit = units::display_unit(dim, system);
+    char buf[64];
+    std::snprintf(buf, sizeof buf, "%.*f", decimals_for(dim), units::from_si(si, unit));
+    out += buf;
+    if (dim != units::Dimension::dimensionless && dim != units::Dimension::slope) {
+      out += ' ';
+      out += units::unit_symbol(unit);
+    }
+    i = close + 2;
+  }
+  return out;
+}
+
+}  // namespace rimline

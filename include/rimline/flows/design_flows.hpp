@@ -1,0 +1,33 @@
+#pragma once
+// Design flow in every conduit: read per pipe, or local inflows at structures accumulated
+// downstream through the network, split at diversions by a rule.
+#include <vector>
+
+#include "rimline/finding.hpp"
+#include "rimline/model/network.hpp"
+#include "rimline/topology/build.hpp"
+
+namespace rimline::flows {
+
+enum class Mode { pipe_field, structure_inflows };
+enum class Split { capacity, field };
+
+struct FlowOptions {
+  Mode mode = Mode::pipe_field;
+  Split split = Split::capacity;
+  hydraulics::FrictionLaw friction = hydraulics::FrictionLaw::manning;
+};
+
+struct DesignFlows {
+  std::vector<double> flow_m3_s;    // aligned with conduits; NaN where it could not be set
+  std::vector<bool> filled;         // pipe_field mode: value missing, set to the sum of inflows
+};
+
+// Conduits in an order where every conduit comes after all conduits draining into its
+// upstream structure (Kahn's algorithm over usable conduits). Conduits on a cycle are left out.
+std::vector<std::size_t> upstream_first_order(const model::Network& network, const topology::Topology& topo);
+
+DesignFlows design_flows(const model::Network& network, const topology::Topology& topo, const FlowOptions& options,
+                         Findings& findings);
+
+}  // namespace rimline::flows

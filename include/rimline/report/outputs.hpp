@@ -1,0 +1,30 @@
+#pragma once
+// The outputs contract of `rimline check --out DIR`:
+//   DIR/exceptions.csv  one row per finding: code,severity,layer,feature_id,field,value,limit,unit,message
+//   DIR/results.gpkg    layers structures, conduits (input CRS; values in the run's unit system),
+//                       and the table structure_cases (one row per structure and tailwater level)
+//   DIR/summary.json    run metadata, inputs with SHA-256, units, criteria, methods, counts, worst freeboard
+// Every file is written under a temporary name in DIR and renamed into place, so an interrupted
+// run leaves the previous file or the new one, never a partial one.
+#include <string>
+
+#include "rimline/run/check_run.hpp"
+
+namespace rimline::report {
+
+// The caution printed on every output.
+inline constexpr const char* caution =
+    "Results are for review by a licensed professional engineer. Local codes, standards and the "
+    "approving authority govern; rimline does not replace engineering judgement.";
+
+void write_outputs(const run::CheckRun& run, const std::string& out_dir);
+
+// Pieces, for tests and for other writers.
+std::string exceptions_csv(const run::CheckRun& run);
+std::string summary_json(const run::CheckRun& run);
+void write_results_gpkg(const run::CheckRun& run, const std::string& path);
+
+// A value in the run's report units: SI -> display unit of the dimension.
+double to_report(double si_value, units::Dimension d, units::System s);
+
+}  // namespace rimline::report

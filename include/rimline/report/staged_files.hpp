@@ -1,0 +1,28 @@
+#pragma once
+// Writes files under temporary names in the output directory and renames them into place
+// only when all are complete (rename is atomic within one file system).
+#include <string>
+#include <vector>
+
+namespace rimline::report {
+
+class StagedFiles {
+ public:
+  explicit StagedFiles(std::string out_dir);  // creates out_dir if needed; throws rimline::Error
+  ~StagedFiles();                              // removes temporaries not committed
+  StagedFiles(const StagedFiles&) = delete;
+  StagedFiles& operator=(const StagedFiles&) = delete;
+
+  // Temporary path to write `name` to.
+  std::string path_for(const std::string& name);
+  void write_text(const std::string& name, const std::string& text);
+  // Renames every staged file to its final name.
+  void commit();
+
+ private:
+  std::string dir_;
+  std::vector<std::pair<std::string, std::string>> staged_;  // temp, final
+  bool committed_ = false;
+};
+
+}  // namespace rimline::report

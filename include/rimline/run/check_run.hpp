@@ -1,0 +1,50 @@
+#pragma once
+// One whole check: read -> network -> topology -> flows -> march (per tailwater level) -> checks.
+// No files are written here; report/ writes the outputs from a CheckRun.
+#include <optional>
+#include <vector>
+
+#include "rimline/checks/checks.hpp"
+#include "rimline/flows/design_flows.hpp"
+#include "rimline/io/project.hpp"
+#include "rimline/io/read_network.hpp"
+#include "rimline/solve/march.hpp"
+#include "rimline/topology/build.hpp"
+
+namespace rimline::run {
+
+struct RunOptions {
+  std::optional<units::System> report_units;          // overrides [project] units
+  std::vector<double> tailwater_levels_m;             // overrides [tailwater] levels
+  bool dry_run = false;                               // read and build the network only
+};
+
+// One tailwater level of a sweep.
+struct Case {
+  std::string label;       // "TW 12.400 m" or "free outfall"
+  double tailwater_m = std::numeric_limits<double>::quiet_NaN();
+  solve::MarchResult march;
+  Findings findings;       // criteria findings of this case
+};
+
+struct CheckRun {
+  io::Project project;
+  io::ReadResult read;
+  topology::Topology topology;
+  flows::DesignFlows flows;
+  checks::Criteria criteria;
+  solve::MarchOptions march_options;
+  units::System report_units = units::System::si;
+  std::vector<Case> cases;
+  std::vector<std::size_t> envelope_structure_case;  // per structure: the case with the highest HGL
+  std::vector<std::size_t> envelope_conduit_case;    // per conduit: the case with the highest inlet HGL
+  Findings data_findings;  // reading, topology, flows, march problems
+  Findings findings;       // every finding of the run: data + the worst criteria finding per feature and code
+};
+
+CheckRun run_check(const io::Project& project, const RunOptions& options);
+
+// Status of each structure in the envelope, for the result layer.
+std::string envelope_status(const CheckRun& run, std::size_t structure);
+
+}  // namespace rimline::run

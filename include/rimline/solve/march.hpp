@@ -1,0 +1,74 @@
+#pragma once
+// The HGL/EGL march: from each outfall's tailwater upstream through every conduit and
+// structure. Structures are treated as still pools: their water level is the energy level of
+// the outflow pipe's inlet plus the structure loss, and that level is the downstream water
+// level of every pipe discharging into them (so a pipe's exit velocity head is spent in the pool).
+#include <limits>
+#include <map>
+#include <string>
+#include <vector>
+
+#include "rimline/finding.hpp"
+#include "rimline/hydraulics/gvf.hpp"
+#include "rimline/hydraulics/losses.hpp"
+#include "rimline/model/network.hpp"
+#include "rimline/topology/build.hpp"
+
+namespace rimline::solve {
+
+enum class TailwaterMode { fixed, free, higher };
+
+struct MarchOptions {
+  TailwaterMode tailwater_mode = TailwaterMode::higher;
+  double tailwater_m = std::numeric_limits<double>::quiet_NaN();  // NaN: none (free unless an outfall field gives one)
+  hydraulics::StructureLossMethod loss_method = hydraulics::StructureLossMethod::constant_k;
+  hydraulics::Benching benching = hydraulics::Benching::flat;
+  std::map<std::string, double> k_by_type;  // structure kind name -> K
+  double default_k = 0.5;                   // common practice, no source
+  double default_structure_diameter_m = 1.2;
+  hydraulics::GvfOptions gvf;
+};
+
+struct ConduitResult {
+  bool solved = false;
+  std::string note;                    // why not solved, or a caveat
+  double flow_m3_s = 0.0;
+  double slope = 0.0;                  // (invert_up - invert_down) / length
+  double capacity_m3_s = std::numeric_limits<double>::quiet_NaN();  // full flow at slope; NaN if slope <= 0
+  double invert_up_m = 0.0;            // as used (a structure invert may stand in for a missing one)
+  double invert_down_m = 0.0;
+  hydraulics::ConduitProfile profile;  // step points, outlet first
+  double downstream_level_m = 0.0;     // the level it discharged into
+};
+
+struct StructureResult {
+  bool solved = false;
+  bool outfall = false;
+  double hgl_m = std::numeric_limits<double>::quiet_NaN();  // still pool: hgl == egl
+  double egl_m = std::numeric_limits<double>::quiet_NaN();
+  double tailwater_m = std::numeric_limits<double>::quiet_NaN();  // outfalls
+  std::size_t governing_outflow = model::no_index;  // conduit that set the level (diversions)
+  double loss_m = 0.0;                  // structure loss on the governing outflow
+  double k_effective = 0.0;
+  std::vector<hydraulics::LossTerm> loss_terms;
+};
+
+struct MarchResult {
+  std::vector<ConduitResult> conduits;     // aligned with network.conduits
+  std::vector<StructureResult> structures; // aligned with network.structures
+  Findings findings;                       // march problems (blocked, not converged)
+};
+
+MarchResult march(const model::Network& network, const topology::Topology& topo, const std::vector<double>& flow_m3_s,
+                  const MarchOptions& options);
+
+// The energy budget from a structure down to its outfall along the governing outflows: each
+// item adds to the tailwater so that the sum equals the structure's HGL (EGL) exactly.
+struct BudgetItem {
+  std::string kind;   // "tailwater", "exit", "friction", "structure"
+  std::string feature_id;
+  double head_m = 0.0;
+};
+std::vector<BudgetItem> loss_budget(const model::Network& network, const MarchResult& result, std::size_t structure);
+
+}  // namespace rimline::solve

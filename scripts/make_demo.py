@@ -1,0 +1,198 @@
+#!/usr/bin/env python3
+"""Writes the invented demo network (data/demo/metric and data/demo/us).
+
+Scenario (invented, no real place): the Quillfen Heights development drains through a storm
+trunk to an outfall on the (invented) Tarrowby Brook. A 1500 mm trunk of 20 manholes rises
+west from the outfall; three branches join it. Seeded data defects: pipe C-02 is digitised
+against the flow (its inverts were entered in digitising order), manhole B-05 has no rim level.
+The US variant is the same network in US survey feet (EPSG:2277 coordinates), inches, feet and cfs.
+Deterministic: no random numbers.
+"""
+import json, math, os, sys
+
+HERE = os.path.dirname(os.path.abspath(__file__))
+OUT = os.path.join(HERE, "..", "data", "demo")
+ORIGIN_M = (452300.0, 5385200.0)            # arbitrary easting/northing in the metric CRS
+ORIGIN_US = (2300000.0, 13900000.0)         # arbitrary, US survey feet
+FT_PER_M_US = 3937.0 / 1200.0              # US survey feet per metre (NIST SP 811 B.6)
+FT_PER_M = 1.0 / 0.3048                    # international feet per metre
+
+def build():
+    nodes = []   # dict(id, type, x, y, invert, rim, inflow_lps)
+    pipes = []   # dict(id, up, down, dia_mm, material)
+    def node(nid, kind, x, y, invert, cover, inflow, dia_mm):
+        rim = invert + dia_mm / 1000.0 + cover
+        nodes.append(dict(id=nid, type=kind, x=x, y=y, invert=round(invert, 3), rim=round(rim, 3), inflow=inflow))
+        return nodes[-1]
+
+    # Outfall headwall: invert 2.00 m, bank level 4.60 m.
+    of = node("OF-1", "OUTFALL", 0.0, 0.0, 2.00, 1.10, 0.0, 1500)
+    # Trunk T-01..T-18 rising west-north-west; slopes 0.20 % near the outfall to 0.55 % at the head.
+    x, y, inv = 0.0, 0.0, 2.00
+    prev = of
+    trunk = []
+    for i in range(1, 21):
+        length = 72.0 + 3.0 * (i % 5)
+        heading = math.radians(170.0 + 8.0 * math.sin(i / 2.0))
+        x += length * math.cos(heading); y += length * math.sin(heading)
+        slope = 0.0020 + 0.00020 * i
+        dia = 1500 if i <= 5 else 1350 if i <= 9 else 1050 if i <= 13 else 900 if i <= 17 else 675
+        inv = inv + slope * length + 0.03   # pipe rise plus a 30 mm drop across each manhole
+        # A low spot in the ground at T-04..T-06 (shallow cover) makes the freeboard tight there.
+        cover = 0.35 if i in (4, 5) else 0.55 if i == 6 else 1.4 + 0.1 * (i % 3)
+        n = node(f"T-{i:02d}", "MH" if i % 3 else "INLET", x, y, inv, cover, 0.0 if i % 3 else 70.0, dia)
+        # pipe inverts are set from the manholes in fix_trunk_inverts()
+        pipes.append(dict(id=f"P-T{i:02d}", up=n["id"], down=prev["id"], dia=dia, mat="RCP"))
+        trunk.append(n); prev = n
+
+    def branch(tag, at, count, heading_deg, dia_list, slopes, inflows, spacing=68.0):
+        px, py, pinv = at["x"], at["y"], at["invert"] + 0.25   # branch enters 0.25 m above the trunk invert
+        down = at
+        for k in range(1, count + 1):
+            h = math.radians(heading_deg + 6.0 * math.cos(k))
+            length = spacing + 4.0 * (k % 3)
+            px += length * math.cos(h); py += length * math.sin(h)
+            dia = dia_list[k - 1]
+            inv_down = pinv if k == 1 else down["invert"] + 0.02
+            inv_up = inv_down + slopes[k - 1] * length
+            n = node(f"{tag}-{k:02d}", "INLET", px, py, inv_up, 1.3 + 0.15 * (k % 2), inflows[k - 1], dia)
+            pipes.append(dict(id=f"{tag}-{k:02d}", up=n["id"], down=down["id"], dia=dia, mat="RCP",
+                              inv_up=round(inv_up, 3), inv_down=round(inv_down, 3)))
+            down = n
+
+    branch("B", trunk[4], 8, 250.0, [900, 825, 750, 675, 600, 525, 450, 375],
+           [0.0030, 0.0035, 0.0040, 0.0045, 0.0050, 0.0060, 0.0070, 0.0100],
+           [140, 130, 120, 120, 110, 100, 90, 80])
+    branch("C", trunk[9], 7, 95.0, [750, 675, 600, 525, 450, 450, 375],
+           [0.0040, 0.0045, 0.0050, 0.0060, 0.0800, 0.0080, 0.0100],
+           [120, 110, 100, 90, 140, 80, 70])
+    branch("D", trunk[13], 6, 215.0, [600, 525, 450, 375, 375, 300],
+           [0.0045, 0.0050, 0.0060, 0.0070, 0.0008, 0.0100],
+           [100, 90, 80, 70, 10, 60])
+    # The trunk head collects the upland inflow.
+    for n in nodes:
+        if n["id"] == "T-20": n["inflow"] = 240.0
+    return nodes, pipes
+
+def fix_trunk_inverts(nodes, pipes):
+    """Trunk pipe inverts: upstream = the manhole invert, downstream = 30 mm above the next manhole."""
+    by_id = {n["id"]: n for n in nodes}
+    for p in pipes:
+        if p["id"].startswith("P-T"):
+            p["inv_up"] = by_id[p["up"]]["invert"]
+            p["inv_down"] = round(by_id[p["down"]]["invert"] + (0.0 if p["down"] == "OF-1" else 0.03), 3)
+
+def features(nodes, pipes, units):
+    by_id = {n["id"]: n for n in nodes}
+    def xy(n):
+        if units == "si": return [round(ORIGIN_M[0] + n["x"], 3), round(ORIGIN_M[1] + n["y"], 3)]
+        return [round(ORIGIN_US[0] + n["x"] * FT_PER_M_US, 3), round(ORIGIN_US[1] + n["y"] * FT_PER_M_US, 3)]
+    def elev(v):
+        return round(v, 3) if units == "si" else round(v * FT_PER_M, 3)
+    sf = []
+    for n in nodes:
+        rim = None if n["id"] == "B-05" else elev(n["rim"])                   # seeded defect: missing rim
+        props = {"NODE_ID": n["id"], "NODE_TYPE": n["type"], "RIM": rim, "SUMP": elev(n["invert"])}
+        props["Q_LOCAL"] = n["inflow"] if units == "si" else round(n["inflow"] / 1000.0 * FT_PER_M ** 3, 3)
+        sf.append({"type": "Feature", "properties": props, "geometry": {"type": "Point", "coordinates": xy(n)}})
+    pf = []
+    for p in pipes:
+        a, b = xy(by_id[p["up"]]), xy(by_id[p["down"]])
+        coords = [a, [round((a[0] + b[0]) / 2 + 0.0, 3), round((a[1] + b[1]) / 2, 3)], b]
+        inv_up, inv_down = elev(p["inv_up"]), elev(p["inv_down"])
+        if p["id"] == "C-02":                  # seeded defect: digitised against the flow,
+            coords.reverse()                   # inverts entered in digitising order
+            inv_up, inv_down = inv_down, inv_up
+        size = p["dia"] if units == "si" else round(p["dia"] / 25.4)
+        props = {"PIPE_ID": p["id"], "MATERIAL": p["mat"], "SIZE": size, "US_INV": inv_up, "DS_INV": inv_down}
+        pf.append({"type": "Feature", "properties": props, "geometry": {"type": "LineString", "coordinates": coords}})
+    crs = "urn:ogc:def:crs:EPSG::32631" if units == "si" else "urn:ogc:def:crs:EPSG::2277"
+    wrap = lambda name, f: {"type": "FeatureCollection", "name": name,
+                            "crs": {"type": "name", "properties": {"name": crs}}, "features": f}
+    return wrap("structures", sf), wrap("pipes", pf)
+
+PROJECT = """# rimline demo project ({label}). Invented scenario: Quillfen Heights storm trunk to Tarrowby Brook.
+# Every value here is invented for the demo; nothing in it is a check value.
+[project]
+name = "Quillfen Heights storm trunk (invented demo, {label})"
+units = "{units}"
+
+[pipes]
+source = "pipes.geojson"
+snap_tolerance = "{snap}"
+
+[pipes.fields]
+id = "PIPE_ID"
+material = "MATERIAL"
+diameter = {{ field = "SIZE", unit = "{dia_unit}" }}
+invert_up = {{ field = "US_INV", unit = "{elev_unit}" }}
+invert_down = {{ field = "DS_INV", unit = "{elev_unit}" }}
+
+[pipes.defaults]
+manning_n = 0.013
+
+[pipes.defaults.manning_n_by_material]
+RCP = 0.013
+PVC = 0.010
+
+[structures]
+source = "structures.geojson"
+
+[structures.fields]
+id = "NODE_ID"
+type = "NODE_TYPE"
+rim = {{ field = "RIM", unit = "{elev_unit}" }}
+invert = {{ field = "SUMP", unit = "{elev_unit}" }}
+inflow = {{ field = "Q_LOCAL", unit = "{flow_unit}" }}
+
+[structures.types]
+outfall = ["OUTFALL"]
+inlet = ["INLET"]
+manhole = ["MH"]
+
+[flows]
+mode = "structure_inflows"
+
+[tailwater]
+mode = "higher"
+levels = [{levels}]
+
+[methods]
+friction = "manning"
+structure_loss = "constant_k"
+
+[methods.k_by_type]
+manhole = 0.5
+inlet = 0.5
+outfall = 0.0
+
+[criteria]
+freeboard = "{freeboard}"
+velocity_min = "{vmin}"
+velocity_max = "{vmax}"
+capacity_ratio_max = 1.0
+"""
+
+def main():
+    nodes, pipes = build()
+    fix_trunk_inverts(nodes, pipes)
+    for units, folder in (("si", "metric"), ("us", "us")):
+        d = os.path.join(OUT, folder); os.makedirs(d, exist_ok=True)
+        s, p = features(nodes, pipes, units)
+        for name, obj in (("structures.geojson", s), ("pipes.geojson", p)):
+            with open(os.path.join(d, name), "w") as f:
+                json.dump(obj, f, indent=1); f.write("\n")
+        if units == "si":
+            text = PROJECT.format(label="metric", units="si", snap="0.5 m", dia_unit="mm", elev_unit="m",
+                                  flow_unit="L/s", levels='"3.20 m", "4.00 m"', freeboard="0.3 m",
+                                  vmin="0.9 m/s", vmax="4.6 m/s")
+        else:
+            text = PROJECT.format(label="US customary", units="us", snap="1.5 ft", dia_unit="in", elev_unit="ft",
+                                  flow_unit="cfs", levels='"10.50 ft", "13.12 ft"', freeboard="1 ft",
+                                  vmin="3 ft/s", vmax="15 ft/s")
+        with open(os.path.join(d, "project.toml"), "w") as f:
+            f.write(text)
+    print(f"{len(nodes)} structures, {len(pipes)} pipes written to {os.path.normpath(OUT)}")
+
+if __name__ == "__main__":
+    main()

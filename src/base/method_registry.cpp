@@ -1,0 +1,45 @@
+#include "rimline/method_registry.hpp"
+
+#include <array>
+
+namespace rimline {
+namespace {
+
+constexpr std::array<MethodRow, 13> rows{{
+    {"friction", "manning", "Manning", "V = (1/n) R^(2/3) S^(1/2) on the hydraulic radius of the wetted section",
+     "Manning (1891); SI and US (1.486) forms as in FHWA HEC-22, 3rd ed. (2009), ch. 7"},
+    {"friction", "darcy_weisbach", "Darcy-Weisbach with Colebrook-White",
+     "S = f/(4R) V^2/2g; f from Colebrook-White on ks and Re, 64/Re below Re 2000",
+     "Colebrook (1939), J. ICE 11(4), eq. for the transition region"},
+    {"friction", "hazen_williams", "Hazen-Williams", "V = 0.849 C R^0.63 S^0.54 (SI), pressure mains only",
+     "Williams & Hazen, Hydraulic Tables (1905/1920), SI form"},
+    {"profile", "standard_step", "Gradually varied flow, step method",
+     "dE/dx = S0 - Sf between sections, step length set by the allowed depth change; jump by specific force",
+     "Chow, Open-Channel Hydraulics (1959), ch. 10 (step methods) and ch. 15 (jump)"},
+    {"structure loss", "constant_k", "Constant K by structure type", "h = K V_o^2/2g on the outflow velocity",
+     "common practice, no source (K values are the project's)"},
+    {"structure loss", "bend", "K plus bend by deflection angle",
+     "h = (K + K_bend(theta)) V_o^2/2g, K_bend from the deflection between main inflow and outflow",
+     "bend coefficients from memory (see src/hydraulics/losses)"},
+    {"structure loss", "hec22", "HEC-22 access-hole energy-loss method",
+     "K = K_o C_D C_d C_Q C_p C_B with angle, depth, relative flow, plunging and benching corrections",
+     "FHWA HEC-22, 2nd ed. (2001), section 7.1.6 - implemented from memory, not from the document"},
+    {"criterion", "freeboard", "Freeboard below the rim", "HGL at least this far below the rim (default 0.3 m / 1 ft)",
+     "common practice, no source (agency manuals range from 0 to 1 ft)"},
+    {"criterion", "velocity_min", "Minimum velocity", "self-cleansing velocity at the design flow (default 0.9 m/s)",
+     "TxDOT Hydraulic Design Manual (2016 revision): 3 ft/s for storm drains"},
+    {"criterion", "velocity_min_sanitary", "Minimum velocity, sanitary", "0.6 m/s (2 ft/s) flowing full, n = 0.013",
+     "Recommended Standards for Wastewater Facilities (Ten States Standards), 2004, section 33.41"},
+    {"criterion", "velocity_max", "Maximum velocity", "erosion protection above about 4.6 m/s (15 ft/s)",
+     "Ten States Standards - from memory"},
+    {"criterion", "capacity_ratio_max", "Capacity ratio", "design flow over full-flow capacity at the pipe slope",
+     "common practice, no source"},
+    {"criterion", "cover_min", "Minimum cover", "rim minus crown at each end (off unless set)",
+     "common practice, no source (set from the local standard)"},
+}};
+
+}  // namespace
+
+std::span<const MethodRow> method_rows() { return rows; }
+
+}  // namespace rimline

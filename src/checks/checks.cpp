@@ -1,0 +1,138 @@
+#include "rimline/checks/checks.hpp"
+
+#include <algorithm>
+#include <cmath>
+#include <sstream>
+
+#include "rimline/hydraulics/friction.hpp"
+#include "rimline/hydraulics/section.hpp"
+
+namespace rimline::checks {
+namespace {
+
+constexpr double nan = std::numeric_limits<double>::quiet_NaN();
+constexpr auto L = units::Dimension::length;
+constexpr auto V = units::Dimension::velocity;
+
+std::string fmt(double v, int decimals = 2) {
+  std::ostringstream s;
+  s.setf(std::ios::fixed);
+  s.precision(decimals);
+  s << v;
+  return s.str();
+}
+
+double required_freeboard(const std::string& id, const Criteria& c, const CriteriaOverrides& o) {
+  for (const auto& [sid, f] : o.freeboard_m)
+    if (sid == id) return f;
+  return c.freeboard_m;
+}
+
+void check_structure(const model::Structure& s, const solve::StructureResult& r, double freeboard_m, Findings& out) {
+  if (!r.solved) return;
+  if (!s.rim_m) {
+    out.push_back({"RIM_UNKNOWN", Severity::info, LayerRole::structures, s.id, "rim", nan, nan,
+                   units::Dimension::length,
+                   "structure " + s.id + " has no rim level, so freeboard and flooding could not be checked."});
+    return;
+  }
+  const double fb = *s.rim_m - r.hgl_m;
+  if (fb < 0.0) {
+    out.push_back({"FLOODED", Severity::error, LayerRole::structures, s.id, "", fb, 0.0, units::Dimension::length,
+                   "structure " + s.id + ": the HGL (" + q(r.hgl_m, L) + ") is " + q(-fb, L) + " above the rim (" +
+                       q(*s.rim_m, L) + "); water leaves the system here."});
+  } else if (fb < freeboard_m) {
+    out.push_back({"FREEBOARD", Severity::warning, LayerRole::structures, s.id, "", fb, freeboard_m,
+                   units::Dimension::length,
+                   "structure " + s.id + ": the HGL (" + q(r.hgl_m, L) + ") is " + q(fb, L) +
+                       " below the rim, less than the required " + q(freeboard_m, L) + "."});
+  }
+}
+
+void check_conduit(const model::Network& net, std::size_t ci, const solve::ConduitResult& r, const Criteria& c,
+                   Findings& out) {
+  const auto& p = net.conduits[ci];
+  if (!r.solved) return;
+  const auto& prof = r.profile;
+  const double rise = hydraulics::rise_m(p.section);
+  const double crown_excess = std::max(prof.outlet().hgl_m - (r.invert_down_m + rise),
+                                       prof.inlet().hgl_m - (r.invert_up_m + rise));
+  if (prof.surcharged_length_m > 0.0 || crown_excess > 1e-6) {
+    out.push_back({"SURCHARGED", Severity::warning, LayerRole::conduits, p.id, "", std::max(crown_excess, 0.0), 0.0,
+                   units::Dimension::length,
+                   "pipe " + p.id + " runs surcharged over " + q(prof.surcharged_length_m, L) + " of its " +
+                       q(p.length_m, L) + "; the HGL stands up to " + q(std::max(crown_excess, 0.0), L) +
+                       " above the crown."});
+  }
+  if (r.flow_m3_s <= 0.0) return;
+  double v_low = 0.0;
+  std::string basis;
+  if (c.velocity_basis == VelocityBasis::full_flow && std::isfinite(r.capacity_m3_s)) {
+    v_low = r.capacity_m3_s / hydraulics::full_geometry(p.section).area_m2;
+    basis = "flowing full";
+  } else {
+    v_low = std::min(prof.outlet().velocity_m_s, prof.inlet().velocity_m_s);
+    basis = "at the design flow";
+  }
+  if (v_low < c.velocity_min_m_s) {
+    out.push_back({"VELOCITY_LOW", Severity::warning, LayerRole::conduits, p.id, "", v_low, c.velocity_min_m_s,
+                   units::Dimension::velocity,
+                   "pipe " + p.id + ": the velocity " + basis + " falls to " + q(v_low, V) + ", below the minimum " +
+                       q(c.velocity_min_m_s, V) + " (sediment may settle)."});
+  }
+  double v_high = 0.0;
+  for (const auto& pt : prof.points) v_high = std::max(v_high, pt.velocity_m_s);
+  if (c.velocity_max_m_s && v_high > *c.velocity_max_m_s) {
+    out.push_back({"VELOCITY_HIGH", Severity::warning, LayerRole::conduits, p.id, "", v_high, *c.velocity_max_m_s,
+                   units::Dimension::velocity,
+                   "pipe " + p.id + ": the velocity reaches " + q(v_high, V) + ", above the maximum " +
+                       q(*c.velocity_max_m_s, V) + " (scour; erosion protection may be needed)."});
+  }
+  if (std::isfinite(r.capacity_m3_s) && r.capacity_m3_s > 0.0) {
+    const double ratio = r.flow_m3_s / r.capacity_m3_s;
+    if (ratio > c.capacity_ratio_max) {
+      out.push_back({"CAPACITY", Severity::warning, LayerRole::conduits, p.id, "", ratio, c.capacity_ratio_max,
+                     units::Dimension::dimensionless,
+                     "pipe " + p.id + " carries " + fmt(ratio * 100.0, 0) + "% of its full-flow capacity (" +
+                         q(r.capacity_m3_s, units::Dimension::flow) + "), above the allowed " + fmt(c.capacity_ratio_max * 100.0, 0) +
+                         "%."});
+    }
+  }
+  if (c.cover_min_m) {
+    const auto& up = net.structures[p.from];
+    const auto& down = net.structures[p.to];
+    double cover = std::numeric_limits<double>::infinity();
+    if (up.rim_m) cover = std::min(cover, *up.rim_m - (r.invert_up_m + rise));
+    if (down.rim_m) cover = std::min(cover, *down.rim_m - (r.invert_down_m + rise));
+    if (std::isfinite(cover) && cover < *c.cover_min_m) {
+      out.push_back({"COVER", Severity::warning, LayerRole::conduits, p.id, "", cover, *c.cover_min_m,
+                     units::Dimension::length,
+                     "pipe " + p.id + ": the cover over the crown at a structure is " + q(cover, L) +
+                         ", less than the minimum " + q(*c.cover_min_m, L) + "."});
+    }
+  }
+}
+
+}  // namespace
+
+Findings run_checks(const model::Network& network, const solve::MarchResult& result, const Criteria& criteria,
+                    const CriteriaOverrides& overrides) {
+  Findings out;
+  for (std::size_t s = 0; s < network.structures.size(); ++s)
+    check_structure(network.structures[s], result.structures[s],
+                    required_freeboard(network.structures[s].id, criteria, overrides), out);
+  for (std::size_t ci = 0; ci < network.conduits.size(); ++ci)
+    check_conduit(network, ci, result.conduits[ci], criteria, out);
+  return out;
+}
+
+std::string structure_status(const model::Structure& s, const solve::StructureResult& r, double freeboard_m) {
+  if (!r.solved) return "not_checked";
+  if (!s.rim_m) return "unknown_rim";
+  const double fb = *s.rim_m - r.hgl_m;
+  if (fb < 0.0) return "flooded";
+  if (fb < freeboard_m) return "freeboard";
+  return "ok";
+}
+
+}  // namespace rimline::checks

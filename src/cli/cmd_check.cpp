@@ -1,0 +1,93 @@
+// `rimline check PROJECT --out DIR`: the main job.
+#include <iostream>
+#include <map>
+
+#include "cli/commands.hpp"
+#include "rimline/error.hpp"
+#include "rimline/io/project.hpp"
+#include "rimline/report/outputs.hpp"
+#include "rimline/run/check_run.hpp"
+#include "rimline/topology/summary.hpp"
+
+namespace rimline::cli {
+namespace {
+
+struct CheckArgs {
+  std::string project;
+  std::string out;
+  std::string fail_on = "warning";
+  std::string units;
+  std::vector<std::string> tailwater;
+  bool dry_run = false;
+};
+
+Severity parse_severity(const std::string& s) {
+  if (s == "info") return Severity::info;
+  if (s == "warning") return Severity::warning;
+  if (s == "error") return Severity::error;
+  throw Error(ErrorKind::bad_config, "--fail-on must be info, warning or error, not '" + s + "'");
+}
+
+void print_summary(const run::CheckRun& run, std::ostream& os) {
+  const auto s = topology::summarize(run.read.network, run.topology);
+  os << "network: " << s.structures << " structures, " << s.conduits << " conduits (" << s.usable_conduits
+     << " usable), " << s.outfalls << " outfalls, " << s.trees << " trees, " << s.diversions << " diversions, "
+     << render_message(q(s.total_length_m, units::Dimension::length), run.report_units) << " of pipe\n";
+  if (!run.read.network.crs_note.empty()) os << "crs: " << run.read.network.crs_note << "\n";
+}
+
+void print_findings(const Findings& findings, units::System sys, bool all, std::ostream& os) {
+  std::map<std::string, int> counts;
+  for (const auto& f : findings) ++counts[std::string(severity_name(f.severity)) + " " + f.code];
+  for (const auto& [k, n] : counts) os << "  " << n << " x " << k << "\n";
+  if (!all) return;
+  for (const auto& f : findings)
+    os << severity_name(f.severity) << ": " << f.code << ": " << layer_role_name(f.layer) << ":" << f.feature_id
+       << (f.field.empty() ? "" : ":field " + f.field) << ": " << render_message(f.message, sys) << "\n";
+}
+
+int run_check_command(const CheckArgs& a, const GlobalOptions& g) {
+  const Severity fail_on = parse_severity(a.fail_on);
+  const io::Project project = io::load_project(a.project);
+  run::RunOptions opt;
+  opt.dry_run = a.dry_run;
+  if (a.units == "si") opt.report_units = units::System::si;
+  else if (a.units == "us") opt.report_units = units::System::us;
+  else if (!a.units.empty()) throw Error(ErrorKind::bad_config, "--units must be si or us, not '" + a.units + "'");
+  for (const auto& t : a.tailwater)
+    opt.tailwater_levels_m.push_back(io::parse_quantity(t, units::Dimension::length, "--tailwater"));
+  if (!a.dry_run && a.out.empty()) throw Error(ErrorKind::bad_config, "check needs --out DIR (or --dry-run)");
+
+  const run::CheckRun result = run::run_check(project, opt);
+  if (!g.quiet) {
+    print_summary(result, std::cout);
+    std::cout << (a.dry_run ? "data findings:\n" : "findings:\n");
+    print_findings(result.findings, result.report_units, a.dry_run || g.verbose, std::cout);
+  }
+  if (!a.dry_run) {
+    report::write_outputs(result, a.out);
+    if (!g.quiet) std::cout << "wrote " << a.out << "/exceptions.csv, results.gpkg, summary.json\n"
+                            << report::caution << "\n";
+  }
+  for (const auto& f : result.findings)
+    if (f.severity >= fail_on) return exit_findings;
+  return exit_ok;
+}
+
+}  // namespace
+
+std::function<int()> setup_check(CLI::App& app, const GlobalOptions& global) {
+  auto a = std::make_shared<CheckArgs>();
+  app.add_option("project", a->project, "Project file (TOML) naming the layers, field mapping and criteria")->required();
+  app.add_option("-o,--out", a->out, "Output directory for exceptions.csv, results.gpkg, summary.json");
+  app.add_option("--fail-on", a->fail_on, "Exit 1 when a finding has this severity or worse: info, warning, error")
+      ->capture_default_str();
+  app.add_option("--units", a->units, "Report units: si or us (default: the project's)");
+  app.add_option("--tailwater", a->tailwater, "Tailwater level(s), e.g. \"12.4 m\"; several run as a sweep");
+  app.add_flag("--dry-run", a->dry_run, "Read and connect the network, print its summary and data findings, stop");
+  app.footer("Example:\n  rimline check data/demo/metric/project.toml --out out/demo\n"
+             "  rimline check project.toml --tailwater \"12.4 m\" --tailwater \"13.1 m\" --out out/sweep");
+  return [a, &global] { return run_check_command(*a, global); };
+}
+
+}  // namespace rimline::cli

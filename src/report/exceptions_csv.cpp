@@ -1,0 +1,50 @@
+#include <cmath>
+#include <cstdio>
+
+#include "rimline/report/outputs.hpp"
+
+namespace rimline::report {
+namespace {
+
+std::string csv_cell(const std::string& s) {
+  if (s.find_first_of(",\"\n\r") == std::string::npos) return s;
+  std::string out = "\"";
+  for (char c : s) {
+    if (c == '"') out += '"';
+    out += c;
+  }
+  return out + "\"";
+}
+
+std::string number(double v, units::Dimension d, units::System sys) {
+  if (!std::isfinite(v)) return "";
+  char buf[48];
+  std::snprintf(buf, sizeof buf, "%.4f", to_report(v, d, sys));
+  return buf;
+}
+
+std::string unit_text(units::Dimension d, units::System sys) {
+  if (d == units::Dimension::dimensionless) return "";
+  return std::string(units::unit_symbol(units::display_unit(d, sys)));
+}
+
+}  // namespace
+
+double to_report(double si_value, units::Dimension d, units::System s) {
+  return units::from_si(si_value, units::display_unit(d, s));
+}
+
+std::string exceptions_csv(const run::CheckRun& run) {
+  const auto sys = run.report_units;
+  std::string out = "code,severity,layer,feature_id,field,value,limit,unit,message\n";
+  for (const auto& f : run.findings) {
+    out += csv_cell(f.code) + ',' + std::string(severity_name(f.severity)) + ',' +
+           std::string(layer_role_name(f.layer)) + ',' + csv_cell(f.feature_id) + ',' + csv_cell(f.field) + ',' +
+           number(f.value, f.dimension, sys) + ',' + number(f.limit, f.dimension, sys) + ',' +
+           csv_cell(std::isfinite(f.value) || std::isfinite(f.limit) ? unit_text(f.dimension, sys) : "") + ',' +
+           csv_cell(render_message(f.message, sys)) + '\n';
+  }
+  return out;
+}
+
+}  // namespace rimline::report

@@ -1,0 +1,221 @@
+#include <gdal_priv.h>
+#include <ogr_spatialref.h>
+#include <ogrsf_frmts.h>
+
+#include <cmath>
+#include <memory>
+
+#include "rimline/error.hpp"
+#include "rimline/hydraulics/section.hpp"
+#include "rimline/report/outputs.hpp"
+#include "rimline/report/staged_files.hpp"
+
+namespace rimline::report {
+namespace {
+
+using units::Dimension;
+
+struct DatasetCloser {
+  void operator()(GDALDataset* d) const { GDALClose(d); }
+};
+
+class Writer {
+ public:
+  Writer(const run::CheckRun& run, const std::string& path) : run_(run), sys_(run.report_units), path_(path) {
+    GDALAllRegister();
+    auto* drv = GetGDALDriverManager()->GetDriverByName("GPKG");
+    if (!drv) throw Error(ErrorKind::internal, "GDAL has no GPKG driver");
+    ds_.reset(drv->Create(path.c_str(), 0, 0, 0, GDT_Unknown, nullptr));
+    if (!ds_) throw Error(ErrorKind::bad_config, ErrorContext{path, "", "", ""}, "cannot be created");
+    const auto& net = run.read.network;
+    if (!run.read.source_crs_wkt.empty()) out_srs_.importFromWkt(run.read.source_crs_wkt.c_str());
+    else if (!net.crs_wkt.empty()) out_srs_.importFromWkt(net.crs_wkt.c_str());
+    out_srs_.SetAxisMappingStrategy(OAMS_TRADITIONAL_GIS_ORDER);
+    if (!net.crs_wkt.empty() && !run.read.source_crs_wkt.empty()) {
+      run_srs_.importFromWkt(net.crs_wkt.c_str());
+      run_srs_.SetAxisMappingStrategy(OAMS_TRADITIONAL_GIS_ORDER);
+      if (!run_srs_.IsSame(&out_srs_)) to_source_.reset(OGRCreateCoordinateTransformation(&run_srs_, &out_srs_));
+    }
+  }
+
+  void write() {
+    ds_->StartTransaction();
+    write_structures();
+    write_conduits();
+    write_cases();
+    if (ds_->CommitTransaction() != OGRERR_NONE)
+      throw Error(ErrorKind::bad_config, ErrorContext{path_, "", "", ""}, "cannot be written");
+  }
+
+ private:
+  // Run coordinates are metres in the run CRS; the outputs go back to the input CRS and its unit.
+  void place(double& x, double& y) const {
+    const double k = run_.read.network.crs_metres_per_unit;
+    x /= k;
+    y /= k;
+    if (to_source_) to_source_->Transform(1, &x, &y);
+  }
+
+  OGRLayer* layer(const char* name, OGRwkbGeometryType type) {
+    char** opts = nullptr;
+    opts = CSLSetNameValue(opts, "FID", "fid");
+    OGRLayer* l = ds_->CreateLayer(name, type == wkbNone ? nullptr : &out_srs_, type, opts);
+    CSLDestroy(opts);
+    if (!l) throw Error(ErrorKind::bad_config, ErrorContext{path_, name, "", ""}, "layer cannot be created");
+    l->SetMetadataItem("RIMLINE_UNITS", sys_ == units::System::us ? "length ft, flow cfs, velocity ft/s"
+                                                                  : "length m, flow m3/s, velocity m/s");
+    l->SetMetadataItem("RIMLINE_CAUTION", caution);
+    return l;
+  }
+
+  static void field(OGRLayer* l, const char* name, OGRFieldType t) {
+    OGRFieldDefn d(name, t);
+    l->CreateField(&d);
+  }
+
+  void set(OGRFeature& f, const char* name, double si, Dimension d) const {
+    if (std::isfinite(si)) f.SetField(name, to_report(si, d, sys_));
+    else f.SetFieldNull(f.GetFieldIndex(name));
+  }
+
+  void write_structures() {
+    OGRLayer* l = layer("structures", wkbPoint);
+    for (const char* n : {"id", "kind", "status", "governing_outflow", "tailwater_case"}) field(l, n, OFTString);
+    for (const char* n : {"rim", "invert", "hgl", "egl", "freeboard", "required_freeboard", "structure_loss", "k_effective"})
+      field(l, n, OFTReal);
+    const auto& net = run_.read.network;
+    for (std::size_t s = 0; s < net.structures.size(); ++s) {
+      const auto& st = net.structures[s];
+      OGRFeature f(l->GetLayerDefn());
+      f.SetField("id", st.id.c_str());
+      f.SetField("kind", std::string(model::structure_kind_name(st.kind)).c_str());
+      f.SetField("status", run::envelope_status(run_, s).c_str());
+      set(f, "rim", st.rim_m.value_or(NAN), Dimension::length);
+      set(f, "invert", st.invert_m.value_or(NAN), Dimension::length);
+      set(f, "required_freeboard", run_.criteria.freeboard_m, Dimension::length);
+      if (!run_.cases.empty()) {
+        const auto& c = run_.cases[run_.envelope_structure_case[s]];
+        const auto& r = c.march.structures[s];
+        f.SetField("tailwater_case", render_message(c.label, sys_).c_str());
+        if (r.solved) {
+          set(f, "hgl", r.hgl_m, Dimension::length);
+          set(f, "egl", r.egl_m, Dimension::length);
+          set(f, "freeboard", st.rim_m ? *st.rim_m - r.hgl_m : NAN, Dimension::length);
+          set(f, "structure_loss", r.loss_m, Dimension::length);
+          f.SetField("k_effective", r.k_effective);
+          if (r.governing_outflow != model::no_index)
+            f.SetField("governing_outflow", net.conduits[r.governing_outflow].id.c_str());
+        }
+      }
+      double x = st.location.x, y = st.location.y;
+      place(x, y);
+      OGRPoint pt(x, y);
+      f.SetGeometry(&pt);
+      l->CreateFeature(&f);
+    }
+  }
+
+  void write_conduits() {
+    OGRLayer* l = layer("conduits", wkbLineString);
+    for (const char* n : {"id", "from_id", "to_id", "shape", "regime", "governs", "profile_class", "note", "tailwater_case"})
+      field(l, n, OFTString);
+    for (const char* n : {"rise", "width", "length", "slope", "flow", "capacity", "capacity_ratio", "velocity_up",
+                          "velocity_down", "depth_up", "depth_down", "hgl_up", "hgl_down", "egl_up", "egl_down",
+                          "normal_depth", "critical_depth", "surcharged_length", "invert_up", "invert_down"})
+      field(l, n, OFTReal);
+    field(l, "reversed", OFTInteger);
+    const auto& net = run_.read.network;
+    for (std::size_t ci = 0; ci < net.conduits.size(); ++ci) {
+      const auto& c = net.conduits[ci];
+      OGRFeature f(l->GetLayerDefn());
+      f.SetField("id", c.id.c_str());
+      if (c.from != model::no_index) f.SetField("from_id", net.structures[c.from].id.c_str());
+      if (c.to != model::no_index) f.SetField("to_id", net.structures[c.to].id.c_str());
+      f.SetField("shape", std::string(hydraulics::shape_name(c.section.shape)).c_str());
+      set(f, "rise", c.section.shape == hydraulics::Shape::circular ? c.section.diameter_m : c.section.height_m,
+          Dimension::length);
+      set(f, "width", c.section.shape == hydraulics::Shape::box ? c.section.width_m : NAN, Dimension::length);
+      set(f, "length", c.length_m, Dimension::length);
+      f.SetField("reversed", c.reversed ? 1 : 0);
+      if (!run_.cases.empty()) {
+        const auto& cs = run_.cases[run_.envelope_conduit_case[ci]];
+        const auto& r = cs.march.conduits[ci];
+        f.SetField("tailwater_case", render_message(cs.label, sys_).c_str());
+        if (!r.note.empty()) f.SetField("note", r.note.c_str());
+        set(f, "flow", r.flow_m3_s, Dimension::flow);
+        if (r.solved) {
+          const auto& p = r.profile;
+          f.SetField("slope", r.slope);
+          set(f, "capacity", r.capacity_m3_s, Dimension::flow);
+          if (std::isfinite(r.capacity_m3_s) && r.capacity_m3_s > 0) f.SetField("capacity_ratio", r.flow_m3_s / r.capacity_m3_s);
+          set(f, "invert_up", r.invert_up_m, Dimension::length);
+          set(f, "invert_down", r.invert_down_m, Dimension::length);
+          set(f, "velocity_up", p.inlet().velocity_m_s, Dimension::velocity);
+          set(f, "velocity_down", p.outlet().velocity_m_s, Dimension::velocity);
+          set(f, "depth_up", p.inlet().depth_m, Dimension::length);
+          set(f, "depth_down", p.outlet().depth_m, Dimension::length);
+          set(f, "hgl_up", p.inlet().hgl_m, Dimension::length);
+          set(f, "hgl_down", p.outlet().hgl_m, Dimension::length);
+          set(f, "egl_up", p.inlet().egl_m, Dimension::length);
+          set(f, "egl_down", p.outlet().egl_m, Dimension::length);
+          set(f, "normal_depth", p.normal_depth_m, Dimension::length);
+          set(f, "critical_depth", p.critical_depth_m, Dimension::length);
+          set(f, "surcharged_length", p.surcharged_length_m, Dimension::length);
+          f.SetField("regime", std::string(hydraulics::regime_name(p.regime)).c_str());
+          f.SetField("governs", std::string(hydraulics::governs_name(p.governs)).c_str());
+          f.SetField("profile_class", p.profile_class.c_str());
+        }
+      }
+      OGRLineString line;
+      for (const auto& v : c.vertices) {
+        double x = v.x, y = v.y;
+        place(x, y);
+        line.addPoint(x, y);
+      }
+      if (line.getNumPoints() >= 2) f.SetGeometry(&line);
+      l->CreateFeature(&f);
+    }
+  }
+
+  void write_cases() {
+    OGRLayer* l = layer("structure_cases", wkbNone);
+    for (const char* n : {"id", "tailwater_case"}) field(l, n, OFTString);
+    for (const char* n : {"tailwater", "hgl", "freeboard"}) field(l, n, OFTReal);
+    const auto& net = run_.read.network;
+    for (const auto& c : run_.cases) {
+      for (std::size_t s = 0; s < net.structures.size(); ++s) {
+        const auto& r = c.march.structures[s];
+        OGRFeature f(l->GetLayerDefn());
+        f.SetField("id", net.structures[s].id.c_str());
+        f.SetField("tailwater_case", render_message(c.label, sys_).c_str());
+        set(f, "tailwater", c.tailwater_m, Dimension::length);
+        set(f, "hgl", r.solved ? r.hgl_m : NAN, Dimension::length);
+        const auto& rim = net.structures[s].rim_m;
+        set(f, "freeboard", r.solved && rim ? *rim - r.hgl_m : NAN, Dimension::length);
+        l->CreateFeature(&f);
+      }
+    }
+  }
+
+  const run::CheckRun& run_;
+  units::System sys_;
+  std::string path_;
+  std::unique_ptr<GDALDataset, DatasetCloser> ds_;
+  OGRSpatialReference out_srs_;
+  OGRSpatialReference run_srs_;
+  std::unique_ptr<OGRCoordinateTransformation> to_source_;
+};
+
+}  // namespace
+
+void write_results_gpkg(const run::CheckRun& run, const std::string& path) { Writer(run, path).write(); }
+
+void write_outputs(const run::CheckRun& run, const std::string& out_dir) {
+  StagedFiles files(out_dir);
+  files.write_text("exceptions.csv", exceptions_csv(run));
+  files.write_text("summary.json", summary_json(run));
+  write_results_gpkg(run, files.path_for("results.gpkg"));
+  files.commit();
+}
+
+}  // namespace rimline::report

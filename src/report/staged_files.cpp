@@ -1,0 +1,52 @@
+#include "rimline/report/staged_files.hpp"
+
+#include <unistd.h>
+
+#include <filesystem>
+#include <fstream>
+
+#include "rimline/error.hpp"
+
+namespace rimline::report {
+
+namespace fs = std::filesystem;
+
+StagedFiles::StagedFiles(std::string out_dir) : dir_(std::move(out_dir)) {
+  std::error_code ec;
+  fs::create_directories(dir_, ec);
+  if (ec || !fs::is_directory(dir_))
+    throw Error(ErrorKind::bad_config, ErrorContext{dir_, "", "", ""}, "output directory cannot be created: " + ec.message());
+}
+
+StagedFiles::~StagedFiles() {
+  if (committed_) return;
+  std::error_code ec;
+  for (const auto& [tmp, final_name] : staged_) fs::remove_all(tmp, ec);
+}
+
+std::string StagedFiles::path_for(const std::string& name) {
+  const std::string tmp = (fs::path(dir_) / ("." + name + ".partial-" + std::to_string(::getpid()))).string();
+  std::error_code ec;
+  fs::remove_all(tmp, ec);
+  staged_.emplace_back(tmp, (fs::path(dir_) / name).string());
+  return tmp;
+}
+
+void StagedFiles::write_text(const std::string& name, const std::string& text) {
+  const std::string tmp = path_for(name);
+  std::ofstream out(tmp, std::ios::binary | std::ios::trunc);
+  out << text;
+  out.flush();
+  if (!out) throw Error(ErrorKind::bad_config, ErrorContext{tmp, "", "", ""}, "cannot be written");
+}
+
+void StagedFiles::commit() {
+  for (const auto& [tmp, final_name] : staged_) {
+    std::error_code ec;
+    fs::rename(tmp, final_name, ec);
+    if (ec) throw Error(ErrorKind::bad_config, ErrorContext{final_name, "", "", ""}, "cannot be replaced: " + ec.message());
+  }
+  committed_ = true;
+}
+
+}  // namespace rimline::report

@@ -1,0 +1,102 @@
+#include <cmath>
+#include <map>
+#include <nlohmann/json.hpp>
+
+#include "rimline/hydraulics/friction.hpp"
+#include "rimline/report/outputs.hpp"
+#include "rimline/sha256.hpp"
+#include "rimline/topology/summary.hpp"
+#include "rimline/version.hpp"
+
+namespace rimline::report {
+namespace {
+
+using nlohmann::ordered_json;
+
+ordered_json length(double si, units::System s) {
+  if (!std::isfinite(si)) return nullptr;
+  return std::round(to_report(si, units::Dimension::length, s) * 1e4) / 1e4;
+}
+
+ordered_json velocity(double si, units::System s) {
+  return std::round(to_report(si, units::Dimension::velocity, s) * 1e4) / 1e4;
+}
+
+}  // namespace
+
+std::string summary_json(const run::CheckRun& run) {
+  const auto sys = run.report_units;
+  const auto& net = run.read.network;
+  ordered_json j;
+  j["tool"] = "rimline";
+  j["version"] = version_string;
+  j["caution"] = caution;
+  j["project"] = {{"name", run.project.name}, {"file", run.project.file}};
+  ordered_json inputs = ordered_json::array();
+  std::vector<std::string> files = run.read.input_files;
+  files.insert(files.begin(), run.project.file);
+  for (const auto& f : files) {
+    std::string hash;
+    try {
+      hash = sha256_file_hex(f);
+    } catch (const std::exception&) {
+      hash = "";  // a database source has no file to hash
+    }
+    inputs.push_back({{"path", f}, {"sha256", hash}});
+  }
+  j["inputs"] = inputs;
+  j["units"] = {{"system", sys == units::System::us ? "us" : "si"},
+                {"length", units::unit_symbol(units::display_unit(units::Dimension::length, sys))},
+                {"flow", units::unit_symbol(units::display_unit(units::Dimension::flow, sys))},
+                {"velocity", units::unit_symbol(units::display_unit(units::Dimension::velocity, sys))}};
+  j["crs"] = {{"run", net.crs_description}, {"note", net.crs_note}};
+  j["methods"] = {{"friction", hydraulics::friction_law_name(run.project.methods.friction)},
+                  {"structure_loss", hydraulics::structure_loss_method_name(run.march_options.loss_method)},
+                  {"default_k", run.march_options.default_k}};
+  ordered_json crit = {{"freeboard", length(run.criteria.freeboard_m, sys)},
+                       {"velocity_min", velocity(run.criteria.velocity_min_m_s, sys)},
+                       {"capacity_ratio_max", run.criteria.capacity_ratio_max}};
+  crit["velocity_max"] = run.criteria.velocity_max_m_s ? velocity(*run.criteria.velocity_max_m_s, sys) : ordered_json();
+  crit["cover_min"] = run.criteria.cover_min_m ? length(*run.criteria.cover_min_m, sys) : ordered_json();
+  j["criteria"] = crit;
+
+  const auto ns = topology::summarize(net, run.topology);
+  j["network"] = {{"structures", ns.structures}, {"conduits", ns.conduits}, {"outfalls", ns.outfalls},
+                  {"trees", ns.trees},           {"diversions", ns.diversions},
+                  {"total_length", length(ns.total_length_m, sys)}};
+
+  ordered_json cases = ordered_json::array();
+  for (const auto& c : run.cases) {
+    std::size_t solved = 0;
+    for (const auto& s : c.march.structures) solved += s.solved ? 1 : 0;
+    cases.push_back({{"label", render_message(c.label, sys)}, {"tailwater", length(c.tailwater_m, sys)},
+                     {"structures_solved", solved}, {"criteria_findings", c.findings.size()}});
+  }
+  j["cases"] = cases;
+
+  std::map<std::string, int> by_code;
+  std::map<std::string, int> by_severity{{"error", 0}, {"warning", 0}, {"info", 0}};
+  for (const auto& f : run.findings) {
+    ++by_code[f.code];
+    ++by_severity[std::string(severity_name(f.severity))];
+  }
+  j["counts"] = {{"by_code", by_code}, {"by_severity", by_severity}};
+
+  // Worst freeboard over the envelope.
+  double worst = std::numeric_limits<double>::infinity();
+  std::string worst_id;
+  for (std::size_t s = 0; s < net.structures.size() && !run.cases.empty(); ++s) {
+    const auto& r = run.cases[run.envelope_structure_case[s]].march.structures[s];
+    if (!r.solved || !net.structures[s].rim_m) continue;
+    const double fb = *net.structures[s].rim_m - r.hgl_m;
+    if (fb < worst) {
+      worst = fb;
+      worst_id = net.structures[s].id;
+    }
+  }
+  j["worst_freeboard"] = std::isfinite(worst) ? ordered_json{{"structure", worst_id}, {"freeboard", length(worst, sys)}}
+                                              : ordered_json();
+  return j.dump(2) + "\n";
+}
+
+}  // namespace rimline::report

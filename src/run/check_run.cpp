@@ -1,0 +1,136 @@
+#include "rimline/run/check_run.hpp"
+
+#include <cmath>
+#include <map>
+#include <tuple>
+
+namespace rimline::run {
+namespace {
+
+constexpr double nan = std::numeric_limits<double>::quiet_NaN();
+
+solve::MarchOptions march_options_from(const io::Project& p) {
+  solve::MarchOptions m;
+  switch (p.tailwater_mode) {
+    case io::TailwaterMode::fixed: m.tailwater_mode = solve::TailwaterMode::fixed; break;
+    case io::TailwaterMode::free: m.tailwater_mode = solve::TailwaterMode::free; break;
+    case io::TailwaterMode::higher: m.tailwater_mode = solve::TailwaterMode::higher; break;
+  }
+  m.loss_method = p.methods.structure_loss;
+  m.benching = p.methods.benching;
+  m.k_by_type = p.methods.k_by_type;
+  if (p.structure_defaults.loss_k) m.default_k = *p.structure_defaults.loss_k;
+  m.default_structure_diameter_m = p.structure_defaults.diameter_m;
+  return m;
+}
+
+checks::Criteria criteria_from(const io::Project& p) {
+  checks::Criteria c;
+  c.freeboard_m = p.criteria.freeboard_m;
+  c.velocity_min_m_s = p.criteria.velocity_min_m_s;
+  c.velocity_max_m_s = p.criteria.velocity_max_m_s;
+  c.capacity_ratio_max = p.criteria.capacity_ratio_max;
+  c.cover_min_m = p.criteria.cover_min_m;
+  return c;
+}
+
+// How bad a criteria finding is, so the envelope keeps the worst over the cases:
+// lower freeboard / higher surcharge, velocity or ratio is worse.
+double badness(const Finding& f) {
+  if (f.code == "FREEBOARD" || f.code == "FLOODED" || f.code == "VELOCITY_LOW" || f.code == "COVER") return -f.value;
+  return std::isfinite(f.value) ? f.value : 0.0;
+}
+
+Findings worst_per_feature(const std::vector<Case>& cases) {
+  std::map<std::tuple<std::string, int, std::string>, Finding> worst;
+  for (const auto& c : cases) {
+    for (auto f : c.findings) {
+      if (cases.size() > 1) f.message += " (" + c.label + ")";
+      // FLOODED and FREEBOARD are one question at one structure: keep the worse of the two.
+      const std::string key_code = f.code == "FLOODED" ? "FREEBOARD" : f.code;
+      const auto key = std::make_tuple(key_code, static_cast<int>(f.layer), f.feature_id);
+      auto it = worst.find(key);
+      if (it == worst.end() || badness(f) > badness(it->second)) worst[key] = f;
+    }
+  }
+  Findings out;
+  out.reserve(worst.size());
+  for (auto& [k, f] : worst) out.push_back(std::move(f));
+  return out;
+}
+
+std::string case_label(double tw) {
+  if (!std::isfinite(tw)) return "free outfall";
+  return "tailwater " + q(tw, units::Dimension::length);
+}
+
+}  // namespace
+
+CheckRun run_check(const io::Project& project, const RunOptions& options) {
+  CheckRun run;
+  run.project = project;
+  run.report_units = options.report_units.value_or(project.report_units);
+  run.read = io::read_network(project);
+  run.data_findings = run.read.findings;
+  topology::TopologyOptions topo_opt;
+  topo_opt.snap_tolerance_m = project.snap_tolerance_m;
+  run.topology = topology::build_topology(run.read.network, topo_opt, run.data_findings);
+  run.criteria = criteria_from(project);
+  run.march_options = march_options_from(project);
+  if (options.dry_run) {
+    run.findings = run.data_findings;
+    sort_findings(run.findings);
+    return run;
+  }
+
+  flows::FlowOptions flow_opt;
+  flow_opt.mode = project.flow_mode == io::FlowMode::pipe_field ? flows::Mode::pipe_field : flows::Mode::structure_inflows;
+  flow_opt.split = project.split_rule == io::SplitRule::field ? flows::Split::field : flows::Split::capacity;
+  flow_opt.friction = project.methods.friction;
+  run.flows = flows::design_flows(run.read.network, run.topology, flow_opt, run.data_findings);
+
+  std::vector<double> levels = options.tailwater_levels_m.empty() ? project.tailwater_levels_m : options.tailwater_levels_m;
+  if (levels.empty()) levels.push_back(nan);  // outfall fields or free outfalls decide
+  for (double tw : levels) {
+    Case c;
+    c.tailwater_m = tw;
+    c.label = case_label(tw);
+    auto opt = run.march_options;
+    opt.tailwater_m = tw;
+    c.march = solve::march(run.read.network, run.topology, run.flows.flow_m3_s, opt);
+    c.findings = checks::run_checks(run.read.network, c.march, run.criteria);
+    run.cases.push_back(std::move(c));
+  }
+  // March problems (blocked, not converged) are the same in every case but the first is kept.
+  for (const auto& f : run.cases.front().march.findings) run.data_findings.push_back(f);
+
+  const auto& net = run.read.network;
+  run.envelope_structure_case.assign(net.structures.size(), 0);
+  run.envelope_conduit_case.assign(net.conduits.size(), 0);
+  for (std::size_t k = 1; k < run.cases.size(); ++k) {
+    for (std::size_t s = 0; s < net.structures.size(); ++s) {
+      const auto& best = run.cases[run.envelope_structure_case[s]].march.structures[s];
+      const auto& cand = run.cases[k].march.structures[s];
+      if (cand.solved && (!best.solved || cand.hgl_m > best.hgl_m)) run.envelope_structure_case[s] = k;
+    }
+    for (std::size_t ci = 0; ci < net.conduits.size(); ++ci) {
+      const auto& best = run.cases[run.envelope_conduit_case[ci]].march.conduits[ci];
+      const auto& cand = run.cases[k].march.conduits[ci];
+      if (cand.solved && (!best.solved || cand.profile.inlet().hgl_m > best.profile.inlet().hgl_m))
+        run.envelope_conduit_case[ci] = k;
+    }
+  }
+  run.findings = run.data_findings;
+  for (auto& f : worst_per_feature(run.cases)) run.findings.push_back(std::move(f));
+  sort_findings(run.findings);
+  return run;
+}
+
+std::string envelope_status(const CheckRun& run, std::size_t structure) {
+  if (run.cases.empty()) return "not_checked";
+  const auto& c = run.cases[run.envelope_structure_case[structure]];
+  return checks::structure_status(run.read.network.structures[structure], c.march.structures[structure],
+                                  run.criteria.freeboard_m);
+}
+
+}  // namespace rimline::run
