@@ -37,4 +37,10 @@ double full_capacity_m3_s(const Roughness& r, const Section& s, double slope);
 // Discharge at depth y and slope S under uniform flow (conveyance * sqrt(S)).
 double uniform_flow_m3_s(const Roughness& r, const Section& s, double depth_m, double slope);
 
+// Manning's equation alone. The US customary form carries 1.486 ~ (1 m / 0.3048 m)^(1/3), so one n
+// serves both unit systems (R in ft, V in ft/s there).
+inline constexpr double manning_us_factor = 1.486;
+double manning_velocity_m_s(double manning_n, double hydraulic_radius_m, double slope);
+double manning_velocity_us_ft_s(double manning_n, double hydraulic_radius_ft, double slope);
+
 }  // namespace rimline::hydraulics
