@@ -1,0 +1,25 @@
+// build_topology: the stages in order. Each stage has its own header and file.
+#include "rimline/topology/build.hpp"
+
+#include "rimline/topology/connect.hpp"
+#include "rimline/topology/march_order.hpp"
+#include "rimline/topology/network_checks.hpp"
+#include "rimline/topology/orient.hpp"
+#include "rimline/topology/structure_geometry.hpp"
+
+namespace rimline::topology {
+
+Topology build_topology(model::Network& network, const TopologyOptions& options, Findings& findings) {
+  Topology topology;
+  report_duplicate_conduit_ids(network, findings);
+  const Connection connection = connect_network(network, options, findings);
+  topology.derived_structures = connection.derived_structures;
+  topology.turned_conduits = orient_conduits(network, connection, options, findings);
+  report_zero_length(network, options, findings);
+  build_march_order(network, topology, findings);
+  report_parallels(network, topology, findings);
+  compute_structure_geometry(network, topology);
+  return topology;
+}
+
+}  // namespace rimline::topology
