@@ -1,6 +1,7 @@
 #pragma once
 // Water-surface profile along one closed conduit: gradually varied flow by a step method
 // (step count set by accuracy), surcharged (pressure) reaches, free outlets, hydraulic jumps.
+#include <limits>
 #include <optional>
 #include <string>
 #include <vector>
@@ -43,20 +44,30 @@ struct ProfilePoint {
 };
 
 struct GvfOptions {
-  double depth_tolerance_m = 1.0e-4;  // standard-step closure per step
+  // Accuracy target per step: the estimated local error of the standard step (Milne's device on
+  // an Adams-Bashforth predictor) must stay below this; the energy equation itself is closed to
+  // ~1e-10 of the rise, so EGL = HGL + V^2/2g and the friction balance hold to round-off.
+  double depth_tolerance_m = 1.0e-4;
   double max_depth_change_m = 0.0;    // 0: auto (2% of the rise) - limits step size for accuracy
   int max_steps = 4000;
+  // Optional supercritical control at the inlet (flow arriving from a steep pipe or under a gate):
+  // a depth below critical starts an M3/S3/H3/A3 (or S2) curve downstream. NaN: none, the inlet
+  // is a free entrance (critical depth governs there on steep slopes).
+  double inlet_supercritical_depth_m = std::numeric_limits<double>::quiet_NaN();
 };
 
 struct ConduitProfile {
   std::vector<ProfilePoint> points;  // outlet (station 0) first, inlet (station = length) last
   Regime regime = Regime::subcritical;
   Governs governs = Governs::outlet_water_level;
-  std::string profile_class;         // e.g. "M1", "M2", "S2", "S2-jump-S1", "full", "M1-full"
+  std::string profile_class;         // e.g. "M1", "M2", "S2", "S2-jump-S1", "full", "M1-full": reaches
+                                     // in flow order (inlet first); "uniform" at normal depth, "still", "dry"
   double normal_depth_m = 0.0;       // NaN when none (adverse/horizontal, or Q above peak)
   double critical_depth_m = 0.0;     // rise when above the rise
   double surcharged_length_m = 0.0;
   std::optional<double> jump_station_m;
+  double jump_loss_m = 0.0;          // energy lost in the jump (EGL step at jump_station_m)
+  int steps = 0;                     // accepted step-method steps
   bool free_outlet = false;          // downstream level below outlet invert + critical depth
   bool converged = true;
   std::string note;                  // non-convergence or other caveat, one sentence

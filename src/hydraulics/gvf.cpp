@@ -1,0 +1,263 @@
+// Water-surface profile along one conduit: picks the controls, marches the subcritical branch
+// from the outlet and the supercritical branch from an inlet control, and joins them by a
+// hydraulic jump where their specific forces are equal (momentum balance, Chow 1959 ch. 15).
+#include "rimline/hydraulics/gvf.hpp"
+
+#include <algorithm>
+#include <cmath>
+#include <string>
+
+#include "hydraulics/gvf_branch.hpp"
+#include "hydraulics/gvf_summary.hpp"
+#include "hydraulics/kernels.hpp"
+#include "hydraulics/solve_1d.hpp"
+#include "rimline/error.hpp"
+
+namespace rimline::hydraulics {
+
+std::string_view regime_name(Regime r) {
+  switch (r) {
+    case Regime::dry: return "dry";
+    case Regime::subcritical: return "subcritical";
+    case Regime::supercritical: return "supercritical";
+    case Regime::mixed: return "mixed";
+    case Regime::pressurized: return "pressurized";
+    case Regime::partly_pressurized: return "partly_pressurized";
+  }
+  return "subcritical";
+}
+
+std::string_view governs_name(Governs g) {
+  switch (g) {
+    case Governs::outlet_water_level: return "outlet_water_level";
+    case Governs::critical_depth_outlet: return "critical_depth_outlet";
+    case Governs::normal_depth: return "normal_depth";
+    case Governs::inlet_control: return "inlet_control";
+    case Governs::surcharge: return "surcharge";
+    case Governs::still_water: return "still_water";
+  }
+  return "outlet_water_level";
+}
+
+namespace {
+using detail::Branch;
+using detail::Node;
+using detail::PreparedReach;
+
+void require_finite(double v, const char* what) {
+  if (!std::isfinite(v)) throw Error(ErrorKind::bad_argument, std::string(what) + " must be finite, got " + std::to_string(v));
+}
+
+PreparedReach prepare(const ConduitReach& reach, const GvfOptions& opt) {
+  validate(reach.section);
+  validate(reach.roughness);
+  require_finite(reach.length_m, "conduit length");
+  if (reach.length_m <= 0.0)
+    throw Error(ErrorKind::bad_argument, "conduit length must be positive, got " + std::to_string(reach.length_m) + " m");
+  require_finite(reach.invert_up_m, "upstream invert");
+  require_finite(reach.invert_down_m, "downstream invert");
+  require_finite(reach.flow_m3_s, "flow");
+  if (reach.flow_m3_s < 0.0)
+    throw Error(ErrorKind::bad_argument, "flow must not be negative (flows are positive downstream), got " + std::to_string(reach.flow_m3_s));
+  if (!(opt.depth_tolerance_m > 0.0) || !(opt.max_depth_change_m >= 0.0) || opt.max_steps < 2)
+    throw Error(ErrorKind::bad_argument, "profile options: depth tolerance must be > 0, max depth change >= 0, max steps >= 2");
+  PreparedReach r;
+  r.section = reach.section;
+  r.roughness = reach.roughness;
+  r.length = reach.length_m;
+  r.z_down = reach.invert_down_m;
+  r.slope = (reach.invert_up_m - reach.invert_down_m) / reach.length_m;
+  r.flow = reach.flow_m3_s;
+  r.rise = rise_m(reach.section);
+  r.area_full = full_geometry(reach.section).area_m2;
+  r.step_tolerance = opt.depth_tolerance_m;
+  r.max_dy = opt.max_depth_change_m > 0.0 ? opt.max_depth_change_m : 0.02 * r.rise;
+  r.max_steps = opt.max_steps;
+  return r;
+}
+
+ConduitProfile still_water(const PreparedReach& r, double level) {
+  // No flow: a level pool. Water cannot stand below the outlet invert's sill, so an adverse
+  // conduit keeps a pool at the outlet invert in its low end (dead storage).
+  const double pool = std::max(level, r.z_down);
+  std::vector<Node> nodes;
+  auto at = [&](double x) {
+    const double depth = pool - r.invert(x);
+    if (depth <= 0.0) return Node{x, 0.0, r.invert(x), false};
+    return Node{x, std::min(depth, r.rise), pool, depth >= r.rise};
+  };
+  nodes.push_back(at(0.0));
+  if (r.slope != 0.0) {
+    for (double depth : {r.rise, 0.0}) {  // where the pool meets the crown and the invert
+      const double x = (pool - depth - r.z_down) / r.slope;
+      if (x > 0.0 && x < r.length) nodes.push_back(at(x));
+    }
+  }
+  nodes.push_back(at(r.length));
+  std::sort(nodes.begin(), nodes.end(), [](const Node& a, const Node& b) { return a.x < b.x; });
+  ConduitProfile p = detail::summarise_still(r, nodes);
+  return p;
+}
+
+// Joins the subcritical branch (from the outlet) and the supercritical branch (from the inlet).
+struct Joined {
+  std::vector<Node> nodes;  // ascending station
+  std::optional<double> jump_x;
+  double jump_loss = 0.0;
+  std::size_t super_from = 0;  // index of the first node belonging to the supercritical branch
+  bool has_super = false;
+  bool ok = true;
+};
+
+double force_gap(const PreparedReach& r, const Branch& sub, const Branch& sup, double x) {
+  return detail::specific_force_at(r, detail::branch_at(r, sub, x)) - detail::specific_force_at(r, detail::branch_at(r, sup, x));
+}
+
+Joined join(const PreparedReach& r, const Branch& sub, const Branch* sup) {
+  Joined j;
+  const double sub_top = sub.end == detail::BranchEnd::reached_end ? r.length : sub.far_x();
+  auto take_sub_below = [&](double x_limit) {
+    for (const Node& n : sub.nodes)
+      if (n.x < x_limit) j.nodes.push_back(n);
+  };
+  auto take_super_above = [&](double x_limit) {
+    j.super_from = j.nodes.size();
+    j.has_super = true;
+    for (auto it = sup->nodes.rbegin(); it != sup->nodes.rend(); ++it)
+      if (it->x > x_limit) j.nodes.push_back(*it);
+  };
+  if (!sup) {
+    j.nodes = sub.nodes;
+    j.ok = sub.end == detail::BranchEnd::reached_end;
+    return j;
+  }
+  const double sup_bottom = sup->end == detail::BranchEnd::reached_end ? 0.0 : sup->far_x();
+  const double hi = std::min(r.length, sub_top), lo = std::max(0.0, sup_bottom);
+  if (sub.nodes.size() < 2 || hi <= lo) {
+    // No overlap: the supercritical flow leaves the conduit (tailwater too low to hold a jump).
+    if (lo <= 0.0) {
+      take_super_above(-1.0);
+      return j;
+    }
+    j.nodes = sub.nodes;  // neither branch spans the conduit: keep what the outlet control gives
+    j.ok = false;
+    return j;
+  }
+  // Scan from upstream: the jump stands at the first station where the downstream (subcritical)
+  // specific force reaches the supercritical one.
+  std::vector<double> stations{hi};
+  for (const Node& n : sub.nodes)
+    if (n.x > lo && n.x < hi) stations.push_back(n.x);
+  for (const Node& n : sup->nodes)
+    if (n.x > lo && n.x < hi) stations.push_back(n.x);
+  stations.push_back(lo);
+  std::sort(stations.begin(), stations.end(), std::greater<>());
+  double prev_x = hi, prev_gap = force_gap(r, sub, *sup, hi);
+  if (prev_gap >= 0.0 && hi >= r.length) {  // jump drowned at the inlet: subcritical throughout
+    j.nodes = sub.nodes;
+    return j;
+  }
+  std::optional<double> jump;
+  if (prev_gap >= 0.0) jump = hi;
+  for (std::size_t k = 1; k < stations.size() && !jump; ++k) {
+    const double x = stations[k];
+    if (x >= prev_x) continue;
+    const double gap = force_gap(r, sub, *sup, x);
+    if (gap >= 0.0) {
+      auto f = [&](double s) { return force_gap(r, sub, *sup, s); };
+      jump = detail::brent_root(f, x, prev_x, gap, prev_gap, 1e-6 * r.length, 100).x;
+    }
+    prev_x = x;
+    prev_gap = gap;
+  }
+  if (!jump) {  // supercritical to the outlet: any jump forms beyond the conduit
+    take_super_above(-1.0);
+    return j;
+  }
+  const Node sub_at = detail::branch_at(r, sub, *jump), sup_at = detail::branch_at(r, *sup, *jump);
+  take_sub_below(*jump);
+  j.nodes.push_back(sub_at);
+  j.super_from = j.nodes.size();
+  j.has_super = true;
+  j.nodes.push_back(sup_at);
+  for (auto it = sup->nodes.rbegin(); it != sup->nodes.rend(); ++it)
+    if (it->x > *jump) j.nodes.push_back(*it);
+  j.jump_x = *jump;
+  j.jump_loss = std::max(0.0, detail::total_head(r, sup_at) - detail::total_head(r, sub_at));
+  return j;
+}
+}  // namespace
+
+ConduitProfile compute_profile(const ConduitReach& reach, double downstream_level_m, const GvfOptions& options) {
+  PreparedReach r = prepare(reach, options);
+  require_finite(downstream_level_m, "downstream water level");
+  if (r.flow == 0.0) return still_water(r, downstream_level_m);
+
+  const DepthSolve yc = critical_depth(r.section, r.flow);
+  r.yc = yc.exists ? yc.depth_m : r.rise;
+  r.sf_full = detail::friction_slope_of(r.roughness, r.flow, r.area_full, full_geometry(r.section).hydraulic_radius_m);
+  double q_full = 0.0;
+  if (r.slope > 0.0) {
+    q_full = full_capacity_m3_s(r.roughness, r.section, r.slope);
+    const DepthSolve yn = normal_depth(r.roughness, r.section, r.flow, r.slope);
+    r.has_normal = yn.exists;
+    r.yn = yn.depth_m;
+  }
+  const double outlet_depth = downstream_level_m - r.z_down;
+  const bool free_outlet = yc.exists && outlet_depth < r.yc;
+  std::string note;
+
+  // Controls. Above full capacity (or with critical depth above the rise) no free surface can
+  // carry the flow: the conduit runs full from the outlet crown or the tailwater, whichever is higher.
+  Node start;
+  const bool over_capacity = r.slope > 0.0 && r.flow > q_full;
+  if (over_capacity || outlet_depth >= r.rise || !yc.exists) {
+    start = {0.0, r.rise, std::max(downstream_level_m, r.crown(0.0)), true};
+    if (!yc.exists) note = "critical depth lies above the rise: treated as full flow";
+  } else {
+    const double y0 = std::max(outlet_depth, r.yc);
+    start = {0.0, y0, r.invert(0.0) + y0, false};
+  }
+  Branch sub = over_capacity ? Branch{} : detail::march_subcritical(r, start);
+  if (over_capacity) {
+    sub.nodes = {start, {r.length, r.rise, start.hgl + r.sf_full * r.length, true}};
+    note = "flow exceeds the full-flow capacity at this slope: the conduit runs surcharged";
+  }
+
+  Branch sup;
+  bool has_sup = false;
+  if (!over_capacity && yc.exists) {
+    const double given = options.inlet_supercritical_depth_m;
+    if (std::isfinite(given) && given > 0.0 && given < r.yc) {
+      sup = detail::march_supercritical(r, {r.length, given, r.invert(r.length) + given, false});
+      has_sup = true;
+    } else if (r.has_normal && r.yn < r.yc) {  // steep: critical depth at the inlet
+      sup = detail::march_supercritical(r, {r.length, r.yc, r.invert(r.length) + r.yc, false});
+      has_sup = true;
+    }
+  }
+  const Joined joined = join(r, sub, has_sup ? &sup : nullptr);
+  ConduitProfile p = detail::summarise(r, joined.nodes, joined.has_super ? joined.super_from : joined.nodes.size(), free_outlet);
+  p.free_outlet = free_outlet;
+  p.jump_station_m = joined.jump_x;
+  p.jump_loss_m = joined.jump_loss;
+  p.steps = sub.steps + (has_sup ? sup.steps : 0);
+  p.normal_depth_m = r.has_normal ? r.yn : std::nan("");
+  p.critical_depth_m = r.yc;
+  const bool capped = sub.end == detail::BranchEnd::step_cap || (has_sup && sup.end == detail::BranchEnd::step_cap);
+  if (capped) {
+    p.converged = false;
+    note = "the step method hit its step cap of " + std::to_string(r.max_steps) + " steps";
+  } else if (!joined.ok) {
+    p.converged = false;
+    note = "neither the outlet nor an inlet control spans the conduit; the profile stops at critical depth";
+  }
+  if (p.points.size() < 2) {  // a degenerate march: keep the two ends
+    p.converged = false;
+    note = "the profile could not be marched; ends only";
+  }
+  p.note = note;
+  return p;
+}
+
+}  // namespace rimline::hydraulics

@@ -1,0 +1,297 @@
+// Standard step method (Chow 1959, Open-Channel Hydraulics, sec. 10-3): between stations x0 and
+// x1 the energy equation
+//     z1 + E(y1) = z0 + E(y0) + (x1 - x0) (Sf0 + Sf1) / 2        (x increasing upstream)
+// is solved for y1 on the branch's side of critical depth. The step length is adapted so that
+// the local error estimated by Milne's device (trapezoid corrector against an Adams-Bashforth
+// predictor: error ~ |y_corrected - y_predicted| / 6) stays below the tolerance, and the depth
+// change per step below max_dy. Where the surface reaches the crown or critical depth, a direct
+// step (solve the same equation for the distance) places the point exactly.
+#include "hydraulics/gvf_branch.hpp"
+
+#include <algorithm>
+#include <cmath>
+
+#include "hydraulics/kernels.hpp"
+#include "hydraulics/solve_1d.hpp"
+#include "rimline/units.hpp"
+
+namespace rimline::hydraulics::detail {
+
+namespace {
+constexpr double g = units::gravity_m_s2;
+
+struct State {
+  double y = 0.0, area = 0.0, sf = 0.0, e = 0.0, fr2 = 0.0;
+};
+
+State free_state(const PreparedReach& r, double y) {
+  const Geometry geo = free_surface_geometry(r.section, y);
+  State s;
+  s.y = y;
+  s.area = geo.area_m2;
+  s.sf = friction_slope_of(r.roughness, r.flow, geo.area_m2, geo.hydraulic_radius_m);
+  const double v = r.flow / geo.area_m2;
+  s.e = y + v * v / (2.0 * g);
+  s.fr2 = geo.top_width_m > 0.0 ? r.flow * r.flow * geo.top_width_m / (g * geo.area_m2 * geo.area_m2 * geo.area_m2) : 0.0;
+  return s;
+}
+
+// dy/dx with x increasing upstream: -(S0 - Sf) / (1 - Fr^2).
+double depth_slope(const PreparedReach& r, const State& s) { return (s.sf - r.slope) / (1.0 - s.fr2); }
+
+enum class StepOutcome { ok, crown, critical };
+struct StepResult {
+  StepOutcome outcome = StepOutcome::ok;
+  State state;
+};
+
+StepResult standard_step(const PreparedReach& r, double x0, double head0, double sf0, double x1, Side side,
+                         double guess = -1.0, double width = 0.0) {
+  const double dx = x1 - x0, z1 = r.invert(x1);
+  auto residual = [&](double y) {
+    const State s = free_state(r, y);
+    return z1 + s.e - head0 - 0.5 * dx * (sf0 + s.sf);
+  };
+  const double tol = r.closure * r.rise;
+  // Residual rises with y on the subcritical limb (dE/dy = 1 - Fr^2 > 0, Sf falls with y) and
+  // falls with y on the supercritical limb.
+  const double sign = side == Side::sub ? 1.0 : -1.0;
+  const double lo_limit = side == Side::sub ? r.yc : 1e-9 * r.rise, hi_limit = side == Side::sub ? r.rise : r.yc;
+  if (guess > lo_limit && guess < hi_limit) {  // try a narrow bracket around the predictor first
+    const double a = std::max(lo_limit, guess - width), b = std::min(hi_limit, guess + width);
+    const double fa = residual(a), fb = residual(b);
+    if (sign * fa <= 0.0 && sign * fb >= 0.0) return {StepOutcome::ok, free_state(r, brent_root(residual, a, b, fa, fb, tol, 200).x)};
+  }
+  if (side == Side::sub) {
+    const double f_lo = residual(r.yc);
+    if (f_lo > 0.0) return {StepOutcome::critical, {}};
+    const double f_hi = residual(r.rise);
+    if (f_hi < 0.0) return {StepOutcome::crown, {}};
+    return {StepOutcome::ok, free_state(r, brent_root(residual, r.yc, r.rise, f_lo, f_hi, tol, 200).x)};
+  }
+  const double f_hi = residual(r.yc);
+  if (f_hi > 0.0) return {StepOutcome::critical, {}};
+  return {StepOutcome::ok, free_state(r, brent_root(residual, lo_limit, r.yc, residual(lo_limit), f_hi, tol, 200).x)};
+}
+
+// Direct step: the signed distance from (x0, state0) to where the depth is y_target.
+double direct_step(const PreparedReach& r, double x0, double head0, double sf0, double y_target) {
+  const State t = free_state(r, y_target);
+  const double spec0 = head0 - r.invert(x0);
+  const double denom = 0.5 * (sf0 + t.sf) - r.slope;
+  return denom == 0.0 ? 0.0 : (t.e - spec0) / denom;
+}
+
+// Marches a free surface from `start` towards x_end (dir = +1 upstream, -1 downstream). Appends
+// accepted nodes to b. Returns how the march ended; BranchEnd::reached_end with the last node at
+// the crown means the surface met the soffit (sub side only).
+enum class FreeEnd { end, crown, critical, cap };
+
+FreeEnd march_free(const PreparedReach& r, Branch& b, const Node& start, double x_end, int dir) {
+  const double dir_d = static_cast<double>(dir);
+  double x = start.x;
+  State s0 = free_state(r, start.y);
+  double head0 = r.invert(x) + s0.e;
+  bool have_prev = false;
+  double f_prev = 0.0, dx_prev = 0.0;
+  const double min_step = 1e-7 * r.length;
+
+  // At critical depth dy/dx is infinite: take the first step by depth, not by distance.
+  if (std::fabs(1.0 - s0.fr2) < 1e-6) {
+    const double drift = b.side == Side::sub ? s0.sf - r.slope : r.slope - s0.sf;  // > 0: leaves critical on this side
+    if (drift <= 0.0) return FreeEnd::critical;
+    double delta = 0.25 * r.max_dy;
+    if (r.has_normal) delta = std::min(delta, 0.5 * std::fabs(r.yn - r.yc));
+    const double y1 = b.side == Side::sub ? std::min(r.yc + delta, r.rise) : std::max(r.yc - delta, 1e-6 * r.rise);
+    const double dx = direct_step(r, x, head0, s0.sf, y1);
+    if (dx * dir_d > 0.0 && std::fabs(dx) < std::fabs(x_end - x)) {
+      x += dx;
+      s0 = free_state(r, y1);
+      head0 = r.invert(x) + s0.e;
+      b.nodes.push_back({x, y1, r.invert(x) + y1, false});
+      ++b.steps;
+    }
+  }
+
+  const double f_start = depth_slope(r, s0);
+  double h = std::fabs(x_end - x);
+  if (std::isfinite(f_start) && f_start != 0.0) h = std::min(h, r.max_dy / std::fabs(f_start));
+  int attempts = 0;
+  while (true) {
+    const double remaining = std::fabs(x_end - x);
+    if (remaining <= 1e-9 * r.length) return FreeEnd::end;
+    if (b.steps >= r.max_steps || attempts > 20 * r.max_steps) return FreeEnd::cap;
+    ++attempts;
+    const double f0 = depth_slope(r, s0);
+    if (std::fabs(1.0 - s0.fr2) < 0.5 && std::isfinite(f0) && f0 != 0.0) {
+      // Near critical depth the surface curves sharply in x but smoothly in y: step by depth.
+      const double y_sign = f0 * dir_d > 0.0 ? 1.0 : -1.0;
+      double dy = 0.5 * r.max_dy;
+      const double toward_yc = (r.yc - s0.y) * y_sign;
+      if (toward_yc > 0.0) dy = std::min(dy, toward_yc);
+      if (r.has_normal && (r.yn - s0.y) * y_sign > 0.0) dy = std::min(dy, 0.5 * (r.yn - s0.y) * y_sign);
+      double y1 = s0.y + y_sign * dy;
+      const bool to_crown = y1 >= r.rise;
+      if (to_crown) y1 = r.rise;
+      const double dx = direct_step(r, x, head0, s0.sf, y1);
+      if (dx * dir_d > 0.0 && std::fabs(dx) < remaining) {
+        x += dx;
+        s0 = free_state(r, y1);
+        head0 = r.invert(x) + s0.e;
+        b.nodes.push_back({x, y1, r.invert(x) + y1, to_crown});
+        ++b.steps;
+        have_prev = false;
+        h = 2.0 * std::fabs(dx);
+        if (to_crown) return FreeEnd::crown;
+        if (toward_yc > 0.0 && dy == toward_yc) return FreeEnd::critical;
+        continue;
+      }
+      h = std::min(h, remaining);
+    }
+    const bool last = h >= remaining * (1.0 - 1e-12);
+    const double step = last ? remaining : h;
+    const double x1 = last ? x_end : x + dir_d * step;
+    const double dx = x1 - x;
+    double predicted = -1.0, divisor = 2.0;
+    if (std::isfinite(f0)) {
+      predicted = s0.y + dx * f0;  // Euler: its difference is O(h^2), a safe over-estimate
+      if (have_prev && std::isfinite(f_prev)) {
+        predicted = s0.y + dx * (f0 + 0.5 * dx / dx_prev * (f0 - f_prev));
+        divisor = 6.0;
+      }
+    }
+    const double width = std::max(0.5 * std::fabs(predicted - s0.y), 2e-3 * r.rise);
+    const StepResult res = standard_step(r, x, head0, s0.sf, x1, b.side, predicted, width);
+    if (res.outcome != StepOutcome::ok) {
+      const double target = res.outcome == StepOutcome::crown ? r.rise : r.yc;
+      if (std::fabs(target - s0.y) > r.max_dy && step > min_step) {
+        h = 0.5 * step;
+        continue;
+      }
+      const double reach_dx = direct_step(r, x, head0, s0.sf, target);
+      x += dir_d * std::clamp(reach_dx * dir_d, 0.0, remaining);
+      const bool crown = res.outcome == StepOutcome::crown;
+      b.nodes.push_back({x, target, r.invert(x) + target, crown});
+      ++b.steps;
+      return crown ? FreeEnd::crown : FreeEnd::critical;
+    }
+    const State& s1 = res.state;
+    const double dy = s1.y - s0.y;
+    if (std::fabs(dy) > r.max_dy && step > min_step) {
+      h = step * std::max(0.1, 0.9 * r.max_dy / std::fabs(dy));
+      continue;
+    }
+    const double err = std::isfinite(f0) ? std::fabs(s1.y - predicted) / divisor : 0.0;
+    if (err > r.step_tolerance && step > min_step) {
+      h = step * std::max(0.2, 0.9 * std::cbrt(r.step_tolerance / err));
+      continue;
+    }
+    have_prev = true;
+    f_prev = f0;
+    dx_prev = dx;
+    x = x1;
+    s0 = s1;
+    head0 = r.invert(x) + s0.e;
+    b.nodes.push_back({x, s0.y, r.invert(x) + s0.y, false});
+    ++b.steps;
+    h = step * (err > 0.0 ? std::min(4.0, 0.9 * std::cbrt(r.step_tolerance / err)) : 4.0);
+    if (r.has_normal && std::fabs(s0.y - r.yn) <= 1e-7 * r.rise) h = std::fabs(x_end - x);  // uniform flow reached
+  }
+}
+}  // namespace
+
+double velocity_at(const PreparedReach& r, const Node& n) {
+  if (r.flow == 0.0) return 0.0;  // still water, also where dry
+  if (n.full) return r.flow / r.area_full;
+  return r.flow / free_surface_geometry(r.section, n.y).area_m2;
+}
+
+double total_head(const PreparedReach& r, const Node& n) {
+  const double v = velocity_at(r, n);
+  return n.hgl + v * v / (2.0 * g);
+}
+
+double specific_force_at(const PreparedReach& r, const Node& n) {
+  const double q2g = r.flow * r.flow / g;
+  if (n.full) return q2g / r.area_full + r.area_full * (n.hgl - r.invert(n.x) - 0.5 * r.rise);
+  const double y = n.y;
+  const Geometry geo = free_surface_geometry(r.section, y);
+  double moment = 0.5 * r.section.width_m * y * y;
+  if (r.section.shape == Shape::circular) {
+    const double t = geo.top_width_m;
+    moment = (y - 0.5 * r.rise) * geo.area_m2 + t * t * t / 12.0;
+  }
+  return q2g / geo.area_m2 + moment;
+}
+
+double friction_slope_at(const PreparedReach& r, const Node& n) {
+  if (n.full) return r.sf_full;
+  return free_state(r, n.y).sf;
+}
+
+Branch march_subcritical(const PreparedReach& r, const Node& start) {
+  Branch b;
+  b.side = Side::sub;
+  b.nodes.push_back(start);
+  Node node = start;
+  bool from_free = false;
+  while (true) {
+    if (node.full) {
+      // Pressure flow: the HGL rises upstream at the full-flow friction slope until it meets
+      // the crown, which rises at the bed slope.
+      const double excess = node.hgl - r.crown(node.x);
+      if (r.slope > r.sf_full && !(from_free && excess <= r.closure * r.rise)) {
+        const double x_meet = node.x + excess / (r.slope - r.sf_full);
+        if (x_meet >= r.length) {
+          b.nodes.push_back({r.length, r.rise, node.hgl + r.sf_full * (r.length - node.x), true});
+          return b;
+        }
+        if (x_meet > node.x) {
+          node = {x_meet, r.rise, r.crown(x_meet), true};
+          b.nodes.push_back(node);
+        }
+      } else {
+        const double hgl = node.hgl + r.sf_full * (r.length - node.x);
+        b.nodes.push_back({r.length, r.rise, std::max(hgl, r.crown(r.length)), true});
+        return b;
+      }
+    }
+    const FreeEnd end = march_free(r, b, node, r.length, +1);
+    if (end == FreeEnd::crown) {
+      node = b.nodes.back();
+      from_free = true;
+      continue;
+    }
+    b.end = end == FreeEnd::end ? BranchEnd::reached_end : end == FreeEnd::critical ? BranchEnd::critical : BranchEnd::step_cap;
+    return b;
+  }
+}
+
+Branch march_supercritical(const PreparedReach& r, const Node& start) {
+  Branch b;
+  b.side = Side::super;
+  b.nodes.push_back(start);
+  const FreeEnd end = march_free(r, b, start, 0.0, -1);
+  b.end = end == FreeEnd::end ? BranchEnd::reached_end : end == FreeEnd::critical ? BranchEnd::critical : BranchEnd::step_cap;
+  return b;
+}
+
+Node branch_at(const PreparedReach& r, const Branch& b, double x) {
+  const auto& n = b.nodes;
+  std::size_t i = 0;  // the control-side neighbour of x
+  if (b.side == Side::sub) {
+    while (i + 1 < n.size() && n[i + 1].x <= x) ++i;
+  } else {
+    while (i + 1 < n.size() && n[i + 1].x >= x) ++i;
+  }
+  const Node& a = n[i];
+  if (a.x == x || i + 1 == n.size()) return {x, a.y, a.hgl + (a.full ? 0.0 : r.slope * (x - a.x)), a.full};
+  const Node& c = n[i + 1];
+  if (a.full && c.full) return {x, r.rise, a.hgl + (c.hgl - a.hgl) * (x - a.x) / (c.x - a.x), true};
+  const State s0 = free_state(r, a.y);
+  const StepResult res = standard_step(r, a.x, r.invert(a.x) + s0.e, s0.sf, x, b.side);
+  double y = res.outcome == StepOutcome::ok ? res.state.y : res.outcome == StepOutcome::crown ? r.rise : r.yc;
+  return {x, y, r.invert(x) + y, false};
+}
+
+}  // namespace rimline::hydraulics::detail
