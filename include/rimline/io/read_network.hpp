@@ -3,17 +3,32 @@
 // (SI, one projected CRS), converting every value once. Per-feature data problems become
 // Findings (code, the source's feature id, the field) and the feature is kept or left out
 // as stated in the finding; the whole read fails only when a source cannot be used at all.
+// Geometry is kept as digitised (topology orients it); a pipe whose geometry or section is
+// unusable is still listed, with Conduit::usable = false, so outputs can show it. A structure
+// without a usable point is left out (its finding says so).
+// Codes: DATA_MISSING, DATA_IMPLAUSIBLE, DATA_GEOMETRY, DATA_DUPLICATE_ID, DATA_SOURCE (a GDAL warning).
 #include "rimline/finding.hpp"
 #include "rimline/io/project.hpp"
 #include "rimline/model/network.hpp"
 
 namespace rimline::io {
 
+// A value filled from the project's defaults rather than the source, counted once per kind so
+// the report can say "n = 0.013 from [pipes.defaults.manning_n_by_material] RC for 779 pipes".
+struct DefaultNote {
+  LayerRole layer = LayerRole::conduits;
+  std::string role;                      // "manning_n", "diameter", "shape", "loss_k", ...
+  std::string text;                      // what was used and from where
+  std::size_t count = 0;                 // features it was used for
+  std::vector<std::string> example_ids;  // the first few feature ids (at most 5)
+};
+
 struct ReadResult {
   model::Network network;
   Findings findings;
   std::vector<std::string> input_files;  // every file read, for hashing in the summary
   std::string source_crs_wkt;            // CRS of the pipe layer as read (outputs go back to it)
+  std::vector<DefaultNote> defaults_used;
 };
 
 ReadResult read_network(const Project& project);

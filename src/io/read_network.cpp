@@ -1,0 +1,61 @@
+#include "rimline/io/read_network.hpp"
+
+#include "io/read_layers.hpp"
+#include "io/run_crs.hpp"
+
+namespace rimline::io {
+namespace detail {
+
+void report_gdal_messages(GdalErrorCapture& capture, LayerRole layer, const std::string& feature_id,
+                          Findings& findings, std::size_t& reported, std::size_t cap) {
+  for (const auto& m : capture.messages()) {
+    ++reported;
+    if (reported > cap) continue;
+    Finding f;
+    f.code = "DATA_SOURCE";
+    f.severity = Severity::warning;
+    f.layer = layer;
+    f.feature_id = feature_id;
+    f.message = (reported == cap ? "GDAL reported (further GDAL messages for this layer are not listed): "
+                                 : "GDAL reported: ") +
+                m.text;
+    findings.push_back(std::move(f));
+  }
+  capture.clear();
+}
+
+}  // namespace detail
+
+ReadResult read_network(const Project& project) {
+  using namespace detail;
+  ReadResult result;
+  DefaultTally defaults;
+
+  OpenLayer pipes = open_layer(project.pipes, "pipes");
+  check_pipe_mapping(project, pipes);
+  RunCrs crs = plan_run_crs(pipes, project.crs_override);
+  result.input_files = pipes.files;
+  result.source_crs_wkt = crs.source_wkt;
+  result.network.crs_description = crs.description;
+  result.network.crs_wkt = crs.run_wkt;
+  result.network.crs_note = crs.note;
+  result.network.crs_metres_per_unit = crs.metres_per_unit;
+
+  LayerRead pipe_read{project, pipes, Placement{crs.to_run.get(), crs.metres_per_unit, crs.z_metres_per_unit},
+                      result.findings, defaults};
+  read_pipes(pipe_read, result.network.conduits);
+
+  if (!project.structures.source.empty()) {
+    OpenLayer structures = open_layer(project.structures, "structures");
+    check_structure_mapping(project, structures);
+    const TransformPtr to_run = transform_into_run(structures, crs, project.crs_override);
+    LayerRead structure_read{project, structures, Placement{to_run.get(), crs.metres_per_unit, crs.z_metres_per_unit},
+                             result.findings, defaults};
+    read_structures(structure_read, result.network.structures);
+    result.input_files.insert(result.input_files.end(), structures.files.begin(), structures.files.end());
+  }
+  result.defaults_used = defaults.take();
+  return result;
+}
+
+}  // namespace rimline::io

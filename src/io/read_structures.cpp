@@ -1,0 +1,201 @@
+// Structure layer -> model::Structure. A structure without a usable point is left out; every
+// other problem keeps the structure with the value unknown or defaulted, as its finding says.
+#include <unordered_map>
+
+#include "io/read_layers.hpp"
+#include "io/value_checks.hpp"
+
+namespace rimline::io::detail {
+namespace {
+
+using units::Dimension;
+
+// Access holes and chambers: 0.3 m (a cleanout riser) to 30 m (a large junction chamber);
+// common practice, no source.
+constexpr double structure_diameter_min_m = 0.3, structure_diameter_max_m = 30.0;
+// A structure loss coefficient above 10 velocity heads is a data error (common practice, no source).
+constexpr double loss_k_max = 10.0;
+
+struct Columns {
+  int id, type, loss_k, rim, invert, diameter, inflow, tailwater;
+};
+
+Columns resolve(const StructureFields& f, const OpenLayer& l) {
+  auto idx = [&l](const std::string& name, const char* key) {
+    return field_index(l, name, std::string("structures.fields.") + key);
+  };
+  return {idx(f.id, "id"),         idx(f.type, "type"),         idx(f.loss_k, "loss_k"),
+          idx(f.rim.field, "rim"), idx(f.invert.field, "invert"), idx(f.diameter.field, "diameter"),
+          idx(f.inflow.field, "inflow"), idx(f.tailwater.field, "tailwater")};
+}
+
+std::optional<model::StructureKind> kind_of(const std::string& name) {
+  using K = model::StructureKind;
+  for (K k : {K::manhole, K::inlet, K::junction, K::outfall, K::pump_station})
+    if (model::structure_kind_name(k) == name) return k;
+  return std::nullopt;
+}
+
+class StructureReader {
+ public:
+  StructureReader(LayerRead& in)
+      : in_(in), p_(in.project), f_(in.project.structure_fields), col_(resolve(f_, in.source)) {
+    size_limits_ = p_.plausibility;
+    size_limits_.diameter_min_m = structure_diameter_min_m;
+    size_limits_.diameter_max_m = structure_diameter_max_m;
+  }
+
+  // False when the structure is left out (no usable point).
+  bool read(OGRFeature& feature, model::Structure& s) {
+    s.fid = feature.GetFID();
+    auto id = read_text(feature, col_.id);
+    s.id = id ? std::move(*id) : "fid " + std::to_string(s.fid);
+    const FeatureRef who{LayerRole::structures, s.id, in_.findings};
+    if (col_.id >= 0 && !id)
+      who.add("DATA_MISSING", Severity::warning, f_.id, f_.id + " is empty; the structure is reported as \"" + s.id + "\".");
+    if (!read_location(feature, s, who)) return false;
+    const auto [it, fresh] = seen_.try_emplace(s.id, s.fid);
+    if (!fresh)
+      who.add("DATA_DUPLICATE_ID", Severity::warning, f_.id,
+              "The id \"" + s.id + "\" is also used by fid " + std::to_string(it->second) +
+                  "; both structures are kept, so pipes that name this id are ambiguous.");
+    read_kind(feature, s, who);
+    if (col_.rim >= 0) s.rim_m = checked_level(read_number(feature, col_.rim), f_.rim, "rim", p_.plausibility, who);
+    if (col_.invert >= 0)
+      s.invert_m = checked_level(read_number(feature, col_.invert), f_.invert, "invert", p_.plausibility, who);
+    if (col_.tailwater >= 0) {  // a tailwater of exactly 0 is a real level at a sea outfall
+      const RawNumber raw = read_number(feature, col_.tailwater);
+      if (raw.state != RawNumber::State::null)
+        s.tailwater_m = checked_level(raw, f_.tailwater, "tailwater level", p_.plausibility, who, false);
+    }
+    read_diameter(feature, s, who);
+    read_loss_and_inflow(feature, s, who);
+    return true;
+  }
+
+ private:
+  bool read_location(OGRFeature& feature, model::Structure& s, const FeatureRef& who) {
+    std::string type;
+    switch (read_point(feature.GetGeometryRef(), in_.placement, s.location, type)) {
+      case PointStatus::ok: return true;
+      case PointStatus::missing:
+        who.add("DATA_GEOMETRY", Severity::error, "", "The structure has no geometry; it is left out.");
+        return false;
+      case PointStatus::wrong_type:
+        who.add("DATA_GEOMETRY", Severity::error, "", "The geometry is a " + type + ", not a point; the structure is left out.");
+        return false;
+      case PointStatus::transform_failed:
+        who.add("DATA_GEOMETRY", Severity::error, "",
+                "The geometry could not be transformed into the run CRS; the structure is left out.");
+        return false;
+    }
+    return false;
+  }
+
+  void read_kind(OGRFeature& feature, model::Structure& s, const FeatureRef& who) {
+    s.kind = model::StructureKind::manhole;
+    if (col_.type < 0) {
+      in_.defaults.add(LayerRole::structures, "type", "unmapped", s.id,
+                       [] { return std::string("kind manhole (no structures.fields.type mapped)"); });
+      return;
+    }
+    auto text = read_text(feature, col_.type);
+    if (!text) {
+      who.add("DATA_MISSING", Severity::info, f_.type, f_.type + " is empty; the structure is taken as a manhole.");
+      return;
+    }
+    s.type_text = *text;
+    const auto it = p_.structure_type_values.find(*text);
+    if (it == p_.structure_type_values.end()) {
+      who.add("DATA_IMPLAUSIBLE", Severity::warning, f_.type,
+              f_.type + " \"" + *text + "\" is not listed in [structures.types]; the structure is taken as a manhole.");
+      return;
+    }
+    s.kind = kind_of(it->second).value_or(model::StructureKind::manhole);
+  }
+
+  void read_diameter(OGRFeature& feature, model::Structure& s, const FeatureRef& who) {
+    const double fallback = p_.structure_defaults.diameter_m;
+    const std::string use_default = "the default diameter " + format_si(fallback, Dimension::length) + " is used";
+    std::optional<double> d;
+    if (col_.diameter >= 0) {
+      const RawNumber raw = read_number(feature, col_.diameter);
+      if (raw.state == RawNumber::State::null)
+        who.add("DATA_MISSING", Severity::info, f_.diameter.field, f_.diameter.field + " is empty; " + use_default + ".");
+      else d = checked_size(raw, f_.diameter, size_limits_, use_default, Severity::warning, who);
+    }
+    if (!d)
+      in_.defaults.add(LayerRole::structures, "diameter", "default", s.id, [&] {
+        return "diameter " + format_si(fallback, Dimension::length) + " from [structures.defaults] diameter";
+      });
+    s.diameter_m = d.value_or(fallback);
+  }
+
+  void read_loss_and_inflow(OGRFeature& feature, model::Structure& s, const FeatureRef& who) {
+    const auto fallback = p_.structure_defaults.loss_k;
+    const std::string use_default =
+        fallback ? "the default K " + format_number(*fallback) + " is used" : std::string("the method's K is used");
+    if (col_.loss_k >= 0) {
+      const RawNumber raw = read_number(feature, col_.loss_k);
+      if (const auto k = checked_number(raw, f_.loss_k, use_default, who)) {
+        if (*k >= 0.0 && *k <= loss_k_max) s.loss_k = *k;
+        else
+          who.add("DATA_IMPLAUSIBLE", Severity::warning, f_.loss_k,
+                  f_.loss_k + " " + format_number(*k) + " is outside the plausible 0 to " + format_number(loss_k_max) +
+                      "; " + use_default + ".",
+                  *k, *k < 0.0 ? 0.0 : loss_k_max);
+      }
+    }
+    if (!s.loss_k && fallback) {
+      s.loss_k = fallback;
+      in_.defaults.add(LayerRole::structures, "loss_k", "default", s.id,
+                       [&] { return "K " + format_number(*fallback) + " from [structures.defaults] loss_k"; });
+    }
+    if (col_.inflow >= 0) {
+      const RawNumber raw = read_number(feature, col_.inflow);
+      const std::string none = "the structure has no local inflow";
+      if (const auto q = checked_number(raw, f_.inflow.field, none, who)) {
+        const double si = units::to_si(*q, f_.inflow.unit);
+        if (si >= 0.0) s.inflow_m3_s = si;
+        else
+          who.add("DATA_IMPLAUSIBLE", Severity::warning, f_.inflow.field,
+                  f_.inflow.field + " " + format_value(*q, f_.inflow.unit) + " is negative; " + none + ".", si, 0.0,
+                  Dimension::flow);
+      }
+    }
+  }
+
+  LayerRead& in_;
+  const Project& p_;
+  const StructureFields& f_;
+  Columns col_;
+  Plausibility size_limits_;
+  std::unordered_map<std::string, std::int64_t> seen_;
+};
+
+}  // namespace
+
+void check_structure_mapping(const Project& project, const OpenLayer& source) {
+  resolve(project.structure_fields, source);
+}
+
+void read_structures(LayerRead& in, std::vector<model::Structure>& out) {
+  StructureReader reader(in);
+  OGRLayer& layer = *in.source.layer;
+  const GIntBig count = layer.GetFeatureCount(FALSE);
+  if (count > 0) out.reserve(out.size() + static_cast<std::size_t>(count));
+  GdalErrorCapture capture;
+  std::size_t gdal_reported = 0;
+  layer.ResetReading();
+  for (;;) {
+    OGRFeatureUniquePtr feature(layer.GetNextFeature());
+    if (!feature) break;
+    model::Structure& s = out.emplace_back();
+    const bool kept = reader.read(*feature, s);
+    report_gdal_messages(capture, LayerRole::structures, s.id, in.findings, gdal_reported);
+    if (!kept) out.pop_back();
+  }
+  report_gdal_messages(capture, LayerRole::structures, "", in.findings, gdal_reported);
+}
+
+}  // namespace rimline::io::detail

@@ -1,0 +1,287 @@
+#include "rimline/io/read_network.hpp"
+
+#include <catch2/catch.hpp>
+
+#include <cmath>
+#include <fstream>
+#include <map>
+
+#include "layer_fixture.hpp"
+#include "rimline/error.hpp"
+
+using namespace rimline;
+using rimline::test::FieldSpec;
+using rimline::test::Row;
+
+namespace {
+
+// Messages of the findings, by feature id, in the order produced.
+std::map<std::string, std::vector<std::string>> by_feature(const Findings& findings) {
+  std::map<std::string, std::vector<std::string>> out;
+  for (const auto& f : findings) out[f.feature_id].push_back(f.code + " " + f.message);
+  return out;
+}
+
+const model::Conduit& conduit(const model::Network& n, const std::string& id) {
+  for (const auto& c : n.conduits)
+    if (c.id == id) return c;
+  FAIL("no conduit " << id);
+  return n.conduits.front();
+}
+
+const std::vector<FieldSpec> catalogue_fields{{"ID", OFTString},   {"SHAPE", OFTString}, {"DIA_MM", OFTInteger},
+                                              {"W_MM", OFTInteger}, {"H_MM", OFTInteger}, {"US_IL", OFTReal},
+                                              {"DS_IL", OFTReal},   {"LEN", OFTReal},     {"N", OFTReal}};
+
+// A good 100 m circular pipe; `change` edits one column (index into catalogue_fields) or the WKT.
+Row pipe(const std::string& id, std::map<int, std::optional<std::string>> change = {},
+         std::string wkt = "LINESTRING (0 0,100 0)") {
+  Row r{std::move(wkt), {id, "CIRC", "300", std::nullopt, std::nullopt, "10", "9.9", "100", "0.013"}};
+  for (auto& [i, v] : change) r.values[static_cast<std::size_t>(i)] = v;
+  return r;
+}
+
+const char* catalogue_project = R"(
+[pipes]
+source = "pipes.gpkg"
+layer = "pipes"
+[pipes.fields]
+id = "ID"
+shape = "SHAPE"
+diameter = { field = "DIA_MM", unit = "mm" }
+width = { field = "W_MM", unit = "mm" }
+height = { field = "H_MM", unit = "mm" }
+invert_up = { field = "US_IL", unit = "m" }
+invert_down = { field = "DS_IL", unit = "m" }
+length = { field = "LEN", unit = "m" }
+manning_n = "N"
+[pipes.defaults]
+manning_n = 0.013
+[pipes.shapes]
+circular = ["CIRC"]
+box = ["BOX"]
+)";
+
+}  // namespace
+
+TEST_CASE("each data problem of a pipe becomes one finding with a fixed message", "[io][read]") {
+  const auto dir = test::fresh_dir("catalogue");
+  const std::vector<Row> rows{
+      pipe("ok"),
+      pipe("sentinel", {{5, "999.5"}}),
+      pipe("zero_invert", {{6, "0"}}),
+      pipe("null_invert", {{5, std::nullopt}}),
+      pipe("inches", {{2, "12"}}),
+      pipe("huge", {{2, "15000"}}),
+      pipe("zero_dia", {{2, "0"}}),
+      pipe("null_dia", {{2, std::nullopt}}),
+      pipe("bad_n", {{8, "0.13"}}),
+      pipe("long", {{7, "150"}}),
+      pipe("zero_len", {{7, "0"}}),
+      pipe("no_geom", {}, ""),
+      pipe("point", {}, "POINT (0 0)"),
+      pipe("degenerate", {}, "LINESTRING (5 5,5 5)"),
+      pipe("ok"),
+      pipe("", {{0, std::nullopt}}),
+      pipe("box", {{1, "BOX"}, {2, std::nullopt}, {3, "1200"}, {4, "900"}}),
+      pipe("egg", {{1, "EGG"}}),
+      pipe("merged", {{7, std::nullopt}}, "MULTILINESTRING ((0 0,50 0),(100 0,50 0.2))"),
+      pipe("gap", {}, "MULTILINESTRING ((0 0,50 0),(60 0,100 0))"),
+      pipe("null_n", {{8, std::nullopt}}),
+  };
+  test::write_layer(dir / "pipes.gpkg", "GPKG", "pipes", 32755, wkbUnknown, catalogue_fields, rows);
+  const io::Project project = io::parse_project(catalogue_project, (dir / "run.toml").string());
+  const io::ReadResult r = io::read_network(project);
+  REQUIRE(r.network.conduits.size() == rows.size());
+  const auto f = by_feature(r.findings);
+
+  using V = std::vector<std::string>;
+  CHECK(f.count("box") == 0);
+  CHECK(f.at("sentinel") == V{"DATA_IMPLAUSIBLE US_IL 999.5 m is at or above 900 m, a no-data sentinel; the upstream invert is unknown."});
+  CHECK(f.at("zero_invert") == V{"DATA_IMPLAUSIBLE DS_IL is exactly 0, a common placeholder for a missing level; the downstream invert is unknown."});
+  CHECK(f.at("null_invert") == V{"DATA_MISSING US_IL is empty; the upstream invert is unknown."});
+  CHECK(f.at("inches") == V{"DATA_IMPLAUSIBLE DIA_MM 12 mm is smaller than the plausible 30 mm (it looks like a value in inches); the pipe is left out of the analysis."});
+  CHECK(f.at("huge") == V{"DATA_IMPLAUSIBLE DIA_MM 15000 mm is larger than the plausible 10000 mm; the pipe is left out of the analysis."});
+  CHECK(f.at("zero_dia") == V{"DATA_IMPLAUSIBLE DIA_MM 0 mm is not a positive size; the pipe is left out of the analysis."});
+  CHECK(f.at("null_dia") == V{"DATA_MISSING DIA_MM is empty; the pipe is left out of the analysis."});
+  CHECK(f.at("bad_n") == V{"DATA_IMPLAUSIBLE N 0.13 is outside the plausible 0.008 to 0.05; n = 0.013 from [pipes.defaults] manning_n is used."});
+  CHECK(f.at("long") == V{"DATA_IMPLAUSIBLE LEN 150 m differs from the geometry length 100 m by more than 20 %; the geometry length is used."});
+  CHECK(f.at("zero_len") == V{"DATA_IMPLAUSIBLE LEN 0 m is not positive; the geometry length 100 m is used."});
+  CHECK(f.at("no_geom") == V{"DATA_GEOMETRY The pipe has no geometry; it is left out of the analysis."});
+  CHECK(f.at("point") == V{"DATA_GEOMETRY The geometry is a POINT, not a line; the pipe is left out of the analysis."});
+  CHECK(f.at("degenerate") == V{"DATA_GEOMETRY The line has zero length; the pipe is left out of the analysis."});
+  // The second "ok" (fid 15) repeats the id of fid 1.
+  CHECK(f.at("ok") == V{"DATA_DUPLICATE_ID The id \"ok\" is also used by fid 1; both pipes are kept, so results under this id are ambiguous."});
+  CHECK(f.at("fid 16") == V{"DATA_MISSING ID is empty; the pipe is reported as \"fid 16\"."});
+  CHECK(f.at("egg") == V{"DATA_IMPLAUSIBLE SHAPE \"EGG\" is not listed in [pipes.shapes]; the pipe is left out of the analysis."});
+  CHECK(f.at("merged") == V{"DATA_GEOMETRY The MULTILINESTRING's 2 parts join end to end and were merged into one line.",
+                            "DATA_MISSING LEN is empty; the geometry length 100.2 m is used."});
+  CHECK(f.at("gap") == V{"DATA_GEOMETRY The MULTILINESTRING has 2 parts that do not join end to end within the snap tolerance of 0.5 m (gap 10 m); the pipe is left out of the analysis."});
+  CHECK(f.at("null_n") == V{"DATA_MISSING N is empty; n = 0.013 from [pipes.defaults] manning_n is used."});
+  CHECK(r.findings.size() == 20);
+
+  for (const char* out : {"inches", "huge", "zero_dia", "null_dia", "no_geom", "point", "degenerate", "egg", "gap"})
+    CHECK_FALSE(conduit(r.network, out).usable);
+  for (const char* kept : {"ok", "sentinel", "zero_invert", "null_invert", "bad_n", "long", "zero_len", "box", "merged", "null_n"})
+    CHECK(conduit(r.network, kept).usable);
+
+  const auto& ok = conduit(r.network, "ok");
+  CHECK(ok.section.diameter_m == Approx(0.3).epsilon(1e-15));
+  CHECK(*ok.invert_up_m == 10.0);
+  CHECK(ok.length_m == 100.0);
+  CHECK(ok.up_direction.x == 1.0);
+  CHECK(ok.down_point.x == 100.0);
+  CHECK_FALSE(conduit(r.network, "sentinel").invert_up_m.has_value());
+  CHECK(conduit(r.network, "bad_n").roughness.manning_n == 0.013);
+  const auto& box = conduit(r.network, "box");
+  CHECK(box.section.shape == hydraulics::Shape::box);
+  CHECK(box.section.width_m == Approx(1.2).epsilon(1e-15));
+  CHECK(box.section.height_m == Approx(0.9).epsilon(1e-15));
+  const auto& merged = conduit(r.network, "merged");
+  REQUIRE(merged.vertices.size() == 4);  // second part turned round to continue the first
+  CHECK(merged.vertices[2].y == 0.2);
+  CHECK(merged.vertices[3].x == 100.0);
+  CHECK(merged.geometry_length_m == Approx(50.0 + 0.2 + std::hypot(50.0, 0.2)).epsilon(1e-12));
+  CHECK(merged.length_m == merged.geometry_length_m);
+
+  REQUIRE(r.defaults_used.size() == 1);
+  CHECK(r.defaults_used[0].text == "n = 0.013 from [pipes.defaults] manning_n");
+  CHECK(r.defaults_used[0].count == 2);
+  CHECK(r.defaults_used[0].example_ids == std::vector<std::string>{"bad_n", "null_n"});
+  CHECK(r.input_files == std::vector<std::string>{(dir / "pipes.gpkg").string()});
+}
+
+TEST_CASE("US customary fields are converted to SI once, on reading", "[io][read]") {
+  const auto dir = test::fresh_dir("us_units");
+  const std::vector<FieldSpec> fields{{"ID", OFTString},    {"DIA_IN", OFTReal}, {"US_FT", OFTReal}, {"DS_FT", OFTReal},
+                                      {"LEN_FT", OFTReal},  {"Q_CFS", OFTReal},  {"MAT", OFTString}, {"UP", OFTString},
+                                      {"DN", OFTString},    {"KIND", OFTString}};
+  // 30.48 m = 100 ft exactly (NIST SP 811, 2008 ed., B.8).
+  test::write_layer(dir / "p.gpkg", "GPKG", "p", 32755, wkbUnknown, fields,
+                    {{"LINESTRING Z (0 0 5,30.48 0 4)", {"P1", "12", "100", "99.5", "100", "10", "RC", "MH1", "MH2", "RM"}},
+                     {"LINESTRING (0 10,30.48 10)", {"P2", "18", "100", "99", "100", std::nullopt, "PVC", std::nullopt, "MH3", "G"}}});
+  const io::Project project = io::parse_project(R"(
+[pipes]
+source = "p.gpkg"
+force_main_values = ["RM"]
+[pipes.fields]
+id = "ID"
+from = "UP"
+to = "DN"
+material = "MAT"
+force_main = "KIND"
+diameter = { field = "DIA_IN", unit = "in" }
+invert_up = { field = "US_FT", unit = "ft" }
+invert_down = { field = "DS_FT", unit = "ft" }
+length = { field = "LEN_FT", unit = "ft" }
+flow = { field = "Q_CFS", unit = "cfs" }
+[pipes.defaults.manning_n_by_material]
+RC = 0.013
+PVC = 0.011
+)",
+                                                (dir / "run.toml").string());
+  const io::ReadResult r = io::read_network(project);
+  REQUIRE(r.network.conduits.size() == 2);
+  const auto& p1 = r.network.conduits[0];
+  // NIST SP 811 (2008 ed.) B.8: 1 in = 0.0254 m, 1 ft = 0.3048 m, 1 ft3/s = 0.028 316 846 592 m3/s (exact).
+  CHECK(p1.section.diameter_m == Approx(0.3048).epsilon(1e-15));
+  CHECK(*p1.invert_up_m == Approx(30.48).epsilon(1e-15));
+  CHECK(*p1.invert_down_m == Approx(30.3276).epsilon(1e-15));
+  CHECK(p1.length_m == Approx(30.48).epsilon(1e-15));
+  CHECK(*p1.flow_m3_s == Approx(0.28316846592).epsilon(1e-14));
+  CHECK(p1.roughness.manning_n == 0.013);
+  CHECK(p1.from_id == "MH1");
+  CHECK(p1.to_id == "MH2");
+  CHECK(p1.force_main);
+  CHECK(p1.vertex_z_m == std::vector<double>{5.0, 4.0});
+  const auto& p2 = r.network.conduits[1];
+  CHECK(p2.section.diameter_m == Approx(0.4572).epsilon(1e-15));
+  CHECK(p2.roughness.manning_n == 0.011);
+  CHECK_FALSE(p2.force_main);
+  CHECK(p2.vertex_z_m.empty());
+  const auto f = by_feature(r.findings);
+  CHECK(f.at("P2") == std::vector<std::string>{"DATA_MISSING UP is empty; the upstream structure id is unknown.",
+                                               "DATA_MISSING Q_CFS is empty; the pipe has no design flow."});
+  REQUIRE(r.defaults_used.size() == 3);
+  CHECK(r.defaults_used[0].text == "shape circular from [pipes.defaults] shape (no shape field mapped)");
+  CHECK(r.defaults_used[0].count == 2);
+  CHECK(r.defaults_used[1].text == "n = 0.013 from [pipes.defaults.manning_n_by_material] RC");
+  CHECK(r.defaults_used[2].text == "n = 0.011 from [pipes.defaults.manning_n_by_material] PVC");
+  CHECK(r.defaults_used[2].example_ids == std::vector<std::string>{"P2"});
+  CHECK(r.network.crs_description == "WGS 84 / UTM zone 55S");
+  CHECK(r.network.crs_note.empty());
+}
+
+TEST_CASE("a mapped field missing from the layer stops the run with a suggestion", "[io][read]") {
+  const auto dir = test::fresh_dir("missing_field");
+  test::write_layer(dir / "p.gpkg", "GPKG", "p", 32755, wkbLineString, {{"ID", OFTString}, {"DIAMETER", OFTReal}},
+                    {{"LINESTRING (0 0,1 1)", {"a", "300"}}});
+  const std::string src = (dir / "p.gpkg").string();
+  const io::Project project = io::parse_project(
+      "[pipes]\nsource = \"p.gpkg\"\n[pipes.fields]\ndiameter = { field = \"DIAMETR\", unit = \"mm\" }\n"
+      "[pipes.defaults]\nmanning_n = 0.013\n",
+      (dir / "run.toml").string());
+  try {
+    io::read_network(project);
+    FAIL("no error");
+  } catch (const Error& e) {
+    CHECK(e.kind() == ErrorKind::bad_config);
+    CHECK(std::string(e.what()) ==
+          src + ":p:field DIAMETR: the field mapped by pipes.fields.diameter is not in the layer; did you mean \"DIAMETER\"?");
+  }
+  const io::Project wrong_layer = io::parse_project(
+      "[pipes]\nsource = \"p.gpkg\"\nlayer = \"q\"\n[pipes.defaults]\nmanning_n = 0.013\ndiameter = \"300 mm\"\n",
+      (dir / "run.toml").string());
+  CHECK_THROWS_WITH(io::read_network(wrong_layer), src + ": no layer \"q\" in the pipes source (layers: \"p\"); did you mean \"p\"?");
+  const io::Project no_file = io::parse_project(
+      "[pipes]\nsource = \"none.gpkg\"\n[pipes.defaults]\nmanning_n = 0.013\ndiameter = \"300 mm\"\n",
+      (dir / "run.toml").string());
+  try {
+    io::read_network(no_file);
+    FAIL("no error");
+  } catch (const Error& e) {
+    CHECK(e.kind() == ErrorKind::bad_input);
+    CHECK(std::string(e.what()).rfind((dir / "none.gpkg").string() + ": cannot open the pipes source: ", 0) == 0);
+  }
+}
+
+TEST_CASE("a project that cannot size or roughen pipes is refused before reading", "[io][read]") {
+  const auto dir = test::fresh_dir("no_defaults");
+  test::write_layer(dir / "p.gpkg", "GPKG", "p", 32755, wkbLineString, {{"ID", OFTString}},
+                    {{"LINESTRING (0 0,1 1)", {"a"}}});
+  const auto run = (dir / "run.toml").string();
+  CHECK_THROWS_WITH(io::read_network(io::parse_project("[pipes]\nsource = \"p.gpkg\"\n[pipes.defaults]\nmanning_n = 0.013\n", run)),
+                    run + ": circular pipes need a diameter: map pipes.fields.diameter or set pipes.defaults.diameter");
+  CHECK_THROWS_WITH(io::read_network(io::parse_project("[pipes]\nsource = \"p.gpkg\"\n[pipes.defaults]\ndiameter = \"1 m\"\n", run)),
+                    run + ": methods.friction is \"manning\" but no Manning n is given: map pipes.fields.manning_n or set "
+                          "pipes.defaults.manning_n or [pipes.defaults.manning_n_by_material]");
+}
+
+TEST_CASE("a CSV with WKT geometry, text numbers and no CRS", "[io][read]") {
+  const auto dir = test::fresh_dir("csv");
+  {
+    std::ofstream csv(dir / "pipes.csv");
+    csv << "WKT,ID,DIA\n\"LINESTRING (0 0,3 4)\",a,375\n\"LINESTRING (3 4,6 8)\",b,abc\n";
+  }
+  const std::string text = "[pipes]\nsource = \"pipes.csv\"\n[pipes.fields]\nid = \"ID\"\n"
+                           "diameter = { field = \"DIA\", unit = \"mm\" }\n[pipes.defaults]\nmanning_n = 0.013\n";
+  const auto run = (dir / "run.toml").string();
+  try {
+    io::read_network(io::parse_project(text, run));
+    FAIL("no error");
+  } catch (const Error& e) {
+    CHECK(e.kind() == ErrorKind::bad_input);
+    CHECK(std::string(e.what()) == (dir / "pipes.csv").string() +
+                                       ":pipes: the layer has no CRS; set crs = \"EPSG:....\" in [project] to say which one "
+                                       "its coordinates are in");
+  }
+  const io::ReadResult r = io::read_network(io::parse_project("[project]\ncrs = \"EPSG:28355\"\n" + text, run));
+  REQUIRE(r.network.conduits.size() == 2);
+  CHECK(r.network.conduits[0].geometry_length_m == 5.0);
+  CHECK(r.network.conduits[0].section.diameter_m == Approx(0.375).epsilon(1e-15));
+  CHECK(r.network.crs_description == "GDA94 / MGA zone 55");
+  REQUIRE(r.findings.size() == 1);
+  CHECK(r.findings[0].feature_id == "b");
+  CHECK(r.findings[0].message == "DIA holds \"abc\", which is not a number; the pipe is left out of the analysis.");
+  CHECK_FALSE(r.network.conduits[1].usable);
+}
