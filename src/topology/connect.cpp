@@ -205,13 +205,22 @@ class Connector {
   void snap_free_ends() {
     if (free_.empty()) return;
     if (net_.structures.empty()) {
-      unconnected_ = std::move(free_);
+      for (const FreeEnd& e : free_) {
+        if (finite(end_point(e)))
+          unconnected_.push_back(e);
+        else
+          report_no_geometry(e);
+      }
       return;
     }
     std::vector<Point2> locations(net_.structures.size());
     for (std::size_t s = 0; s < locations.size(); ++s) locations[s] = net_.structures[s].location;
     const PointIndex index(locations);
     for (const FreeEnd& e : free_) {
+      if (!finite(end_point(e))) {
+        report_no_geometry(e);
+        continue;
+      }
       const std::vector<Neighbour> near = index.within(end_point(e), opt_.snap_tolerance_m);
       if (near.empty()) {
         unconnected_.push_back(e);
@@ -220,6 +229,16 @@ class Connector {
       assign(e, near[0].index);
       if (near.size() >= 2) report_ambiguous(e, near);
     }
+  }
+
+  static bool finite(Point2 p) { return std::isfinite(p.x) && std::isfinite(p.y); }
+
+  // An end without coordinates cannot be snapped or placed; the pipe stays out of the march.
+  void report_no_geometry(const FreeEnd& e) {
+    const Conduit& c = net_.conduits[e.conduit];
+    findings_.push_back(conduit_finding(c, "TOPOLOGY_UNCONNECTED", Severity::warning,
+                                        "pipe " + label(c, e.conduit) + ": its " + end_name(e.first) +
+                                            " has no coordinates; it is left unconnected and out of the march"));
   }
 
   void report_ambiguous(const FreeEnd& e, const std::vector<Neighbour>& near) {

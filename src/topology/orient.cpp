@@ -6,6 +6,7 @@
 #include <algorithm>
 #include <cmath>
 #include <utility>
+#include <vector>
 
 #include "rimline/topology/finding_text.hpp"
 
@@ -35,14 +36,21 @@ bool rises(const Conduit& c, double tolerance_m) {
   return c.invert_up_m && c.invert_down_m && *c.invert_up_m < *c.invert_down_m - tolerance_m;
 }
 
+// Why a pipe runs the way it does after orientation.
+enum class Basis : unsigned char { ids, ids_turned, outfall, outfall_turned, inverts_turned, digitised, neighbours };
+
 class Orienter {
  public:
   Orienter(model::Network& n, const Connection& k, const TopologyOptions& o, Findings& f)
       : net_(n), con_(k), opt_(o), findings_(f) {}
 
   std::size_t run() {
+    const std::size_t nc = net_.conduits.size();
+    basis_.resize(nc);
+    for (std::size_t i = 0; i < nc; ++i) decide(i);
+    keep_neighbours_flow();
     std::size_t turned = 0;
-    for (std::size_t i = 0; i < net_.conduits.size(); ++i) turned += orient(i) ? 1 : 0;
+    for (std::size_t i = 0; i < nc; ++i) turned += report(i) ? 1 : 0;
     return turned;
   }
 
@@ -52,38 +60,72 @@ class Orienter {
   }
   std::string name(std::size_t s) const { return s == no_index ? "?" : label(net_.structures[s], s); }
 
-  bool orient(std::size_t i) {
+  // Rules 1 and 2a-2c of build.hpp.
+  void decide(std::size_t i) {
     Conduit& c = net_.conduits[i];
     const std::size_t first = con_.at_first[i], last = con_.at_last[i];
-    bool turned = false;
+    Basis b = Basis::digitised;
     if (con_.ids[i] != IdDirection::none) {
-      turned = con_.ids[i] == IdDirection::last_vertex_upstream;
-      if (turned) turn_geometry(c);
-      set_ends(c, turned ? last : first, turned ? first : last);
-      if (turned)
-        findings_.push_back(conduit_finding(c, "TOPOLOGY_REVERSED_GEOMETRY", Severity::info,
-                                            "pipe " + label(c, i) + " was digitised against its from/to ids; its line was turned to run from " +
-                                                name(c.from) + " to " + name(c.to)));
-      if (rises(c, opt_.invert_tolerance_m) && !c.force_main) report_adverse(c, i, "its from/to ids");
-    } else {
-      const bool outfall_first = is_outfall(first), outfall_last = is_outfall(last);
-      std::string reason;
-      if (outfall_first != outfall_last) {
-        turned = outfall_first;
-        reason = "its " + std::string(turned ? "first" : "last") + " end is outfall " + name(turned ? first : last);
-      } else if (rises(c, opt_.invert_tolerance_m)) {
-        turned = true;
-        reason = "its inverts fall from " + fixed(*c.invert_down_m, 3) + " m at its last vertex to " +
-                 fixed(*c.invert_up_m, 3) + " m at its first";
+      b = con_.ids[i] == IdDirection::last_vertex_upstream ? Basis::ids_turned : Basis::ids;
+    } else if (is_outfall(first) != is_outfall(last)) {
+      b = is_outfall(first) ? Basis::outfall_turned : Basis::outfall;
+    } else if (rises(c, opt_.invert_tolerance_m)) {
+      b = Basis::inverts_turned;
+    }
+    basis_[i] = b;
+    if (b == Basis::ids_turned) turn_geometry(c);
+    if (b == Basis::outfall_turned || b == Basis::inverts_turned) turn_conduit(c);
+    const bool turned = b == Basis::ids_turned || b == Basis::outfall_turned || b == Basis::inverts_turned;
+    set_ends(c, turned ? last : first, turned ? first : last);
+  }
+
+  // Rule 2b yields to the network: a pipe turned by its inverts alone is turned back when,
+  // as digitised, it carries on the flow of its neighbours at both ends (another pipe flows
+  // into its first structure and another flows out of its last). Turning such a pipe would
+  // make a false outfall upstream of it; it is an adverse slope. Counts are taken from the
+  // directions of the first pass, so the result does not depend on the order of the pipes.
+  void keep_neighbours_flow() {
+    std::vector<std::size_t> in(net_.structures.size(), 0), out(net_.structures.size(), 0);
+    for (const Conduit& c : net_.conduits) {
+      if (c.from == no_index || c.to == no_index || c.from == c.to) continue;
+      ++out[c.from];
+      ++in[c.to];
+    }
+    for (std::size_t i = 0; i < net_.conduits.size(); ++i) {
+      if (basis_[i] != Basis::inverts_turned) continue;
+      Conduit& c = net_.conduits[i];
+      const std::size_t first = con_.at_first[i], last = con_.at_last[i];  // c now runs last -> first
+      if (first == no_index || last == no_index || first == last) continue;
+      if (in[first] >= 2 && out[last] >= 2) {
+        turn_conduit(c);
+        set_ends(c, first, last);
+        basis_[i] = Basis::neighbours;
       }
-      if (turned) turn_conduit(c);
-      set_ends(c, turned ? last : first, turned ? first : last);
-      if (turned)
-        findings_.push_back(conduit_finding(c, "REVERSED", Severity::info,
-                                            "pipe " + label(c, i) + " was digitised against the flow (" + reason +
-                                                "); turned so it runs from " + name(c.from) + " to " + name(c.to)));
-      if (outfall_first != outfall_last && rises(c, opt_.invert_tolerance_m) && !c.force_main)
-        report_adverse(c, i, "the outfall at its downstream end");
+    }
+  }
+
+  bool report(std::size_t i) {
+    Conduit& c = net_.conduits[i];
+    const Basis b = basis_[i];
+    const bool turned = b == Basis::ids_turned || b == Basis::outfall_turned || b == Basis::inverts_turned;
+    if (b == Basis::ids_turned)
+      findings_.push_back(conduit_finding(c, "TOPOLOGY_REVERSED_GEOMETRY", Severity::info,
+                                          "pipe " + label(c, i) + " was digitised against its from/to ids; its line was turned to run from " +
+                                              name(c.from) + " to " + name(c.to)));
+    if (b == Basis::outfall_turned || b == Basis::inverts_turned) {
+      const std::string reason =
+          b == Basis::outfall_turned
+              ? "its first end is outfall " + name(c.to)
+              : "its inverts fall from " + fixed(*c.invert_up_m, 3) + " m at its last vertex to " + fixed(*c.invert_down_m, 3) +
+                    " m at its first";
+      findings_.push_back(conduit_finding(c, "REVERSED", Severity::info,
+                                          "pipe " + label(c, i) + " was digitised against the flow (" + reason +
+                                              "); turned so it runs from " + name(c.from) + " to " + name(c.to)));
+    }
+    if (rises(c, opt_.invert_tolerance_m) && !c.force_main) {
+      if (b == Basis::ids || b == Basis::ids_turned) report_adverse(c, i, "its from/to ids fix");
+      if (b == Basis::outfall || b == Basis::outfall_turned) report_adverse(c, i, "the outfall at its downstream end fixes");
+      if (b == Basis::neighbours) report_adverse(c, i, "the pipes flowing into and out of its ends fix");
     }
     c.reversed = c.reversed || turned;
     return turned;
@@ -103,7 +145,7 @@ class Orienter {
                                 "pipe " + label(c, i) + ": inverts rise " + fixed(rise, 3) + " m along the flow from " +
                                     name(c.from) + " (" + fixed(*c.invert_up_m, 3) + " m) to " + name(c.to) + " (" +
                                     fixed(*c.invert_down_m, 3) + " m) that " + direction_source +
-                                    " fix; kept in that direction");
+                                    "; kept in that direction");
     if (length > 0.0) {
       f.value = -rise / length;
       f.limit = 0.0;
@@ -116,6 +158,7 @@ class Orienter {
   const Connection& con_;
   const TopologyOptions& opt_;
   Findings& findings_;
+  std::vector<Basis> basis_;
 };
 
 }  // namespace

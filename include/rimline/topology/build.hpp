@@ -18,8 +18,13 @@
 //     b. otherwise the inverts: the lower end is downstream (they must differ by more than
 //        invert_tolerance_m);
 //     c. otherwise the digitised direction stands.
+//     d. network over inverts: a pipe that (b) would turn is kept as digitised when, so, it
+//        carries on its neighbours' flow at both ends (after a-c another pipe flows into its
+//        first structure and another flows out of its last one); turning it would make a
+//        false outfall. (Two adverse pipes in a row are not recognised: each lacks the
+//        confirming neighbour on one side, so both are turned.)
 //     A pipe turned by (a) or (b) is REVERSED (the inverts turn with it). A pipe whose inverts
-//     rise along the direction fixed by (a) is ADVERSE_SLOPE and is not turned against (a).
+//     rise along the direction fixed by (a) or (d) is ADVERSE_SLOPE and is not turned.
 //  Force mains may rise (pumped); no ADVERSE_SLOPE for them.
 //
 // Trees. A conduit is marched when usable, connected at both ends to different structures
@@ -45,6 +50,8 @@
 //                                                   a pipe end; the nearest is taken
 //  TOPOLOGY_UNCONNECTED        warning  conduits    a pipe end is farther than the snap tolerance from
 //                                                   every structure; a derived structure is placed there
+//                                                   (or the end has no coordinates: left unconnected,
+//                                                   the pipe is not marched)
 //  TOPOLOGY_REVERSED_GEOMETRY  info     conduits    line digitised against its from/to ids; geometry turned
 //  REVERSED                    info     conduits    snapped pipe digitised against the flow; turned
 //  ADVERSE_SLOPE               warning  conduits    inverts rise along the flow direction (gravity pipe)

@@ -4,6 +4,7 @@
 #include <catch2/catch.hpp>
 
 #include <algorithm>
+#include <limits>
 #include <optional>
 #include <string>
 
@@ -208,4 +209,23 @@ TEST_CASE("duplicate structure ids are reported; ids link to the first") {
   REQUIRE(dup.size() == 1);
   CHECK(dup[0]->layer == LayerRole::structures);
   CHECK(n.conduits[0].from == 0);
+}
+
+TEST_CASE("a pipe end without coordinates stays unconnected and out of the march") {
+  const double nan = std::numeric_limits<double>::quiet_NaN();
+  model::Network n;
+  n.structures = {structure("S1", 0, 0), structure("S2", 10, 0)};
+  n.conduits = {pipe("P1", {{0, 0}, {10, 0}}), pipe("P2", {{nan, nan}, {0, 0}})};
+  Findings fs;
+  const auto t = topology::build_topology(n, {}, fs);
+  const auto un = with_code(fs, "TOPOLOGY_UNCONNECTED");
+  REQUIRE(un.size() == 1);
+  CHECK(un[0]->feature_id == "P2");
+  CHECK(un[0]->message == "pipe P2: its first end (as digitised) has no coordinates; it is left unconnected and out of the march");
+  CHECK(n.conduits[1].from == no_index);
+  CHECK(n.conduits[1].to == 0);
+  CHECK(t.status[1] == topology::MarchStatus::unusable);
+  CHECK(t.derived_structures == 0);
+  REQUIRE(t.trees.size() == 1);
+  CHECK(t.trees[0].conduits == std::vector<std::size_t>{0});
 }

@@ -110,7 +110,7 @@ TEST_CASE("a pipe whose inverts rise toward an outfall is an adverse slope, not 
   CHECK(f.dimension == units::Dimension::slope);
   CHECK(f.message ==
         "pipe P: inverts rise 0.500 m along the flow from S1 (9.000 m) to O (9.500 m) that the outfall at its "
-        "downstream end fix; kept in that direction");
+        "downstream end fixes; kept in that direction");
   CHECK(t.nodes[1].outfall);
 }
 
@@ -165,4 +165,43 @@ TEST_CASE("a line digitised against its ids is turned with its inverts left at t
   CHECK(*c.invert_up_m == 9.5);
   CHECK(count(fs, "TOPOLOGY_REVERSED_GEOMETRY") == 1);
   CHECK(count(fs, "ADVERSE_SLOPE") == 0);
+}
+
+TEST_CASE("a pipe rising in the middle of a digitised chain is an adverse slope, not turned into a false outfall") {
+  model::Network n;
+  n.structures = {structure("S1", 0, 0), structure("S2", 10, 0), structure("S3", 20, 0),
+                  structure("O", 30, 0, StructureKind::outfall)};
+  n.conduits = {pipe("P1", {{0, 0}, {10, 0}}, 10.0, 9.9), pipe("P2", {{10, 0}, {20, 0}}, 9.8, 9.85),
+                pipe("P3", {{20, 0}, {30, 0}}, 9.7, 9.6)};
+  Findings fs;
+  const auto t = topology::build_topology(n, {}, fs);
+  CHECK_FALSE(n.conduits[1].reversed);
+  CHECK(n.conduits[1].from == 1);
+  CHECK(n.conduits[1].to == 2);
+  CHECK(*n.conduits[1].invert_up_m == 9.8);
+  CHECK(count(fs, "REVERSED") == 0);
+  REQUIRE(count(fs, "ADVERSE_SLOPE") == 1);
+  CHECK(first(fs, "ADVERSE_SLOPE").feature_id == "P2");
+  CHECK(first(fs, "ADVERSE_SLOPE").message ==
+        "pipe P2: inverts rise 0.050 m along the flow from S2 (9.800 m) to S3 (9.850 m) that the pipes flowing into and "
+        "out of its ends fix; kept in that direction");
+  REQUIRE(t.trees.size() == 1);
+  CHECK(t.trees[0].outfall == 3);
+}
+
+TEST_CASE("a pipe digitised backwards in a chain is turned by its inverts") {
+  model::Network n;
+  n.structures = {structure("S1", 0, 0), structure("S2", 10, 0), structure("S3", 20, 0), structure("S4", 30, 0)};
+  // P2 digitised from S3 to S2; its inverts (9.7 at S3, 9.8 at S2) fall toward S3.
+  n.conduits = {pipe("P1", {{0, 0}, {10, 0}}, 10.0, 9.9), pipe("P2", {{20, 0}, {10, 0}}, 9.7, 9.8),
+                pipe("P3", {{20, 0}, {30, 0}}, 9.6, 9.5)};
+  Findings fs;
+  const auto t = topology::build_topology(n, {}, fs);
+  CHECK(n.conduits[1].reversed);
+  CHECK(n.conduits[1].from == 1);
+  CHECK(n.conduits[1].to == 2);
+  CHECK(count(fs, "REVERSED") == 1);
+  CHECK(count(fs, "ADVERSE_SLOPE") == 0);
+  REQUIRE(t.trees.size() == 1);
+  CHECK(t.trees[0].structures == std::vector<std::size_t>{3, 2, 1, 0});
 }
