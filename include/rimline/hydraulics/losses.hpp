@@ -14,6 +14,17 @@ double contraction_k(double area_ratio);
 // Bend K by deflection angle [deg] at a structure (0 = straight through). Table cited in the .cpp.
 double bend_k(double deflection_deg);
 
+// Entrance from a structure or reservoir into a conduit, K on the conduit velocity.
+enum class Entrance { square_edged, projecting, rounded, bell_mouth };
+double entrance_k(Entrance e);
+// Exit into a structure or reservoir: the velocity head above the receiving velocity is lost (K = 1).
+double exit_loss_m(double velocity_m_s, double receiving_velocity_m_s = 0.0);
+
+// Approximate constant K by structure type and deflection (0 = straight run), applied on the
+// outflow velocity head; table cited in the .cpp.
+enum class StructureKind { access_hole, inlet };
+double structure_type_k(StructureKind kind, double deflection_deg);
+
 enum class StructureLossMethod { constant_k, bend, hec22 };
 std::string_view structure_loss_method_name(StructureLossMethod m);
 
@@ -34,8 +45,9 @@ struct StructureLossInputs {
   double outflow_diameter_m = 0.0;
   double outflow_depth_m = 0.0;         // depth at the outflow pipe's inlet (HEC-22 depth correction)
   double structure_diameter_m = 1.2;    // access-hole inside diameter b
-  double structure_invert_m = 0.0;
-  double water_level_m = 0.0;           // first estimate of the structure water level (plunging check)
+  double structure_invert_m = 0.0;      // invert of the outflow pipe at the structure
+  double water_level_m = 0.0;           // first estimate of the structure water level (plunging check;
+                                        // HEC-22 d_aho = water_level_m - structure_invert_m when above it)
   Benching benching = Benching::flat;
   std::vector<StructureInflow> inflows; // the main (largest flow) inflow first
 };
