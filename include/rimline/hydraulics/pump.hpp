@@ -18,6 +18,7 @@ class PumpCurve {
   explicit PumpCurve(std::vector<CurvePoint> points);
   double head_m(double flow_m3_s) const;     // one pump; extrapolation is not allowed past the last point
   double max_flow_m3_s() const;
+  double min_flow_m3_s() const;              // first point (usually 0: shut-off)
   double shutoff_head_m() const;
 
  private:
@@ -41,7 +42,8 @@ struct OperatingPoint {
   int iterations = 0;
 };
 
-// n identical pumps in parallel: each carries Q/n at the same head.
+// n identical pumps in parallel: each carries Q/n at the same head. exists = false when the
+// static lift exceeds the shut-off head or the system would draw more than the curve covers.
 OperatingPoint operating_point(const PumpCurve& pump, int pumps_in_parallel, const SystemCurve& system);
 
 }  // namespace rimline::hydraulics
