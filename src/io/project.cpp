@@ -225,6 +225,7 @@ void read_flows_and_tailwater(TomlSection flows, TomlSection tw, Project& p) {
                     .value_or(p.flow_mode);
   p.split_rule = flows.choice<SplitRule>("split", {{"capacity", SplitRule::capacity}, {"field", SplitRule::field}})
                      .value_or(p.split_rule);
+  p.default_inflow_m3_s = flows.quantity("default_inflow", Dimension::flow);
   flows.finish();
   if (p.split_rule == SplitRule::field && p.pipe_fields.split.empty())
     flows.fail("split", "\"field\" needs pipes.fields.split to be mapped");

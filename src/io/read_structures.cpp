@@ -137,7 +137,9 @@ class StructureReader {
         fallback ? "the default K " + format_number(*fallback) + " is used" : std::string("the method's K is used");
     if (col_.loss_k >= 0) {
       const RawNumber raw = read_number(feature, col_.loss_k);
-      if (const auto k = checked_number(raw, f_.loss_k, use_default, who)) {
+      if (raw.state == RawNumber::State::null)
+        who.add("DATA_MISSING", Severity::info, f_.loss_k, f_.loss_k + " is empty; " + use_default + ".");
+      else if (const auto k = checked_number(raw, f_.loss_k, use_default, who)) {
         if (*k >= 0.0 && *k <= loss_k_max) s.loss_k = *k;
         else
           who.add("DATA_IMPLAUSIBLE", Severity::warning, f_.loss_k,

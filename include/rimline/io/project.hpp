@@ -20,7 +20,8 @@
 //                rim, invert, diameter, inflow, tailwater -> { field, unit }
 //   [structures.types] outfall = ["OF"], inlet = ["CB"], manhole = ["MH"], junction = [...]
 //   [structures.defaults] diameter = "1.2 m", loss_k = 0.5
-//   [flows]     mode = "pipe_field" | "structure_inflows", split = "capacity" | "field"
+//   [flows]     mode = "pipe_field" | "structure_inflows", split = "capacity" | "field",
+//               default_inflow = "5 L/s" (structures without an inflow value)
 //   [tailwater] mode = "fixed" | "free" | "higher", levels = ["12.4 m", "13.0 m"]
 //   [methods]   friction = "manning" | "darcy_weisbach", structure_loss = "constant_k" | "bend" | "hec22",
 //               water_temperature = "15 C", benching = "flat"|"half"|"full"
@@ -126,6 +127,9 @@ struct Project {
   std::map<std::string, std::string> structure_type_values;  // source value -> kind name
   FlowMode flow_mode = FlowMode::pipe_field;
   SplitRule split_rule = SplitRule::capacity;
+  // Local inflow at every structure that has none (structure_inflows mode): a uniform unit load
+  // for exports without design flows. The summary states it.
+  std::optional<double> default_inflow_m3_s;
   TailwaterMode tailwater_mode = TailwaterMode::higher;
   std::vector<double> tailwater_levels_m;  // a sweep when more than one
   Methods methods;
