@@ -57,22 +57,27 @@ std::vector<std::string> field_names(OGRLayer& layer) {
   return names;
 }
 
-OpenLayer open_layer(const LayerSource& src, const std::string& role) {
+GDALDatasetUniquePtr open_dataset(const LayerSource& src, const std::string& role) {
   register_drivers();
-  OpenLayer out;
-  out.source = printable_source(src.source);
   GdalErrorCapture capture;
   std::vector<const char*> options;
   for (const auto& o : src.open_options) options.push_back(o.c_str());
   options.push_back(nullptr);
-  out.dataset.reset(GDALDataset::Open(src.source.c_str(), GDAL_OF_VECTOR | GDAL_OF_READONLY, nullptr,
-                                      src.open_options.empty() ? nullptr : options.data(), nullptr));
-  if (!out.dataset) {
+  GDALDatasetUniquePtr ds(GDALDataset::Open(src.source.c_str(), GDAL_OF_VECTOR | GDAL_OF_READONLY, nullptr,
+                                            src.open_options.empty() ? nullptr : options.data(), nullptr));
+  if (!ds) {
     std::string why = capture.last_error();
     if (why.empty()) why = "no GDAL vector driver recognises it";
-    throw Error(ErrorKind::bad_input, ErrorContext{out.source, "", "", ""},
+    throw Error(ErrorKind::bad_input, ErrorContext{printable_source(src.source), "", "", ""},
                 "cannot open the " + role + " source: " + why);
   }
+  return ds;
+}
+
+OpenLayer open_layer(const LayerSource& src, const std::string& role) {
+  OpenLayer out;
+  out.source = printable_source(src.source);
+  out.dataset = open_dataset(src, role);
   GDALDataset& ds = *out.dataset;
   if (ds.GetLayerCount() == 0)
     throw Error(ErrorKind::bad_input, ErrorContext{out.source, "", "", ""}, "the " + role + " source has no layers");

@@ -47,6 +47,9 @@ struct OpenLayer {
   std::vector<std::string> files;  // files behind the dataset (shapefile: .shp/.dbf/.shx/.prj ...)
 };
 
+// Opens `src` as a vector data source read-only. Throws Error(bad_input) when it cannot be opened.
+GDALDatasetUniquePtr open_dataset(const LayerSource& src, const std::string& role);
+
 // Opens `src` as a vector data source read-only and picks its layer (by name, or the first).
 // Throws Error(bad_input) when the source cannot be opened, Error(bad_config) for an unknown layer.
 OpenLayer open_layer(const LayerSource& src, const std::string& role);
