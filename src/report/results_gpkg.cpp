@@ -8,6 +8,7 @@
 #include "rimline/error.hpp"
 #include "rimline/hydraulics/section.hpp"
 #include "rimline/report/outputs.hpp"
+#include "rimline/report/report_html.hpp"
 #include "rimline/report/staged_files.hpp"
 
 namespace rimline::report {
@@ -215,6 +216,7 @@ void write_outputs(const run::CheckRun& run, const std::string& out_dir) {
   files.write_text("exceptions.csv", exceptions_csv(run));
   files.write_text("summary.json", summary_json(run));
   write_results_gpkg(run, files.path_for("results.gpkg"));
+  write_drawings(run, files);
   files.commit();
 }
 

@@ -1,0 +1,30 @@
+#pragma once
+// DIR/report.html: the review report as one self-contained file (inline CSS and SVG; no
+// scripts, no network, no external assets). Sections: job summary, inputs with SHA-256,
+// methods and criteria with their sources, the exception list by severity with the energy
+// budget of each structure finding, the profiles, the data findings, and the caution.
+// Everything but the date is a function of the run, so two runs of one input differ only there.
+#include <string>
+#include <vector>
+
+#include "rimline/report/profile_path.hpp"
+#include "rimline/report/staged_files.hpp"
+#include "rimline/run/check_run.hpp"
+
+namespace rimline::report {
+
+struct RenderedProfile {
+  std::string name;     // <outfall-id>-<n>
+  std::string caption;  // "T-20 to outfall OF-1, tailwater 3.200 m"
+  std::string svg;      // the <svg> element (no XML declaration)
+};
+
+std::string report_html(const run::CheckRun& run, const std::vector<RenderedProfile>& profiles,
+                        const std::string& date, bool pdf_written);
+
+// Stages DIR/profiles/<outfall-id>-<n>.svg, DIR/profiles.pdf (when built with cairo and there
+// is a profile) and DIR/report.html in `files`; the caller commits. Profile SVGs left in
+// DIR/profiles by an earlier run that this run does not draw are removed.
+void write_drawings(const run::CheckRun& run, StagedFiles& files, const DrawingOptions& options = {});
+
+}  // namespace rimline::report

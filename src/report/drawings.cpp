@@ -1,0 +1,71 @@
+// write_drawings: the profile SVGs, the PDF set and the HTML report, staged for one commit.
+#include <filesystem>
+#include <fstream>
+#include <set>
+
+#include "report/profile_scene.hpp"
+#include "report/sheet_text.hpp"
+#include "report/svg_canvas.hpp"
+#include "rimline/error.hpp"
+#include "rimline/report/profile_pdf.hpp"
+#include "rimline/report/report_html.hpp"
+
+namespace rimline::report {
+namespace {
+
+namespace fs = std::filesystem;
+
+// Ids come from the source layer; keep file names portable (POSIX portable file name set).
+std::string file_stem(const std::string& name) {
+  std::string out;
+  for (char c : name) {
+    const bool ok = (c >= 'A' && c <= 'Z') || (c >= 'a' && c <= 'z') || (c >= '0' && c <= '9') || c == '.' ||
+                    c == '_' || c == '-';
+    out += ok ? c : '_';
+  }
+  return out.empty() ? "profile" : out;
+}
+
+void write_file(const std::string& path, const std::string& text) {
+  std::error_code ec;
+  fs::create_directories(fs::path(path).parent_path(), ec);
+  std::ofstream out(path, std::ios::binary | std::ios::trunc);
+  out << text;
+  out.flush();
+  if (!out) throw Error(ErrorKind::bad_input, ErrorContext{path, "", "", ""}, "cannot be written");
+}
+
+}  // namespace
+
+void write_drawings(const run::CheckRun& run, StagedFiles& files, const DrawingOptions& options) {
+  const std::string html_tmp = files.path_for("report.html");
+  const fs::path dir = fs::path(html_tmp).parent_path();
+  const auto sheets = run.cases.empty() ? std::vector<ProfileSheet>{}
+                                        : plan_sheets(run.read.network, run.topology, run.cases.size(), options);
+  const std::string date = report_date();
+
+  std::error_code ec;
+  if (!sheets.empty()) fs::create_directories(dir / "profiles", ec);  // rename() needs the final folder
+  std::vector<RenderedProfile> rendered;
+  std::set<std::string> stems;
+  for (const auto& sheet : sheets) {
+    const ProfileScene scene = build_scene(run, sheet.path, sheet.case_index, sheet.number);
+    std::string stem = file_stem(scene.name());
+    while (!stems.insert(stem).second) stem += "_";  // two ids that sanitise alike
+    RenderedProfile r{stem, scene.head_id + " to outfall " + scene.outfall_id + ", " + scene.case_label,
+                      scene_svg(scene, run.project.name)};
+    write_file(files.path_for("profiles/" + stem + ".svg"), "<?xml version=\"1.0\" encoding=\"UTF-8\"?>\n" + r.svg);
+    rendered.push_back(std::move(r));
+  }
+  // Profiles of an earlier run into this directory that this run does not draw would mislead.
+  for (const auto& e : fs::directory_iterator(dir / "profiles", ec)) {
+    if (e.path().extension() == ".svg" && !stems.count(e.path().stem().string())) fs::remove(e.path(), ec);
+  }
+
+  const bool pdf = pdf_supported() && !sheets.empty();
+  if (pdf) write_profiles_pdf(run, sheets, date, files.path_for("profiles.pdf"));
+  else fs::remove(dir / "profiles.pdf", ec);
+  write_file(html_tmp, report_html(run, rendered, date, pdf));
+}
+
+}  // namespace rimline::report

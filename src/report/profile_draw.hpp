@@ -1,0 +1,28 @@
+#pragma once
+// Draws one profile scene into a panel of a sheet: legend and scale line, the profile plot
+// (ground, freeboard line, pipes, structures, HGL, EGL, finding markers), the data band
+// (rim, invert, HGL at each structure; size and slope of each pipe) and the finding list.
+#include "report/canvas.hpp"
+#include "report/drawing_scale.hpp"
+#include "report/profile_scene.hpp"
+
+namespace rimline::report {
+
+struct Panel {
+  double left_mm = 0.0, top_mm = 0.0, width_mm = 400.0, height_mm = 240.0;
+};
+
+// The plot frame draw_profile will use for this scene in this panel.
+PlotFrame profile_frame(const ProfileScene& scene, const Panel& panel);
+
+// Returns the frame used.
+PlotFrame draw_profile(const ProfileScene& scene, const Panel& panel, Canvas& canvas);
+
+// Pens of the profile lines (shared with the legend and the HTML key).
+Pen pen_for(Stroke s);
+std::string stroke_label(Stroke s, const ProfileScene& scene);
+
+// "H 1:2000  V 1:200  vertical exaggeration 10:1"
+std::string scale_text(const PlotFrame& f);
+
+}  // namespace rimline::report

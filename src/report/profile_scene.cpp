@@ -1,0 +1,199 @@
+#include "report/profile_scene.hpp"
+
+#include <algorithm>
+#include <cmath>
+#include <cstdio>
+#include <limits>
+
+#include "rimline/report/outputs.hpp"
+
+namespace rimline::report {
+namespace {
+
+constexpr double nan = std::numeric_limits<double>::quiet_NaN();
+
+struct Converter {
+  units::System sys;
+  double operator()(double si) const {
+    return std::isfinite(si) ? to_report(si, units::Dimension::length, sys) : nan;
+  }
+};
+
+std::string size_text(const hydraulics::Section& s, units::System sys) {
+  const auto u = sys == units::System::us ? units::Unit::in : units::Unit::mm;
+  char buf[64];
+  if (s.shape == hydraulics::Shape::box)
+    std::snprintf(buf, sizeof buf, "%.0f x %.0f %s", units::from_si(s.width_m, u), units::from_si(s.height_m, u),
+                  std::string(units::unit_symbol(u)).c_str());
+  else
+    std::snprintf(buf, sizeof buf, "%.0f %s", units::from_si(s.diameter_m, u), std::string(units::unit_symbol(u)).c_str());
+  return buf;
+}
+
+// A polyline that starts a new part at a non-finite point.
+struct LineBuilder {
+  SceneLine line;
+  bool open = false;
+  void add(double x, double y) {
+    if (!std::isfinite(x) || !std::isfinite(y)) {
+      open = false;
+      return;
+    }
+    if (!open) line.parts.emplace_back();
+    open = true;
+    line.parts.back().push_back({x, y});
+  }
+  void gap() { open = false; }
+};
+
+// Inverts of a pipe as the march used them, else as mapped, else the structures' inverts.
+std::pair<double, double> pipe_inverts(const model::Network& net, const solve::ConduitResult& r, std::size_t ci) {
+  const auto& c = net.conduits[ci];
+  if (r.solved) return {r.invert_down_m, r.invert_up_m};
+  const double down = c.invert_down_m.value_or(net.structures[c.to].invert_m.value_or(nan));
+  const double up = c.invert_up_m.value_or(net.structures[c.from].invert_m.value_or(nan));
+  return {down, up};
+}
+
+void extend(ProfileScene& s, double y) {
+  if (!std::isfinite(y)) return;
+  s.y_min = std::min(s.y_min, y);
+  s.y_max = std::max(s.y_max, y);
+}
+
+}  // namespace
+
+ProfileScene build_scene(const run::CheckRun& run, const ProfilePath& path, std::size_t case_index, int number) {
+  const auto& net = run.read.network;
+  const auto& kase = run.cases.at(case_index);
+  const Converter cv{run.report_units};
+  ProfileScene s;
+  s.system = run.report_units;
+  s.length_unit = std::string(units::unit_symbol(units::display_unit(units::Dimension::length, s.system)));
+  s.metres_per_unit = units::to_si(1.0, units::display_unit(units::Dimension::length, s.system));
+  s.freeboard = cv(run.criteria.freeboard_m);
+  s.number = number;
+  s.case_label = render_message(kase.label, s.system);
+  s.outfall_id = net.structures.at(path.structures.front()).id;
+  s.head_id = net.structures.at(path.structures.back()).id;
+  s.y_min = std::numeric_limits<double>::infinity();
+  s.y_max = -std::numeric_limits<double>::infinity();
+
+  for (std::size_t i = 0; i < path.structures.size(); ++i) {
+    const std::size_t si = path.structures[i];
+    const auto& st = net.structures[si];
+    const auto& r = kase.march.structures[si];
+    SceneStructure ss{st.id, cv(path.station_m[i]), cv(st.rim_m.value_or(nan)), cv(st.invert_m.value_or(nan)),
+                      r.solved ? cv(r.hgl_m) : nan, i == 0};
+    extend(s, ss.rim);
+    extend(s, ss.invert);
+    extend(s, ss.hgl);
+    s.structures.push_back(ss);
+  }
+  for (std::size_t i = 0; i < path.conduits.size(); ++i) {
+    const std::size_t ci = path.conduits[i];
+    const auto& c = net.conduits[ci];
+    const auto& r = kase.march.conduits[ci];
+    const auto [down, up] = pipe_inverts(net, r, ci);
+    ScenePipe p{c.id, cv(path.station_m[i]), cv(path.station_m[i + 1]), cv(down), cv(up),
+                cv(hydraulics::rise_m(c.section)), size_text(c.section, s.system), "", r.solved};
+    if (c.length_m > 0.0 && std::isfinite(up - down)) {
+      char buf[32];
+      std::snprintf(buf, sizeof buf, "%.2f %%", 100.0 * (up - down) / (p.station_up - p.station_down));
+      p.slope_text = buf;
+    }
+    extend(s, p.invert_down);
+    extend(s, p.invert_up);
+    extend(s, p.invert_up + p.rise);
+    extend(s, p.invert_down + p.rise);
+    s.pipes.push_back(p);
+  }
+
+  // Ground and freeboard lines join the rims; inverts and crowns follow each pipe.
+  LineBuilder ground{{Stroke::ground, {}}}, freeboard{{Stroke::freeboard, {}}};
+  for (const auto& st : s.structures) {
+    ground.add(st.station, st.rim);
+    freeboard.add(st.station, st.rim - s.freeboard);
+  }
+  LineBuilder invert{{Stroke::invert, {}}}, crown{{Stroke::crown, {}}};
+  for (const auto& p : s.pipes) {
+    invert.gap();
+    crown.gap();
+    invert.add(p.station_down, p.invert_down);
+    invert.add(p.station_up, p.invert_up);
+    crown.add(p.station_down, p.invert_down + p.rise);
+    crown.add(p.station_up, p.invert_up + p.rise);
+  }
+
+  // HGL and EGL through every step point; at a structure the line steps from the pipe below's
+  // inlet to the pool level and on to the outlet of the pipe above (exit and structure losses).
+  LineBuilder hgl{{Stroke::hgl, {}}}, egl{{Stroke::egl, {}}};
+  for (std::size_t i = 0; i < path.structures.size(); ++i) {
+    const auto& st = s.structures[i];
+    const auto& sr = kase.march.structures[path.structures[i]];
+    hgl.add(st.station, sr.solved ? cv(sr.hgl_m) : nan);
+    egl.add(st.station, sr.solved ? cv(sr.egl_m) : nan);
+    if (i + 1 == path.structures.size()) break;
+    const std::size_t ci = path.conduits[i];
+    const auto& r = kase.march.conduits[ci];
+    if (!r.solved || r.profile.points.empty()) {
+      hgl.gap();
+      egl.gap();
+      continue;
+    }
+    // Step stations run over the length the march used; scale them onto the drawn pipe.
+    const double drawn = s.pipes[i].station_up - s.pipes[i].station_down;
+    const double marched = cv(r.profile.inlet().station_m);
+    const double k = marched > 0.0 ? drawn / marched : 0.0;
+    for (const auto& pt : r.profile.points) {
+      const double x = s.pipes[i].station_down + k * cv(pt.station_m);
+      hgl.add(x, cv(pt.hgl_m));
+      egl.add(x, cv(pt.egl_m));
+      extend(s, cv(pt.hgl_m));
+      extend(s, cv(pt.egl_m));
+    }
+  }
+  s.lines = {ground.line, freeboard.line, invert.line, crown.line, hgl.line, egl.line};
+  if (!std::isfinite(s.y_min)) {
+    s.y_min = 0.0;
+    s.y_max = 1.0;
+  }
+  s.x_min = 0.0;
+  s.x_max = std::max(s.structures.back().station, 1e-3);
+
+  Findings concerned = kase.findings;
+  concerned.insert(concerned.end(), run.data_findings.begin(), run.data_findings.end());
+  s.markers = place_findings(s, concerned, s.system);
+  return s;
+}
+
+std::vector<SceneMarker> place_findings(const ProfileScene& scene, const Findings& findings, units::System system) {
+  std::vector<SceneMarker> out;
+  for (const auto& f : findings) {
+    SceneMarker m{0, nan, nan, f.severity, f.code, f.feature_id, render_message(f.message, system)};
+    if (f.layer == LayerRole::structures) {
+      const auto it = std::find_if(scene.structures.begin(), scene.structures.end(),
+                                   [&](const SceneStructure& s) { return s.id == f.feature_id; });
+      if (it == scene.structures.end()) continue;
+      m.station = it->station;
+      m.elevation = std::isfinite(it->hgl) ? it->hgl : std::isfinite(it->rim) ? it->rim : it->invert;
+    } else if (f.layer == LayerRole::conduits || f.layer == LayerRole::force_mains) {
+      const auto it = std::find_if(scene.pipes.begin(), scene.pipes.end(),
+                                   [&](const ScenePipe& p) { return p.id == f.feature_id; });
+      if (it == scene.pipes.end()) continue;
+      m.station = 0.5 * (it->station_down + it->station_up);
+      m.elevation = 0.5 * (it->invert_down + it->invert_up) + it->rise;
+    } else {
+      continue;
+    }
+    if (!std::isfinite(m.elevation)) m.elevation = scene.y_min;
+    out.push_back(m);
+  }
+  std::stable_sort(out.begin(), out.end(), [](const SceneMarker& a, const SceneMarker& b) {
+    return a.station != b.station ? a.station < b.station : a.severity > b.severity;
+  });
+  for (std::size_t i = 0; i < out.size(); ++i) out[i].number = static_cast<int>(i + 1);
+  return out;
+}
+
+}  // namespace rimline::report

@@ -1,0 +1,81 @@
+#pragma once
+// What one profile drawing shows, in the run's report units, independent of SVG or PDF:
+// built once from a CheckRun, a path and a tailwater case, then drawn by either backend.
+#include <cstddef>
+#include <string>
+#include <vector>
+
+#include "rimline/report/profile_path.hpp"
+#include "rimline/run/check_run.hpp"
+
+namespace rimline::report {
+
+struct XY {
+  double x = 0.0;  // station (report length unit), 0 at the outfall
+  double y = 0.0;  // elevation (report length unit)
+};
+
+enum class Stroke { ground, freeboard, invert, crown, hgl, egl };
+
+// A line made of parts: a gap where a value is unknown (no rim, an unsolved pipe).
+struct SceneLine {
+  Stroke stroke = Stroke::ground;
+  std::vector<std::vector<XY>> parts;
+};
+
+struct SceneStructure {
+  std::string id;
+  double station = 0.0;
+  double rim = 0.0;     // NaN when unknown
+  double invert = 0.0;  // NaN when unknown
+  double hgl = 0.0;     // NaN when not solved
+  bool outfall = false;
+};
+
+struct ScenePipe {
+  std::string id;
+  double station_down = 0.0, station_up = 0.0;
+  double invert_down = 0.0, invert_up = 0.0;  // as the march used them
+  double rise = 0.0;
+  std::string size_text;   // "1500 mm" / "60 in" / "1200 x 900 mm"
+  std::string slope_text;  // "0.22 %"
+  bool solved = false;
+};
+
+struct SceneMarker {
+  int number = 0;  // 1.. in station order
+  double station = 0.0;
+  double elevation = 0.0;
+  Severity severity = Severity::warning;
+  std::string code;
+  std::string feature_id;
+  std::string text;  // the rendered message
+};
+
+struct ProfileScene {
+  std::string outfall_id;
+  std::string head_id;
+  int number = 0;           // n of <outfall-id>-<n>
+  std::string case_label;   // rendered, e.g. "tailwater 3.200 m"
+  units::System system = units::System::si;
+  std::string length_unit;  // "m" | "ft"
+  double metres_per_unit = 1.0;
+  double freeboard = 0.0;   // required freeboard, report units
+  std::vector<SceneStructure> structures;  // outfall first
+  std::vector<ScenePipe> pipes;            // outfall's inflow first
+  std::vector<SceneLine> lines;            // one per Stroke, in enum order
+  std::vector<SceneMarker> markers;        // station order
+  double x_min = 0.0, x_max = 1.0, y_min = 0.0, y_max = 1.0;
+
+  std::string name() const { return outfall_id + "-" + std::to_string(number); }
+  const SceneLine& line(Stroke s) const { return lines[static_cast<std::size_t>(s)]; }
+};
+
+// The scene of `path` in run.cases[case_index].
+ProfileScene build_scene(const run::CheckRun& run, const ProfilePath& path, std::size_t case_index, int number);
+
+// Findings of the case (criteria) and of the run (data) that concern a structure or conduit on
+// the path, placed at that feature: structures at their station, conduits mid-pipe.
+std::vector<SceneMarker> place_findings(const ProfileScene& scene, const Findings& findings, units::System system);
+
+}  // namespace rimline::report

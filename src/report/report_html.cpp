@@ -1,0 +1,242 @@
+#include "rimline/report/report_html.hpp"
+
+#include <cmath>
+#include <cstdio>
+#include <map>
+#include <set>
+
+#include "report/html_style.hpp"
+#include "report/sheet_text.hpp"
+#include "rimline/hydraulics/friction.hpp"
+#include "rimline/method_registry.hpp"
+#include "rimline/report/outputs.hpp"
+#include "rimline/report/profile_svg.hpp"
+#include "rimline/sha256.hpp"
+#include "rimline/topology/summary.hpp"
+#include "rimline/version.hpp"
+
+namespace rimline::report {
+namespace {
+
+using units::Dimension;
+
+std::string esc(std::string_view s) { return xml_escape(s); }
+
+std::string value(double si, Dimension d, units::System sys) {
+  if (!std::isfinite(si)) return "";
+  char buf[48];
+  std::snprintf(buf, sizeof buf, "%.3f", to_report(si, d, sys));
+  return buf;
+}
+
+std::string unit(Dimension d, units::System sys) {
+  return d == Dimension::dimensionless ? "" : std::string(units::unit_symbol(units::display_unit(d, sys)));
+}
+
+std::string row(std::initializer_list<std::string> cells, const char* tag = "td") {
+  std::string r = "<tr>";
+  for (const auto& c : cells) r += std::string("<") + tag + ">" + c + "</" + tag + ">";
+  return r + "</tr>\n";
+}
+
+std::string finding_key(const Finding& f) {
+  return f.code + '\x1f' + std::to_string(static_cast<int>(f.layer)) + '\x1f' + f.feature_id + '\x1f' + f.field +
+         '\x1f' + f.message;
+}
+
+std::string summary_section(const run::CheckRun& run, const std::string& date) {
+  const auto& net = run.read.network;
+  const auto ns = topology::summarize(net, run.topology);
+  const auto sys = run.report_units;
+  std::string h = "<section id=\"summary\"><h2>Job summary</h2>\n<table class=\"kv\">\n";
+  h += row({"Project", esc(run.project.name)});
+  h += row({"Project file", "<code>" + esc(run.project.file) + "</code>"});
+  h += row({"Run date (UTC)", esc(date)});
+  h += row({"rimline", esc(version_string)});
+  h += row({"Report units", esc(units_text(sys))});
+  h += row({"Coordinate system", esc(net.crs_description) + (net.crs_note.empty() ? "" : " (" + esc(net.crs_note) + ")")});
+  h += row({"Flow case", esc(flow_case_text(run))});
+  h += row({"Network", std::to_string(ns.structures) + " structures (" + std::to_string(ns.derived_structures) +
+                           " derived), " + std::to_string(ns.conduits) + " conduits (" +
+                           std::to_string(ns.marched_conduits) + " marched), " + std::to_string(ns.outfalls) +
+                           " outfalls, " + std::to_string(ns.diversions) + " diversions, total length " +
+                           value(ns.total_length_m, Dimension::length, sys) + " " + unit(Dimension::length, sys)});
+  std::map<Severity, int> by_sev;
+  for (const auto& f : run.findings) ++by_sev[f.severity];
+  h += row({"Findings", std::to_string(by_sev[Severity::error]) + " errors, " +
+                            std::to_string(by_sev[Severity::warning]) + " warnings, " +
+                            std::to_string(by_sev[Severity::info]) + " info"});
+  h += "</table>\n<h3>Tailwater cases</h3>\n<table class=\"grid\">\n";
+  h += row({"Case", "Tailwater (" + unit(Dimension::length, sys) + ")", "Structures solved", "Criteria findings"}, "th");
+  for (const auto& c : run.cases) {
+    std::size_t solved = 0;
+    for (const auto& s : c.march.structures) solved += s.solved ? 1 : 0;
+    h += row({esc(render_message(c.label, sys)), std::isfinite(c.tailwater_m) ? value(c.tailwater_m, Dimension::length, sys) : "free",
+              std::to_string(solved) + " of " + std::to_string(c.march.structures.size()),
+              std::to_string(c.findings.size())});
+  }
+  return h + "</table></section>\n";
+}
+
+std::string inputs_section(const run::CheckRun& run) {
+  std::string h = "<section id=\"inputs\"><h2>Inputs</h2>\n<table class=\"grid\">\n";
+  h += row({"File", "SHA-256"}, "th");
+  std::vector<std::string> files = run.read.input_files;
+  files.insert(files.begin(), run.project.file);
+  for (const auto& f : files) {
+    std::string hash;
+    try {
+      hash = sha256_file_hex(f);
+    } catch (const std::exception&) {
+      hash = "(not a file: not hashed)";
+    }
+    h += row({"<code>" + esc(f) + "</code>", "<code class=\"hash\">" + esc(hash) + "</code>"});
+  }
+  h += "</table>\n";
+  if (!run.read.defaults_used.empty()) {
+    h += "<h3>Values filled from the project defaults</h3>\n<table class=\"grid\">\n";
+    h += row({"Layer", "Value", "Used for", "Examples"}, "th");
+    for (const auto& d : run.read.defaults_used) {
+      std::string ex;
+      for (const auto& id : d.example_ids) ex += (ex.empty() ? "" : ", ") + esc(id);
+      h += row({esc(layer_role_name(d.layer)), esc(d.text), std::to_string(d.count), ex});
+    }
+    h += "</table>\n";
+  }
+  return h + "</section>\n";
+}
+
+std::string methods_section(const run::CheckRun& run) {
+  const auto sys = run.report_units;
+  const std::string friction(hydraulics::friction_law_name(run.project.methods.friction));
+  const std::string loss(hydraulics::structure_loss_method_name(run.march_options.loss_method));
+  const auto& c = run.criteria;
+  std::map<std::string, std::string> criterion_value{
+      {"freeboard", value(c.freeboard_m, Dimension::length, sys) + " " + unit(Dimension::length, sys)},
+      {"velocity_min", value(c.velocity_min_m_s, Dimension::velocity, sys) + " " + unit(Dimension::velocity, sys)},
+      {"velocity_max", c.velocity_max_m_s ? value(*c.velocity_max_m_s, Dimension::velocity, sys) + " " +
+                                                unit(Dimension::velocity, sys)
+                                          : "off"},
+      {"capacity_ratio_max", value(c.capacity_ratio_max, Dimension::dimensionless, sys)},
+      {"cover_min", c.cover_min_m ? value(*c.cover_min_m, Dimension::length, sys) + " " + unit(Dimension::length, sys)
+                                  : "off"}};
+  std::string h = "<section id=\"methods\"><h2>Methods and criteria</h2>\n";
+  h += "<p>Structure loss default K = " + value(run.march_options.default_k, Dimension::dimensionless, sys) +
+       ". Rows marked <span class=\"used\">in use</span> apply to this run.</p>\n<table class=\"grid\">\n";
+  h += row({"Group", "Method", "Description", "This run", "Source"}, "th");
+  for (const auto& m : method_rows()) {
+    std::string here;
+    if (m.group == "friction") here = m.id == friction ? "<span class=\"used\">in use</span>" : "";
+    else if (m.group == "structure loss") here = m.id == loss ? "<span class=\"used\">in use</span>" : "";
+    else if (m.group == "profile") here = "<span class=\"used\">in use</span>";
+    else if (auto it = criterion_value.find(std::string(m.id)); it != criterion_value.end())
+      here = "<span class=\"used\">" + esc(it->second) + "</span>";
+    h += row({esc(m.group), esc(m.name) + " <code>" + esc(m.id) + "</code>", esc(m.description), here, esc(m.source)});
+  }
+  return h + "</table></section>\n";
+}
+
+// The energy budget of a structure in the case with its highest HGL: tailwater plus each loss
+// down the governing route, summed back to the structure's level.
+std::string budget(const run::CheckRun& run, std::size_t s) {
+  const auto sys = run.report_units;
+  const std::size_t k = run.envelope_structure_case.empty() ? 0 : run.envelope_structure_case[s];
+  const auto& march = run.cases[k].march;
+  if (!march.structures[s].solved) return "";
+  const auto items = solve::loss_budget(run.read.network, march, s);
+  if (items.empty()) return "";
+  const std::string u = unit(Dimension::length, sys);
+  std::string h = "<details><summary>Energy budget to the outfall (" + esc(render_message(run.cases[k].label, sys)) +
+                  ")</summary>\n<table class=\"budget\">\n";
+  h += row({"Item", "Feature", "Head (" + u + ")", "Level (" + u + ")"}, "th");
+  double level = 0.0;
+  for (const auto& it : items) {
+    level += it.head_m;
+    h += row({esc(it.kind), esc(it.feature_id), value(it.head_m, Dimension::length, sys),
+              value(level, Dimension::length, sys)});
+  }
+  h += "<tr class=\"total\"><td colspan=\"3\">HGL in the structure</td><td>" +
+       value(march.structures[s].hgl_m, Dimension::length, sys) + "</td></tr>\n";
+  return h + "</table></details>";
+}
+
+std::string findings_table(const run::CheckRun& run, const Findings& list, const std::string& id, bool budgets) {
+  const auto sys = run.report_units;
+  std::string h = "<table class=\"findings\" id=\"" + id + "\">\n<thead>" +
+                  row({"Code", "Layer", "Feature", "Field", "Value", "Limit", "Unit", "Message"}, "th") + "</thead>\n";
+  for (Severity sev : {Severity::error, Severity::warning, Severity::info}) {
+    std::size_t n = 0;
+    for (const auto& f : list) n += f.severity == sev ? 1 : 0;
+    const std::string name(severity_name(sev));
+    h += "<tbody class=\"sev-" + name + "\"><tr class=\"group\"><th colspan=\"8\">" + name + " (" + std::to_string(n) +
+         ")</th></tr>\n";
+    for (const auto& f : list) {
+      if (f.severity != sev) continue;
+      const bool has_value = std::isfinite(f.value) || std::isfinite(f.limit);
+      h += row({"<b>" + esc(f.code) + "</b>", esc(layer_role_name(f.layer)), esc(f.feature_id), esc(f.field),
+                value(f.value, f.dimension, sys), value(f.limit, f.dimension, sys),
+                has_value ? esc(unit(f.dimension, sys)) : "", esc(render_message(f.message, sys))});
+      if (!budgets || f.layer != LayerRole::structures) continue;
+      const std::size_t s = model::find_structure(run.read.network, f.feature_id);
+      if (s == model::no_index || run.cases.empty()) continue;
+      const std::string b = budget(run, s);
+      if (!b.empty()) h += "<tr class=\"budget-row\"><td></td><td colspan=\"7\">" + b + "</td></tr>\n";
+    }
+    h += "</tbody>\n";
+  }
+  return h + "</table>\n";
+}
+
+std::string data_findings_section(const run::CheckRun& run, const Findings& data) {
+  std::map<std::string, int> by_code;
+  for (const auto& f : data) ++by_code[f.code];
+  std::string h = "<section id=\"data-findings\"><h2>Data findings</h2>\n<p>Problems in the input data found while "
+                  "reading, connecting and marching. Counts by code: ";
+  std::string counts;
+  for (const auto& [code, n] : by_code) counts += (counts.empty() ? "" : ", ") + esc(code) + " " + std::to_string(n);
+  h += (counts.empty() ? "none" : counts) + ".</p>\n";
+  return h + findings_table(run, data, "data-table", false) + "</section>\n";
+}
+
+std::string profiles_section(const std::vector<RenderedProfile>& profiles, bool pdf_written) {
+  std::string h = "<section id=\"profiles\"><h2>Profiles</h2>\n<p>Station 0 at the outfall, increasing upstream. ";
+  h += pdf_written ? "Every profile is also a sheet of <a href=\"profiles.pdf\">profiles.pdf</a> (A3 landscape)."
+                   : "No PDF was written.";
+  h += "</p>\n";
+  if (profiles.empty()) h += "<p>No path with a pipe was found: no profile drawn.</p>\n";
+  for (const auto& p : profiles) {
+    h += "<figure class=\"profile-figure\" id=\"figure-" + esc(p.name) + "\">\n" + p.svg + "<figcaption>Profile " +
+         esc(p.name) + ": " + esc(p.caption) + " (<a href=\"profiles/" + esc(p.name) + ".svg\">SVG</a>)</figcaption>\n</figure>\n";
+  }
+  return h + "</section>\n";
+}
+
+}  // namespace
+
+std::string report_html(const run::CheckRun& run, const std::vector<RenderedProfile>& profiles,
+                        const std::string& date, bool pdf_written) {
+  std::set<std::string> data_keys;
+  for (const auto& f : run.data_findings) data_keys.insert(finding_key(f));
+  Findings criteria, data;
+  for (const auto& f : run.findings) (data_keys.count(finding_key(f)) ? data : criteria).push_back(f);
+
+  std::string h = "<!DOCTYPE html>\n<html lang=\"en\">\n<head>\n<meta charset=\"utf-8\">\n<title>rimline review: " +
+                  esc(run.project.name) + "</title>\n<style>\n" + std::string(report_css) + "</style>\n</head>\n<body>\n";
+  h += "<header><div class=\"mark\">rimline</div><h1>Hydraulic grade line review: " + esc(run.project.name) +
+       "</h1>\n<p class=\"caution\" id=\"caution-top\">" + esc(caution) + "</p></header>\n<main>\n";
+  h += "<nav><a href=\"#summary\">Summary</a> <a href=\"#inputs\">Inputs</a> <a href=\"#methods\">Methods</a> "
+       "<a href=\"#exceptions\">Exceptions</a> <a href=\"#profiles\">Profiles</a> <a href=\"#data-findings\">Data "
+       "findings</a></nav>\n";
+  h += summary_section(run, date);
+  h += inputs_section(run);
+  h += methods_section(run);
+  h += "<section id=\"exceptions\"><h2>Exception list</h2>\n<p>Design criteria not met, worst case over the "
+       "tailwater cases, by severity. A structure finding opens to its energy budget down to the outfall.</p>\n";
+  h += findings_table(run, criteria, "exception-table", true) + "</section>\n";
+  h += profiles_section(profiles, pdf_written);
+  h += data_findings_section(run, data);
+  h += "</main>\n<footer><p class=\"caution\" id=\"caution\">" + esc(caution) + "</p></footer>\n</body>\n</html>\n";
+  return h;
+}
+
+}  // namespace rimline::report
