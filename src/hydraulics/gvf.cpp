@@ -113,6 +113,25 @@ double force_gap(const PreparedReach& r, const Branch& sub, const Branch& sup, d
   return detail::specific_force_at(r, detail::branch_at(r, sub, x)) - detail::specific_force_at(r, detail::branch_at(r, sup, x));
 }
 
+// The branch's surface at x by linear interpolation between its computed sections: cheap, and
+// good enough to bracket the jump before the exact refinement.
+Node interpolated(const Branch& b, double x) {
+  const auto& n = b.nodes;
+  for (std::size_t i = 0; i + 1 < n.size(); ++i) {
+    const double x0 = n[i].x, x1 = n[i + 1].x;
+    if ((x - x0) * (x - x1) <= 0.0 && x0 != x1) {
+      const double w = (x - x0) / (x1 - x0);
+      return {x, n[i].y + w * (n[i + 1].y - n[i].y), n[i].hgl + w * (n[i + 1].hgl - n[i].hgl), n[i].full && n[i + 1].full};
+    }
+  }
+  const Node& last = std::fabs(n.front().x - x) < std::fabs(n.back().x - x) ? n.front() : n.back();
+  return {x, last.y, last.hgl, last.full};
+}
+
+double rough_gap(const PreparedReach& r, const Branch& sub, const Branch& sup, double x) {
+  return detail::specific_force_at(r, interpolated(sub, x)) - detail::specific_force_at(r, interpolated(sup, x));
+}
+
 Joined join(const PreparedReach& r, const Branch& sub, const Branch* sup) {
   Joined j;
   const double sub_top = sub.end == detail::BranchEnd::reached_end ? r.length : sub.far_x();
@@ -152,20 +171,35 @@ Joined join(const PreparedReach& r, const Branch& sub, const Branch* sup) {
     if (n.x > lo && n.x < hi) stations.push_back(n.x);
   stations.push_back(lo);
   std::sort(stations.begin(), stations.end(), std::greater<>());
-  double prev_x = hi, prev_gap = force_gap(r, sub, *sup, hi);
-  if (prev_gap >= 0.0 && hi >= r.length) {  // jump drowned at the inlet: subcritical throughout
+  const double gap_hi = force_gap(r, sub, *sup, hi);
+  if (gap_hi >= 0.0 && hi >= r.length) {  // jump drowned at the inlet: subcritical throughout
     j.nodes = sub.nodes;
     return j;
   }
   std::optional<double> jump;
-  if (prev_gap >= 0.0) jump = hi;
+  if (gap_hi >= 0.0) jump = hi;
+  double prev_x = hi, prev_gap = gap_hi;
   for (std::size_t k = 1; k < stations.size() && !jump; ++k) {
     const double x = stations[k];
     if (x >= prev_x) continue;
-    const double gap = force_gap(r, sub, *sup, x);
+    const double gap = rough_gap(r, sub, *sup, x);
     if (gap >= 0.0) {
+      // Refine on the exact surfaces; widen to the neighbouring stations if interpolation moved the sign.
       auto f = [&](double s) { return force_gap(r, sub, *sup, s); };
-      jump = detail::brent_root(f, x, prev_x, gap, prev_gap, 1e-6 * r.length, 100).x;
+      double a = x, b = prev_x, fa = f(a), fb = b == hi ? gap_hi : f(b);
+      if (fa < 0.0 && k + 1 < stations.size()) {
+        a = stations[k + 1];
+        fa = f(a);
+      }
+      if (fb >= 0.0 && k >= 2) {
+        b = stations[k - 2];
+        fb = f(b);
+      }
+      if (fa >= 0.0 && fb < 0.0) {
+        jump = detail::brent_root(f, a, b, fa, fb, 1e-6 * r.length, 100).x;
+      } else {
+        jump = x + (prev_x - x) * gap / (gap - prev_gap);  // linear estimate between the stations
+      }
     }
     prev_x = x;
     prev_gap = gap;
@@ -218,12 +252,8 @@ ConduitProfile compute_profile(const ConduitReach& reach, double downstream_leve
     const double y0 = std::max(outlet_depth, r.yc);
     start = {0.0, y0, r.invert(0.0) + y0, false};
   }
-  Branch sub = over_capacity ? Branch{} : detail::march_subcritical(r, start);
-  if (over_capacity) {
-    sub.nodes = {start, {r.length, r.rise, start.hgl + r.sf_full * r.length, true}};
-    note = "flow exceeds the full-flow capacity at this slope: the conduit runs surcharged";
-  }
-
+  // The supercritical branch first: once the subcritical one falls below its specific force,
+  // the jump lies downstream and the subcritical march can stop.
   Branch sup;
   bool has_sup = false;
   if (!over_capacity && yc.exists) {
@@ -236,6 +266,19 @@ ConduitProfile compute_profile(const ConduitReach& reach, double downstream_leve
       has_sup = true;
     }
   }
+  detail::StopRule below_super;
+  if (has_sup) {
+    const double sup_bottom = sup.end == detail::BranchEnd::reached_end ? 0.0 : sup.far_x();
+    below_super = [&](const Node& n) {
+      return n.x > sup_bottom && n.x < r.length && detail::specific_force_at(r, n) < detail::specific_force_at(r, interpolated(sup, n.x));
+    };
+  }
+  Branch sub = over_capacity ? Branch{} : detail::march_subcritical(r, start, below_super);
+  if (over_capacity) {
+    sub.nodes = {start, {r.length, r.rise, start.hgl + r.sf_full * r.length, true}};
+    note = "flow exceeds the full-flow capacity at this slope: the conduit runs surcharged";
+  }
+
   const Joined joined = join(r, sub, has_sup ? &sup : nullptr);
   ConduitProfile p = detail::summarise(r, joined.nodes, joined.has_super ? joined.super_from : joined.nodes.size(), free_outlet);
   p.free_outlet = free_outlet;

@@ -2,9 +2,10 @@
 // x1 the energy equation
 //     z1 + E(y1) = z0 + E(y0) + (x1 - x0) (Sf0 + Sf1) / 2        (x increasing upstream)
 // is solved for y1 on the branch's side of critical depth. The step length is adapted so that
-// the local error estimated by Milne's device (trapezoid corrector against an Adams-Bashforth
-// predictor: error ~ |y_corrected - y_predicted| / 6) stays below the tolerance, and the depth
-// change per step below max_dy. Where the surface reaches the crown or critical depth, a direct
+// the local error estimated by Milne's device (the trapezoidal energy balance against an
+// Adams-Bashforth predictor of H' = Sf: error ~ |H_corrected - H_predicted| / 6, divided by
+// dE/dy = 1 - Fr^2 to become a depth) stays below the tolerance, and the depth change per step
+// below max_dy. Where the surface reaches the crown or critical depth, a direct
 // step (solve the same equation for the distance) places the point exactly.
 #include "hydraulics/gvf_branch.hpp"
 
@@ -55,12 +56,21 @@ StepResult standard_step(const PreparedReach& r, double x0, double head0, double
   const double tol = r.closure * r.rise;
   // Residual rises with y on the subcritical limb (dE/dy = 1 - Fr^2 > 0, Sf falls with y) and
   // falls with y on the supercritical limb.
-  const double sign = side == Side::sub ? 1.0 : -1.0;
   const double lo_limit = side == Side::sub ? r.yc : 1e-9 * r.rise, hi_limit = side == Side::sub ? r.rise : r.yc;
-  if (guess > lo_limit && guess < hi_limit) {  // try a narrow bracket around the predictor first
-    const double a = std::max(lo_limit, guess - width), b = std::min(hi_limit, guess + width);
-    const double fa = residual(a), fb = residual(b);
-    if (sign * fa <= 0.0 && sign * fb >= 0.0) return {StepOutcome::ok, free_state(r, brent_root(residual, a, b, fa, fb, tol, 200).x)};
+  if (guess > lo_limit && guess < hi_limit) {
+    // Secant iteration from the predictor: the root is unique on this limb, so a converged
+    // iterate inside the limb is the answer; anything else falls back to the bracketing solve.
+    double ya = guess, fa = residual(ya);
+    double yb = std::clamp(guess + 1e-3 * width, lo_limit, hi_limit), fb = residual(yb);
+    for (int i = 0; i < 8 && fb != fa; ++i) {
+      const double y_next = yb - fb * (yb - ya) / (fb - fa);
+      if (!(y_next > lo_limit && y_next < hi_limit)) break;
+      ya = yb;
+      fa = fb;
+      yb = y_next;
+      fb = residual(yb);
+      if (std::fabs(yb - ya) <= tol) return {StepOutcome::ok, free_state(r, yb)};
+    }
   }
   if (side == Side::sub) {
     const double f_lo = residual(r.yc);
@@ -85,15 +95,15 @@ double direct_step(const PreparedReach& r, double x0, double head0, double sf0, 
 // Marches a free surface from `start` towards x_end (dir = +1 upstream, -1 downstream). Appends
 // accepted nodes to b. Returns how the march ended; BranchEnd::reached_end with the last node at
 // the crown means the surface met the soffit (sub side only).
-enum class FreeEnd { end, crown, critical, cap };
+enum class FreeEnd { end, crown, critical, cap, stopped };
 
-FreeEnd march_free(const PreparedReach& r, Branch& b, const Node& start, double x_end, int dir) {
+FreeEnd march_free(const PreparedReach& r, Branch& b, const Node& start, double x_end, int dir, const StopRule& stop) {
   const double dir_d = static_cast<double>(dir);
   double x = start.x;
   State s0 = free_state(r, start.y);
   double head0 = r.invert(x) + s0.e;
   bool have_prev = false;
-  double f_prev = 0.0, dx_prev = 0.0;
+  double f_prev = 0.0, sf_prev = 0.0, dx_prev = 0.0;
   const double min_step = 1e-7 * r.length;
 
   // At critical depth dy/dx is infinite: take the first step by depth, not by distance.
@@ -135,14 +145,19 @@ FreeEnd march_free(const PreparedReach& r, Branch& b, const Node& start, double 
       if (to_crown) y1 = r.rise;
       const double dx = direct_step(r, x, head0, s0.sf, y1);
       if (dx * dir_d > 0.0 && std::fabs(dx) < remaining) {
+        const double sf_before = s0.sf;
         x += dx;
         s0 = free_state(r, y1);
         head0 = r.invert(x) + s0.e;
         b.nodes.push_back({x, y1, r.invert(x) + y1, to_crown});
         ++b.steps;
-        have_prev = false;
+        have_prev = true;  // the depth step is a history point for the next predictor too
+        f_prev = f0;
+        sf_prev = sf_before;
+        dx_prev = dx;
         h = 2.0 * std::fabs(dx);
         if (to_crown) return FreeEnd::crown;
+        if (stop && stop(b.nodes.back())) return FreeEnd::stopped;
         if (toward_yc > 0.0 && dy == toward_yc) return FreeEnd::critical;
         continue;
       }
@@ -152,11 +167,16 @@ FreeEnd march_free(const PreparedReach& r, Branch& b, const Node& start, double 
     const double step = last ? remaining : h;
     const double x1 = last ? x_end : x + dir_d * step;
     const double dx = x1 - x;
-    double predicted = -1.0, divisor = 2.0;
+    // Predictors: Adams-Bashforth 2 (Euler without history) for the depth, to seed the solver,
+    // and for the energy head H' = Sf, whose difference from the trapezoidal corrector estimates
+    // the step's local error (Milne's device; the Euler difference is O(h^2), a safe over-estimate).
+    double predicted = -1.0, head_predicted = head0 + dx * s0.sf, divisor = 2.0;
     if (std::isfinite(f0)) {
-      predicted = s0.y + dx * f0;  // Euler: its difference is O(h^2), a safe over-estimate
+      predicted = s0.y + dx * f0;
       if (have_prev && std::isfinite(f_prev)) {
-        predicted = s0.y + dx * (f0 + 0.5 * dx / dx_prev * (f0 - f_prev));
+        const double w = 0.5 * dx / dx_prev;
+        predicted = s0.y + dx * (f0 + w * (f0 - f_prev));
+        head_predicted = head0 + dx * (s0.sf + w * (s0.sf - sf_prev));
         divisor = 6.0;
       }
     }
@@ -181,22 +201,36 @@ FreeEnd march_free(const PreparedReach& r, Branch& b, const Node& start, double 
       h = step * std::max(0.1, 0.9 * r.max_dy / std::fabs(dy));
       continue;
     }
-    const double err = std::isfinite(f0) ? std::fabs(s1.y - predicted) / divisor : 0.0;
+    // A head error becomes a depth error through dE/dy = 1 - Fr^2.
+    const double head1 = r.invert(x1) + s1.e;
+    const double err = std::fabs(head1 - head_predicted) / divisor / std::max(std::fabs(1.0 - s1.fr2), 0.05);
     if (err > r.step_tolerance && step > min_step) {
       h = step * std::max(0.2, 0.9 * std::cbrt(r.step_tolerance / err));
       continue;
     }
     have_prev = true;
     f_prev = f0;
+    sf_prev = s0.sf;
     dx_prev = dx;
     x = x1;
     s0 = s1;
     head0 = r.invert(x) + s0.e;
     b.nodes.push_back({x, s0.y, r.invert(x) + s0.y, false});
     ++b.steps;
+    if (stop && stop(b.nodes.back())) return FreeEnd::stopped;
     h = step * (err > 0.0 ? std::min(4.0, 0.9 * std::cbrt(r.step_tolerance / err)) : 4.0);
     if (r.has_normal && std::fabs(s0.y - r.yn) <= 1e-7 * r.rise) h = std::fabs(x_end - x);  // uniform flow reached
   }
+}
+BranchEnd end_of(FreeEnd e) {
+  switch (e) {
+    case FreeEnd::end: return BranchEnd::reached_end;
+    case FreeEnd::critical: return BranchEnd::critical;
+    case FreeEnd::stopped: return BranchEnd::stopped;
+    case FreeEnd::crown:
+    case FreeEnd::cap: break;
+  }
+  return BranchEnd::step_cap;
 }
 }  // namespace
 
@@ -229,7 +263,7 @@ double friction_slope_at(const PreparedReach& r, const Node& n) {
   return free_state(r, n.y).sf;
 }
 
-Branch march_subcritical(const PreparedReach& r, const Node& start) {
+Branch march_subcritical(const PreparedReach& r, const Node& start, const StopRule& stop) {
   Branch b;
   b.side = Side::sub;
   b.nodes.push_back(start);
@@ -256,13 +290,13 @@ Branch march_subcritical(const PreparedReach& r, const Node& start) {
         return b;
       }
     }
-    const FreeEnd end = march_free(r, b, node, r.length, +1);
+    const FreeEnd end = march_free(r, b, node, r.length, +1, stop);
     if (end == FreeEnd::crown) {
       node = b.nodes.back();
       from_free = true;
       continue;
     }
-    b.end = end == FreeEnd::end ? BranchEnd::reached_end : end == FreeEnd::critical ? BranchEnd::critical : BranchEnd::step_cap;
+    b.end = end_of(end);
     return b;
   }
 }
@@ -271,8 +305,7 @@ Branch march_supercritical(const PreparedReach& r, const Node& start) {
   Branch b;
   b.side = Side::super;
   b.nodes.push_back(start);
-  const FreeEnd end = march_free(r, b, start, 0.0, -1);
-  b.end = end == FreeEnd::end ? BranchEnd::reached_end : end == FreeEnd::critical ? BranchEnd::critical : BranchEnd::step_cap;
+  b.end = end_of(march_free(r, b, start, 0.0, -1, {}));
   return b;
 }
 
@@ -289,7 +322,8 @@ Node branch_at(const PreparedReach& r, const Branch& b, double x) {
   const Node& c = n[i + 1];
   if (a.full && c.full) return {x, r.rise, a.hgl + (c.hgl - a.hgl) * (x - a.x) / (c.x - a.x), true};
   const State s0 = free_state(r, a.y);
-  const StepResult res = standard_step(r, a.x, r.invert(a.x) + s0.e, s0.sf, x, b.side);
+  const double guess = a.y + (c.y - a.y) * (x - a.x) / (c.x - a.x);  // seeds the solver
+  const StepResult res = standard_step(r, a.x, r.invert(a.x) + s0.e, s0.sf, x, b.side, guess, std::fabs(c.y - a.y) + 1e-3 * r.rise);
   double y = res.outcome == StepOutcome::ok ? res.state.y : res.outcome == StepOutcome::crown ? r.rise : r.yc;
   return {x, y, r.invert(x) + y, false};
 }

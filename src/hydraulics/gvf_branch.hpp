@@ -2,6 +2,7 @@
 // Internal: one branch of a water-surface profile, marched by the standard step method from a
 // control: the subcritical branch upstream from the outlet (with surcharged stretches), the
 // supercritical branch downstream from an inlet control. gvf.cpp joins them (hydraulic jump).
+#include <functional>
 #include <vector>
 
 #include "rimline/hydraulics/gvf.hpp"
@@ -31,7 +32,11 @@ struct Node {
 };
 
 enum class Side { sub, super };
-enum class BranchEnd { reached_end, critical, step_cap };
+enum class BranchEnd { reached_end, critical, step_cap, stopped };
+
+// Asked after every accepted section; true ends the march there (used to stop the subcritical
+// branch once it is known to lie downstream of the jump).
+using StopRule = std::function<bool(const Node&)>;
 
 struct Branch {
   Side side = Side::sub;
@@ -41,7 +46,7 @@ struct Branch {
   double far_x() const { return nodes.back().x; }
 };
 
-Branch march_subcritical(const PreparedReach& r, const Node& start);
+Branch march_subcritical(const PreparedReach& r, const Node& start, const StopRule& stop = {});
 Branch march_supercritical(const PreparedReach& r, const Node& start);
 
 double velocity_at(const PreparedReach& r, const Node& n);

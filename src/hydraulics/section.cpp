@@ -63,9 +63,16 @@ Geometry free_surface_geometry(const Section& s, double y) {
   if (s.shape == Shape::box) return finish(y, s.width_m * y, s.width_m + 2.0 * y, s.width_m);
   const double d = s.diameter_m;
   if (y >= d) return circle_full(d);
+  // With s = sin(phi/2) = sqrt(y/D) (or its complement near full), sin 2phi follows algebraically:
+  // sin phi = 2 s sqrt(1 - s^2), cos phi = +-(1 - 2 s^2); one asin per evaluation.
   const double gap = d - y;
-  const double phi = y <= 0.5 * d ? 2.0 * std::asin(std::sqrt(y / d)) : std::numbers::pi - 2.0 * std::asin(std::sqrt(gap / d));
-  const double area = d * d / 8.0 * (2.0 * phi - std::sin(2.0 * phi));
+  const bool lower = y <= 0.5 * d;
+  const double sh = std::sqrt((lower ? y : gap) / d);
+  const double half = std::asin(sh);
+  const double phi = lower ? 2.0 * half : std::numbers::pi - 2.0 * half;
+  const double sin_phi = 2.0 * sh * std::sqrt(1.0 - sh * sh);
+  const double cos_phi = lower ? 1.0 - 2.0 * sh * sh : -(1.0 - 2.0 * sh * sh);
+  const double area = d * d / 8.0 * (2.0 * phi - 2.0 * sin_phi * cos_phi);
   return finish(y, area, d * phi, 2.0 * std::sqrt(y * gap));
 }
 
