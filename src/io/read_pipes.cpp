@@ -3,8 +3,8 @@
 #include <algorithm>
 #include <cmath>
 #include <map>
-#include <unordered_map>
 
+#include "io/duplicate_ids.hpp"
 #include "io/read_layers.hpp"
 #include "io/value_checks.hpp"
 #include "rimline/error.hpp"
@@ -47,7 +47,7 @@ const FieldRef& diameter_ref(const Project& p) {
 
 class PipeReader {
  public:
-  PipeReader(LayerRead& in) : in_(in), p_(in.project), f_(in.project.pipe_fields), col_(resolve(f_, in.source)) {}
+  explicit PipeReader(LayerRead& in) : in_(in), p_(in.project), f_(in.project.pipe_fields), col_(resolve(f_, in.source)) {}
 
   void read(OGRFeature& feature, model::Conduit& c) {
     c.fid = feature.GetFID();
@@ -74,11 +74,6 @@ class PipeReader {
     const FeatureRef who{LayerRole::conduits, c.id, in_.findings};
     if (col_.id >= 0 && !id)
       who.add("DATA_MISSING", Severity::warning, f_.id, f_.id + " is empty; the pipe is reported as \"" + c.id + "\".");
-    const auto [it, fresh] = seen_.try_emplace(c.id, c.fid);
-    if (!fresh)
-      who.add("DATA_DUPLICATE_ID", Severity::warning, f_.id,
-              "The id \"" + c.id + "\" is also used by fid " + std::to_string(it->second) +
-                  "; both pipes are kept, so results under this id are ambiguous.");
   }
 
   void read_geometry(OGRFeature& feature, model::Conduit& c, const FeatureRef& who) {
@@ -131,18 +126,18 @@ class PipeReader {
   void read_length(OGRFeature& feature, model::Conduit& c, const FeatureRef& who) {
     c.length_m = c.geometry_length_m;
     if (col_.length < 0) return;
-    const std::string use_geometry = "the geometry length " + format_fixed(c.geometry_length_m, 3) + " m is used";
+    auto use_geometry = [&c] { return "the geometry length " + format_fixed(c.geometry_length_m, 3) + " m is used"; };
     const RawNumber raw = read_number(feature, col_.length);
     if (raw.state == RawNumber::State::null) {
-      who.add("DATA_MISSING", Severity::info, f_.length.field, f_.length.field + " is empty; " + use_geometry + ".");
+      who.add("DATA_MISSING", Severity::info, f_.length.field, f_.length.field + " is empty; " + use_geometry() + ".");
       return;
     }
-    const auto v = checked_number(raw, f_.length.field, use_geometry, who);
+    const auto v = checked_number_lazy(raw, f_.length.field, use_geometry, who);
     if (!v) return;
     const double si = units::to_si(*v, f_.length.unit);
-    const std::string shown = f_.length.field + " " + format_value(*v, f_.length.unit);
+    auto shown = [&] { return f_.length.field + " " + format_value(*v, f_.length.unit); };
     if (!(si > 0.0)) {
-      who.add("DATA_IMPLAUSIBLE", Severity::warning, f_.length.field, shown + " is not positive; " + use_geometry + ".",
+      who.add("DATA_IMPLAUSIBLE", Severity::warning, f_.length.field, shown() + " is not positive; " + use_geometry() + ".",
               si, 0.0, Dimension::length);
       return;
     }
@@ -153,7 +148,7 @@ class PipeReader {
     const double tol = p_.plausibility.length_tolerance;
     if (std::abs(si / c.geometry_length_m - 1.0) > tol) {
       who.add("DATA_IMPLAUSIBLE", Severity::warning, f_.length.field,
-              shown + " differs from the geometry length " + format_fixed(c.geometry_length_m, 3) +
+              shown() + " differs from the geometry length " + format_fixed(c.geometry_length_m, 3) +
                   " m by more than " + format_fixed(tol * 100.0, 1) + " %; the geometry length is used.",
               si, c.geometry_length_m, Dimension::length);
       return;
@@ -264,30 +259,35 @@ class PipeReader {
     auto shown = [&](double si) { return is_ks ? format_si(si, Dimension::length) : format_number(si); };
     // What the project offers when the field does not.
     std::optional<double> alt;
-    std::string alt_from;
+    bool alt_by_material = false;
     if (const auto it = by_material.find(material); !material.empty() && it != by_material.end()) {
       alt = it->second;
-      alt_from = "[pipes.defaults." + std::string(role) + "_by_material] " + material;
+      alt_by_material = true;
     } else if (fallback) {
       alt = fallback;
-      alt_from = "[pipes.defaults] " + std::string(is_ks ? "ks" : role);
     }
-    const std::string use_alt = alt ? std::string(name) + " = " + shown(*alt) + " from " + alt_from + " is used"
-                                    : (needed ? std::string(left_out) : "it is ignored");
+    auto alt_from = [&] {
+      return alt_by_material ? "[pipes.defaults." + std::string(role) + "_by_material] " + material
+                             : "[pipes.defaults] " + std::string(role);
+    };
+    auto use_alt = [&] {
+      return alt ? std::string(name) + " = " + shown(*alt) + " from " + alt_from() + " is used"
+                 : (needed ? std::string(left_out) : std::string("it is ignored"));
+    };
     if (col >= 0) {
       const RawNumber raw = read_number(feature, col);
       if (raw.state != RawNumber::State::null) {
-        if (const auto v = checked_number(raw, ref.field, use_alt, who)) {
+        if (const auto v = checked_number_lazy(raw, ref.field, use_alt, who)) {
           const double si = units::to_si(*v, ref.unit);
           if (si >= lo && si <= hi) return si;
           who.add("DATA_IMPLAUSIBLE", alt || !needed ? Severity::warning : Severity::error, ref.field,
                   ref.field + " " + format_value(*v, ref.unit) + " is outside the plausible " + shown(lo) + " to " +
-                      shown(hi) + "; " + use_alt + ".",
+                      shown(hi) + "; " + use_alt() + ".",
                   si, si < lo ? lo : hi, is_ks ? Dimension::length : Dimension::dimensionless);
         }
       } else if (needed || alt) {
         who.add("DATA_MISSING", alt || !needed ? Severity::info : Severity::error, ref.field,
-                ref.field + " is empty; " + use_alt + ".");
+                ref.field + " is empty; " + use_alt() + ".");
       }
     } else if (needed && !alt) {
       const std::string no_default = "[pipes.defaults] has no " + std::string(role) + "; " + left_out + ".";
@@ -296,7 +296,9 @@ class PipeReader {
                                : "No " + std::string(name) + " for material \"" + material + "\" in [pipes.defaults." +
                                      std::string(role) + "_by_material] and " + no_default);
     }
-    if (alt && needed) tally(role, alt_from, who.id, [&] { return std::string(name) + " = " + shown(*alt) + " from " + alt_from; });
+    if (alt && needed)
+      tally(role, alt_by_material ? std::string_view(material) : std::string_view("default"), who.id,
+            [&] { return std::string(name) + " = " + shown(*alt) + " from " + alt_from(); });
     return alt;
   }
 
@@ -318,28 +320,28 @@ class PipeReader {
   void read_flow(OGRFeature& feature, model::Conduit& c, const FeatureRef& who) {
     if (col_.flow >= 0) {
       const RawNumber raw = read_number(feature, col_.flow);
-      const std::string none = "the pipe has no design flow";
+      const char* none = "the pipe has no design flow";
       if (raw.state == RawNumber::State::null) {
-        who.add("DATA_MISSING", Severity::warning, f_.flow.field, f_.flow.field + " is empty; " + none + ".");
+        who.add("DATA_MISSING", Severity::warning, f_.flow.field, f_.flow.field + " is empty; " + std::string(none) + ".");
       } else if (const auto v = checked_number(raw, f_.flow.field, none, who)) {
         const double si = units::to_si(*v, f_.flow.unit);
         if (si < 0.0)
           who.add("DATA_IMPLAUSIBLE", Severity::warning, f_.flow.field,
-                  f_.flow.field + " " + format_value(*v, f_.flow.unit) + " is negative; " + none + ".", si, 0.0,
+                  f_.flow.field + " " + format_value(*v, f_.flow.unit) + " is negative; " + std::string(none) + ".", si, 0.0,
                   Dimension::flow);
         else c.flow_m3_s = si;
       }
     }
     if (col_.split >= 0) {
       const RawNumber raw = read_number(feature, col_.split);
-      const std::string none = "the pipe has no split fraction";
+      const char* none = "the pipe has no split fraction";
       if (raw.state == RawNumber::State::null) {
         if (p_.split_rule == SplitRule::field)
-          who.add("DATA_MISSING", Severity::info, f_.split, f_.split + " is empty; " + none + ".");
+          who.add("DATA_MISSING", Severity::info, f_.split, f_.split + " is empty; " + std::string(none) + ".");
       } else if (const auto v = checked_number(raw, f_.split, none, who)) {
         if (*v < 0.0 || *v > 1.0)
           who.add("DATA_IMPLAUSIBLE", Severity::warning, f_.split,
-                  f_.split + " " + format_number(*v) + " is outside 0 to 1; " + none + ".", *v, *v < 0.0 ? 0.0 : 1.0);
+                  f_.split + " " + format_number(*v) + " is outside 0 to 1; " + std::string(none) + ".", *v, *v < 0.0 ? 0.0 : 1.0);
         else c.split_fraction = *v;
       }
     }
@@ -354,7 +356,6 @@ class PipeReader {
   const Project& p_;
   const PipeFields& f_;
   Columns col_;
-  std::unordered_map<std::string, std::int64_t> seen_;
 };
 
 bool box_possible(const Project& p) {
@@ -398,10 +399,12 @@ void check_pipe_mapping(const Project& p, const OpenLayer& l) {
 }
 
 void read_pipes(LayerRead& in, std::vector<model::Conduit>& out) {
-  PipeReader reader(in);
   OGRLayer& layer = *in.source.layer;
   const GIntBig count = layer.GetFeatureCount(FALSE);
-  if (count > 0) out.reserve(out.size() + static_cast<std::size_t>(count));
+  const std::size_t expected = count > 0 ? static_cast<std::size_t>(count) : 0;
+  out.reserve(out.size() + expected);
+  PipeReader reader(in);
+  const std::size_t first = out.size();
   GdalErrorCapture capture;
   std::size_t gdal_reported = 0;
   layer.ResetReading();
@@ -413,6 +416,11 @@ void read_pipes(LayerRead& in, std::vector<model::Conduit>& out) {
     report_gdal_messages(capture, LayerRole::conduits, c.id, in.findings, gdal_reported);
   }
   report_gdal_messages(capture, LayerRole::conduits, "", in.findings, gdal_reported);
+  std::vector<IdRef> ids;
+  ids.reserve(out.size() - first);
+  for (std::size_t i = first; i < out.size(); ++i) ids.push_back({out[i].id, out[i].fid});
+  report_duplicate_ids(ids, LayerRole::conduits, in.project.pipe_fields.id, "pipes",
+                       "so results under this id are ambiguous", in.findings);
 }
 
 }  // namespace rimline::io::detail

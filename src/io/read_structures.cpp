@@ -1,7 +1,7 @@
 // Structure layer -> model::Structure. A structure without a usable point is left out; every
 // other problem keeps the structure with the value unknown or defaulted, as its finding says.
-#include <unordered_map>
 
+#include "io/duplicate_ids.hpp"
 #include "io/read_layers.hpp"
 #include "io/value_checks.hpp"
 
@@ -38,7 +38,7 @@ std::optional<model::StructureKind> kind_of(const std::string& name) {
 
 class StructureReader {
  public:
-  StructureReader(LayerRead& in)
+  explicit StructureReader(LayerRead& in)
       : in_(in), p_(in.project), f_(in.project.structure_fields), col_(resolve(f_, in.source)) {
     size_limits_ = p_.plausibility;
     size_limits_.diameter_min_m = structure_diameter_min_m;
@@ -54,11 +54,6 @@ class StructureReader {
     if (col_.id >= 0 && !id)
       who.add("DATA_MISSING", Severity::warning, f_.id, f_.id + " is empty; the structure is reported as \"" + s.id + "\".");
     if (!read_location(feature, s, who)) return false;
-    const auto [it, fresh] = seen_.try_emplace(s.id, s.fid);
-    if (!fresh)
-      who.add("DATA_DUPLICATE_ID", Severity::warning, f_.id,
-              "The id \"" + s.id + "\" is also used by fid " + std::to_string(it->second) +
-                  "; both structures are kept, so pipes that name this id are ambiguous.");
     read_kind(feature, s, who);
     if (col_.rim >= 0) s.rim_m = checked_level(read_number(feature, col_.rim), f_.rim, "rim", p_.plausibility, who);
     if (col_.invert >= 0)
@@ -116,13 +111,17 @@ class StructureReader {
 
   void read_diameter(OGRFeature& feature, model::Structure& s, const FeatureRef& who) {
     const double fallback = p_.structure_defaults.diameter_m;
-    const std::string use_default = "the default diameter " + format_si(fallback, Dimension::length) + " is used";
+    auto use_default = [fallback] { return "the default diameter " + format_si(fallback, Dimension::length) + " is used"; };
     std::optional<double> d;
     if (col_.diameter >= 0) {
       const RawNumber raw = read_number(feature, col_.diameter);
       if (raw.state == RawNumber::State::null)
-        who.add("DATA_MISSING", Severity::info, f_.diameter.field, f_.diameter.field + " is empty; " + use_default + ".");
-      else d = checked_size(raw, f_.diameter, size_limits_, use_default, Severity::warning, who);
+        who.add("DATA_MISSING", Severity::info, f_.diameter.field, f_.diameter.field + " is empty; " + use_default() + ".");
+      else if (const double si = units::to_si(raw.value, f_.diameter.unit);
+               raw.state == RawNumber::State::number && si >= size_limits_.diameter_min_m &&
+               si <= size_limits_.diameter_max_m)
+        d = si;  // the common case, without building the message
+      else d = checked_size(raw, f_.diameter, size_limits_, use_default(), Severity::warning, who);
     }
     if (!d)
       in_.defaults.add(LayerRole::structures, "diameter", "default", s.id, [&] {
@@ -133,18 +132,19 @@ class StructureReader {
 
   void read_loss_and_inflow(OGRFeature& feature, model::Structure& s, const FeatureRef& who) {
     const auto fallback = p_.structure_defaults.loss_k;
-    const std::string use_default =
-        fallback ? "the default K " + format_number(*fallback) + " is used" : std::string("the method's K is used");
+    auto use_default = [&fallback] {
+      return fallback ? "the default K " + format_number(*fallback) + " is used" : std::string("the method's K is used");
+    };
     if (col_.loss_k >= 0) {
       const RawNumber raw = read_number(feature, col_.loss_k);
       if (raw.state == RawNumber::State::null)
-        who.add("DATA_MISSING", Severity::info, f_.loss_k, f_.loss_k + " is empty; " + use_default + ".");
-      else if (const auto k = checked_number(raw, f_.loss_k, use_default, who)) {
+        who.add("DATA_MISSING", Severity::info, f_.loss_k, f_.loss_k + " is empty; " + use_default() + ".");
+      else if (const auto k = checked_number_lazy(raw, f_.loss_k, use_default, who)) {
         if (*k >= 0.0 && *k <= loss_k_max) s.loss_k = *k;
         else
           who.add("DATA_IMPLAUSIBLE", Severity::warning, f_.loss_k,
                   f_.loss_k + " " + format_number(*k) + " is outside the plausible 0 to " + format_number(loss_k_max) +
-                      "; " + use_default + ".",
+                      "; " + use_default() + ".",
                   *k, *k < 0.0 ? 0.0 : loss_k_max);
       }
     }
@@ -155,13 +155,13 @@ class StructureReader {
     }
     if (col_.inflow >= 0) {
       const RawNumber raw = read_number(feature, col_.inflow);
-      const std::string none = "the structure has no local inflow";
+      const char* none = "the structure has no local inflow";
       if (const auto q = checked_number(raw, f_.inflow.field, none, who)) {
         const double si = units::to_si(*q, f_.inflow.unit);
         if (si >= 0.0) s.inflow_m3_s = si;
         else
           who.add("DATA_IMPLAUSIBLE", Severity::warning, f_.inflow.field,
-                  f_.inflow.field + " " + format_value(*q, f_.inflow.unit) + " is negative; " + none + ".", si, 0.0,
+                  f_.inflow.field + " " + format_value(*q, f_.inflow.unit) + " is negative; " + std::string(none) + ".", si, 0.0,
                   Dimension::flow);
       }
     }
@@ -172,7 +172,6 @@ class StructureReader {
   const StructureFields& f_;
   Columns col_;
   Plausibility size_limits_;
-  std::unordered_map<std::string, std::int64_t> seen_;
 };
 
 }  // namespace
@@ -182,10 +181,12 @@ void check_structure_mapping(const Project& project, const OpenLayer& source) {
 }
 
 void read_structures(LayerRead& in, std::vector<model::Structure>& out) {
-  StructureReader reader(in);
   OGRLayer& layer = *in.source.layer;
   const GIntBig count = layer.GetFeatureCount(FALSE);
-  if (count > 0) out.reserve(out.size() + static_cast<std::size_t>(count));
+  const std::size_t expected = count > 0 ? static_cast<std::size_t>(count) : 0;
+  out.reserve(out.size() + expected);
+  StructureReader reader(in);
+  const std::size_t first = out.size();
   GdalErrorCapture capture;
   std::size_t gdal_reported = 0;
   layer.ResetReading();
@@ -198,6 +199,11 @@ void read_structures(LayerRead& in, std::vector<model::Structure>& out) {
     if (!kept) out.pop_back();
   }
   report_gdal_messages(capture, LayerRole::structures, "", in.findings, gdal_reported);
+  std::vector<IdRef> ids;
+  ids.reserve(out.size() - first);
+  for (std::size_t i = first; i < out.size(); ++i) ids.push_back({out[i].id, out[i].fid});
+  report_duplicate_ids(ids, LayerRole::structures, in.project.structure_fields.id, "structures",
+                       "so pipes that name this id are ambiguous", in.findings);
 }
 
 }  // namespace rimline::io::detail

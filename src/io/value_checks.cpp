@@ -127,14 +127,17 @@ std::optional<double> checked_number(const RawNumber& raw, const std::string& fi
 
 std::optional<double> checked_level(const RawNumber& raw, const FieldRef& ref, std::string_view what,
                                     const Plausibility& limits, const FeatureRef& who, bool zero_is_placeholder) {
-  const std::string unknown = "the " + std::string(what) + " is unknown";
+  auto unknown_text = [what] { return "the " + std::string(what) + " is unknown"; };
   if (raw.state == RawNumber::State::null) {
-    who.add("DATA_MISSING", Severity::warning, ref.field, ref.field + " is empty; " + unknown + ".");
+    who.add("DATA_MISSING", Severity::warning, ref.field, ref.field + " is empty; " + unknown_text() + ".");
     return std::nullopt;
   }
-  const auto v = checked_number(raw, ref.field, unknown, who);
+  const auto v = checked_number_lazy(raw, ref.field, unknown_text, who);
   if (!v) return std::nullopt;
   const double si = units::to_si(*v, ref.unit);
+  const bool good = !(*v == 0.0 && zero_is_placeholder) && si < limits.invert_max_m && si >= limits.invert_min_m;
+  if (good) return si;
+  const std::string unknown = unknown_text();
   const auto L = units::Dimension::length;
   if (*v == 0.0 && zero_is_placeholder) {
     who.add("DATA_IMPLAUSIBLE", Severity::warning, ref.field,

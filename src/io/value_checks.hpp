@@ -56,4 +56,14 @@ std::optional<double> checked_size(const RawNumber& raw, const FieldRef& ref, co
 std::optional<double> checked_number(const RawNumber& raw, const std::string& field, std::string_view consequence,
                                      const FeatureRef& who, Severity severity = Severity::warning);
 
+// checked_number with the consequence built only when there is something to report, so the
+// common case (a good number) allocates nothing.
+template <typename MakeConsequence>
+std::optional<double> checked_number_lazy(const RawNumber& raw, const std::string& field, MakeConsequence&& make,
+                                          const FeatureRef& who, Severity severity = Severity::warning) {
+  if (raw.state == RawNumber::State::number) return raw.value;
+  if (raw.state == RawNumber::State::null) return std::nullopt;
+  return checked_number(raw, field, make(), who, severity);
+}
+
 }  // namespace rimline::io::detail
