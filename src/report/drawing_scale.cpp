@@ -69,6 +69,25 @@ std::string station_label(double station, units::System system, int decimals) {
   return buf;
 }
 
+std::vector<bool> thin_labels(const std::vector<double>& positions_mm, const std::vector<bool>& priority,
+                              double gap_mm) {
+  const std::size_t n = positions_mm.size();
+  std::vector<bool> drawn(n, false);
+  std::vector<double> placed;
+  auto fits = [&](double x) {
+    return std::all_of(placed.begin(), placed.end(), [&](double p) { return std::fabs(p - x) >= gap_mm - 1e-9; });
+  };
+  for (int pass = 0; pass < 2; ++pass) {
+    for (std::size_t i = 0; i < n; ++i) {
+      const bool first = i < priority.size() && priority[i];
+      if (drawn[i] || first != (pass == 0) || !fits(positions_mm[i])) continue;
+      drawn[i] = true;
+      placed.push_back(positions_mm[i]);
+    }
+  }
+  return drawn;
+}
+
 PlotFrame fit_frame(double x_lo, double x_hi, double y_lo, double y_hi, double metres_per_unit, double left_mm,
                     double top_mm, double max_width_mm, double height_mm) {
   PlotFrame f;

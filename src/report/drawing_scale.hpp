@@ -25,6 +25,11 @@ int decimals_for(double step);
 // stations). Whole units only below the plus; fractional values keep `decimals`.
 std::string station_label(double station, units::System system, int decimals = 0);
 
+// Which labels to draw along an axis so that no two drawn labels are closer than gap_mm:
+// priority labels first (in order), then the others left to right where they fit.
+std::vector<bool> thin_labels(const std::vector<double>& positions_mm, const std::vector<bool>& priority,
+                              double gap_mm);
+
 // A plot box on paper and the world window it shows (world = report length units, x the
 // station, y the elevation). Paper y grows downwards.
 struct PlotFrame {

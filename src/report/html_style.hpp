@@ -24,7 +24,7 @@ th { background: #eceae4; font-weight: bold; }
 table.kv td:first-child { color: var(--muted); width: 13em; }
 code { font-family: "DejaVu Sans Mono", "Liberation Mono", monospace; font-size: 12px; }
 code.hash { word-break: break-all; }
-.used { display: inline-block; border: 1px solid var(--accent); color: var(--accent); padding: 0 5px; border-radius: 3px; }
+.used { display: inline-block; white-space: nowrap; border: 1px solid var(--accent); color: var(--accent); padding: 0 5px; border-radius: 3px; }
 table.findings { width: 100%; }
 table.findings td:nth-child(5), table.findings td:nth-child(6) { font-variant-numeric: tabular-nums; text-align: right; }
 tr.group th { font-size: 13px; text-transform: uppercase; letter-spacing: 0.06em; background: #fff; border-bottom: 2px solid var(--ink); }

@@ -17,6 +17,8 @@ constexpr double list_gap = 3.0;
 constexpr double list_row_h = 3.2;
 constexpr double headroom_mm = 20.0;  // structure ids above the highest rim
 constexpr double char_w = 0.55;       // average glyph width / size for a sans font (common practice, no source)
+constexpr double label_gap_mm = 2.6;  // rotated 2.2 mm text plus a little air
+constexpr int max_stack = 4;          // markers drawn at one station; the rest are counted
 
 const Rgb black{0, 0, 0};
 const Rgb grid_grey{0.82, 0.82, 0.82};
@@ -80,6 +82,9 @@ void draw_legend(const ProfileScene& s, const PlotFrame& f, const Panel& p, Canv
     c.text({x + 4.0, y}, name, t);
     x += 6.0 + text_width(name, 2.2);
   }
+  c.polygon({{x, y - 3.0}, {x + 2.0, y - 3.0}, {x + 2.0, y + 1.0}, {x, y + 1.0}}, Rgb{1, 1, 1},
+            Pen{0.3, {0.8, 0.6}, black});
+  c.text({x + 3.5, y}, "structure, rim unknown", t);
   c.text({p.left_mm + p.width_mm, y}, scale_text(f), TextStyle{2.2, Anchor::end, true, 0.0, black});
   c.end_group();
 }
@@ -132,28 +137,56 @@ void draw_line(const SceneLine& line, const PlotFrame& f, Canvas& c, const std::
   c.end_group();
 }
 
-void draw_structures(const ProfileScene& s, const PlotFrame& f, Canvas& c) {
+// Structures whose ids and band values are drawn: the outfall, the head and those with a
+// finding first, then the rest where a rotated label still fits beside its neighbours.
+std::vector<bool> labelled_structures(const ProfileScene& s, const PlotFrame& f) {
+  std::vector<double> x;
+  std::vector<bool> priority;
+  for (std::size_t i = 0; i < s.structures.size(); ++i) {
+    const auto& st = s.structures[i];
+    x.push_back(f.px(st.station));
+    const bool flagged = std::any_of(s.markers.begin(), s.markers.end(), [&](const SceneMarker& m) {
+      return m.feature_id == st.id && m.severity != Severity::info;
+    });
+    priority.push_back(i == 0 || i + 1 == s.structures.size() || flagged);
+  }
+  return thin_labels(x, priority, label_gap_mm);
+}
+
+void draw_structures(const ProfileScene& s, const PlotFrame& f, const std::vector<bool>& labelled, Canvas& c) {
   c.begin_group("structures", "");
-  for (const auto& st : s.structures) {
+  for (std::size_t i = 0; i < s.structures.size(); ++i) {
+    const auto& st = s.structures[i];
     const double px = f.px(st.station);
-    const double bottom = std::isfinite(st.invert) ? st.invert : f.y0;
+    const double bottom = std::isfinite(st.bottom) ? st.bottom : f.y0;
     const bool rim_known = std::isfinite(st.rim);
-    const double top = rim_known ? st.rim : std::max(bottom, f.y0 + 0.6 * (f.y1 - f.y0));
+    // Without a rim the structure is drawn as a dashed stub above the highest crown it meets.
+    const double crown = std::isfinite(st.crown) ? st.crown : bottom;
+    const double top_mm = rim_known ? f.py(st.rim) : f.py(crown) - 6.0;
     const double w = st.outfall ? 1.6 : 1.0;
-    const std::vector<Pt> box{{px - w, f.py(top)}, {px + w, f.py(top)}, {px + w, f.py(bottom)}, {px - w, f.py(bottom)}};
-    c.polygon(box, Rgb{1, 1, 1}, Pen{st.outfall ? 0.45 : 0.3, rim_known ? std::vector<double>{} : std::vector<double>{0.8, 0.6}, black});
-    std::string label = st.id + (st.outfall ? " (outfall)" : "") + (rim_known ? "" : " (rim unknown)");
-    c.text({px + 0.8, f.py(top) - 1.5}, label, TextStyle{2.2, Anchor::start, true, 90.0, black});
+    const std::vector<Pt> box{{px - w, top_mm}, {px + w, top_mm}, {px + w, f.py(bottom)}, {px - w, f.py(bottom)}};
+    c.polygon(box, Rgb{1, 1, 1},
+              Pen{st.outfall ? 0.45 : 0.3, rim_known ? std::vector<double>{} : std::vector<double>{0.8, 0.6}, black});
+    if (!labelled[i]) continue;
+    const std::string label = st.id + (st.outfall ? " (outfall)" : "");
+    c.text({px + 0.8, top_mm - 1.5}, label, TextStyle{2.2, Anchor::start, true, 90.0, black});
   }
   c.end_group();
 }
 
 void draw_markers(const ProfileScene& s, const PlotFrame& f, Canvas& c) {
-  std::map<long, int> stacked;  // markers at one station stack upwards
+  std::map<long, int> stacked;  // markers at one station stack upwards, at most max_stack deep
+  std::map<long, int> hidden;
+  std::map<long, Pt> top;
   for (const auto& m : s.markers) {
     const long key = std::lround(f.px(m.station) * 2.0);
     const int k = stacked[key]++;
+    if (k >= max_stack) {
+      ++hidden[key];
+      continue;
+    }
     const Pt at{f.px(m.station) + 3.0, f.py(m.elevation) - 3.0 - 4.0 * k};
+    top[key] = at;
     c.begin_group(std::string("finding finding-") + std::string(severity_name(m.severity)),
                   m.code + " " + m.feature_id + ": " + m.text);
     c.polyline({{f.px(m.station), f.py(m.elevation)}, {at.x, at.y + 1.5}}, Pen{0.15, {}, label_grey});
@@ -161,9 +194,14 @@ void draw_markers(const ProfileScene& s, const PlotFrame& f, Canvas& c) {
     c.text({at.x + 2.0, at.y + 0.9}, std::to_string(m.number), TextStyle{2.2, Anchor::start, true, 0.0, black});
     c.end_group();
   }
+  for (const auto& [key, n] : hidden) {
+    const Pt at = top[key];
+    c.text({at.x - 1.5, at.y - 2.8}, "+" + std::to_string(n), TextStyle{2.0, Anchor::start, true, 0.0, black});
+  }
 }
 
-void draw_band(const ProfileScene& s, const PlotFrame& f, const Panel& p, Canvas& c) {
+void draw_band(const ProfileScene& s, const PlotFrame& f, const Panel& p, const std::vector<bool>& labelled,
+               Canvas& c) {
   const double top = f.top_mm + f.height_mm + station_row_h;
   const double right = f.left_mm + f.width_mm;
   const TextStyle name{2.2, Anchor::start, true, 0.0, black};
@@ -178,16 +216,23 @@ void draw_band(const ProfileScene& s, const PlotFrame& f, const Panel& p, Canvas
   c.text({p.left_mm, top + 3 * value_row_h + 6.0}, "Pipe", name);
   const double bottom = top + 3 * value_row_h + pipe_row_h;
   c.polyline({{p.left_mm, bottom}, {right, bottom}}, Pen{0.15, {}, black});
-  for (const auto& st : s.structures) {
+  for (std::size_t i = 0; i < s.structures.size(); ++i) {
+    if (!labelled[i]) continue;
+    const auto& st = s.structures[i];
     const double px = f.px(st.station) + 0.7;
     const double v[] = {st.rim, st.invert, st.hgl};
     for (int r = 0; r < 3; ++r) c.text({px, top + (r + 1) * value_row_h - 1.0}, fixed(v[r], 3), value);
   }
-  for (const auto& pp : s.pipes) {
-    const double mid = f.px(0.5 * (pp.station_down + pp.station_up));
+  // A pipe's two rotated lines need about two label gaps of width.
+  std::vector<double> mids;
+  for (const auto& pp : s.pipes) mids.push_back(f.px(0.5 * (pp.station_down + pp.station_up)));
+  const auto pipe_drawn = thin_labels(mids, {}, 2.0 * label_gap_mm);
+  for (std::size_t i = 0; i < s.pipes.size(); ++i) {
+    if (!pipe_drawn[i]) continue;
+    const auto& pp = s.pipes[i];
     const double y = top + 3 * value_row_h + pipe_row_h - 1.0;
-    c.text({mid - 0.3, y}, clip_text(pp.id, 1.7, pipe_row_h - 2.0), TextStyle{1.7, Anchor::start, true, 90.0, black});
-    c.text({mid + 2.0, y}, clip_text(pp.size_text + " " + pp.slope_text, 1.7, pipe_row_h - 2.0),
+    c.text({mids[i] - 0.3, y}, clip_text(pp.id, 1.7, pipe_row_h - 2.0), TextStyle{1.7, Anchor::start, true, 90.0, black});
+    c.text({mids[i] + 2.0, y}, clip_text(pp.size_text + " " + pp.slope_text, 1.7, pipe_row_h - 2.0),
            TextStyle{1.7, Anchor::start, false, 90.0, black});
   }
   c.end_group();
@@ -273,11 +318,12 @@ PlotFrame draw_profile(const ProfileScene& scene, const Panel& panel, Canvas& ca
   draw_line(scene.line(Stroke::freeboard), f, canvas, "freeboard");
   draw_line(scene.line(Stroke::crown), f, canvas, "crown");
   draw_line(scene.line(Stroke::invert), f, canvas, "invert");
-  draw_structures(scene, f, canvas);
+  const auto labelled = labelled_structures(scene, f);
+  draw_structures(scene, f, labelled, canvas);
   draw_line(scene.line(Stroke::egl), f, canvas, "egl");
   draw_line(scene.line(Stroke::hgl), f, canvas, "hgl");
   draw_markers(scene, f, canvas);
-  draw_band(scene, f, panel, canvas);
+  draw_band(scene, f, panel, labelled, canvas);
   draw_finding_list(scene, f, panel, canvas);
   return f;
 }

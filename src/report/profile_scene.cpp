@@ -84,7 +84,7 @@ ProfileScene build_scene(const run::CheckRun& run, const ProfilePath& path, std:
     const auto& st = net.structures[si];
     const auto& r = kase.march.structures[si];
     SceneStructure ss{st.id, cv(path.station_m[i]), cv(st.rim_m.value_or(nan)), cv(st.invert_m.value_or(nan)),
-                      r.solved ? cv(r.hgl_m) : nan, i == 0};
+                      r.solved ? cv(r.hgl_m) : nan, nan, nan, i == 0};
     extend(s, ss.rim);
     extend(s, ss.invert);
     extend(s, ss.hgl);
@@ -107,6 +107,21 @@ ProfileScene build_scene(const run::CheckRun& run, const ProfilePath& path, std:
     extend(s, p.invert_up + p.rise);
     extend(s, p.invert_down + p.rise);
     s.pipes.push_back(p);
+  }
+
+  // Where a structure's own levels are missing, the pipes meeting it still place it.
+  for (std::size_t i = 0; i < s.structures.size(); ++i) {
+    auto& st = s.structures[i];
+    double low = st.invert, high = nan;
+    auto meet = [&](double invert, double rise) {
+      if (!std::isfinite(invert)) return;
+      low = std::isfinite(low) ? std::min(low, invert) : invert;
+      high = std::isfinite(high) ? std::max(high, invert + rise) : invert + rise;
+    };
+    if (i > 0) meet(s.pipes[i - 1].invert_up, s.pipes[i - 1].rise);
+    if (i < s.pipes.size()) meet(s.pipes[i].invert_down, s.pipes[i].rise);
+    st.bottom = std::isfinite(st.invert) ? st.invert : low;
+    st.crown = high;
   }
 
   // Ground and freeboard lines join the rims; inverts and crowns follow each pipe.
@@ -176,7 +191,12 @@ std::vector<SceneMarker> place_findings(const ProfileScene& scene, const Finding
                                    [&](const SceneStructure& s) { return s.id == f.feature_id; });
       if (it == scene.structures.end()) continue;
       m.station = it->station;
-      m.elevation = std::isfinite(it->hgl) ? it->hgl : std::isfinite(it->rim) ? it->rim : it->invert;
+      for (double v : {it->hgl, it->rim, it->crown, it->bottom}) {
+        if (std::isfinite(v)) {
+          m.elevation = v;
+          break;
+        }
+      }
     } else if (f.layer == LayerRole::conduits || f.layer == LayerRole::force_mains) {
       const auto it = std::find_if(scene.pipes.begin(), scene.pipes.end(),
                                    [&](const ScenePipe& p) { return p.id == f.feature_id; });

@@ -29,6 +29,8 @@ struct SceneStructure {
   double rim = 0.0;     // NaN when unknown
   double invert = 0.0;  // NaN when unknown
   double hgl = 0.0;     // NaN when not solved
+  double bottom = 0.0;  // invert, else the lowest pipe invert there; NaN when neither is known
+  double crown = 0.0;   // highest crown of the pipes there; NaN when none is known
   bool outfall = false;
 };
 

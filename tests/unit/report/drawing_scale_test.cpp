@@ -66,3 +66,15 @@ TEST_CASE("a frame at preferred scales fits the data", "[report][scale]") {
   CHECK(us.vertical_n == Approx(125.0));
   CHECK(us.width_mm == Approx(400.0));
 }
+
+TEST_CASE("label thinning keeps priority labels and spaces the rest", "[report][scale]") {
+  // Positions in mm; gap 2.6 mm. Priority: the first and the last.
+  const std::vector<double> x{0.0, 1.0, 2.0, 3.0, 4.0, 5.0, 10.0};
+  const auto drawn = thin_labels(x, {true, false, false, false, false, false, true}, 2.6);
+  CHECK(drawn == std::vector<bool>{true, false, false, true, false, false, true});
+  // A priority label wins over an earlier ordinary one next to it.
+  const auto d2 = thin_labels({0.0, 1.0}, {false, true}, 2.6);
+  CHECK(d2 == std::vector<bool>{false, true});
+  // Far apart: all drawn.
+  CHECK(thin_labels({0.0, 5.0, 10.0}, {}, 2.6) == std::vector<bool>{true, true, true});
+}
