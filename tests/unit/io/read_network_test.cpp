@@ -261,7 +261,7 @@ TEST_CASE("a CSV with WKT geometry, text numbers and no CRS", "[io][read]") {
   const auto dir = test::fresh_dir("csv");
   {
     std::ofstream csv(dir / "pipes.csv");
-    csv << "WKT,ID,DIA\n\"LINESTRING (0 0,3 4)\",a,375\n\"LINESTRING (3 4,6 8)\",b,abc\n";
+    csv << "WKT,ID,DIA\n\"LINESTRING (0 0,3 4)\",a,375\n\"LINESTRING (3 4,6 8)\",b,abc\n\"LINESTRING (6 8,9 12)\",c,inf\n";
   }
   const std::string text = "[pipes]\nsource = \"pipes.csv\"\n[pipes.fields]\nid = \"ID\"\n"
                            "diameter = { field = \"DIA\", unit = \"mm\" }\n[pipes.defaults]\nmanning_n = 0.013\n";
@@ -276,12 +276,37 @@ TEST_CASE("a CSV with WKT geometry, text numbers and no CRS", "[io][read]") {
                                        "its coordinates are in");
   }
   const io::ReadResult r = io::read_network(io::parse_project("[project]\ncrs = \"EPSG:28355\"\n" + text, run));
-  REQUIRE(r.network.conduits.size() == 2);
+  REQUIRE(r.network.conduits.size() == 3);
   CHECK(r.network.conduits[0].geometry_length_m == 5.0);
   CHECK(r.network.conduits[0].section.diameter_m == Approx(0.375).epsilon(1e-15));
   CHECK(r.network.crs_description == "GDA94 / MGA zone 55");
-  REQUIRE(r.findings.size() == 1);
+  REQUIRE(r.findings.size() == 2);
   CHECK(r.findings[0].feature_id == "b");
   CHECK(r.findings[0].message == "DIA holds \"abc\", which is not a number; the pipe is left out of the analysis.");
+  CHECK(r.findings[0].severity == Severity::error);
+  CHECK(r.findings[1].feature_id == "c");
+  CHECK(r.findings[1].message == "DIA is not a finite number; the pipe is left out of the analysis.");
   CHECK_FALSE(r.network.conduits[1].usable);
+  CHECK_FALSE(r.network.conduits[2].usable);
+}
+
+TEST_CASE("GDAL's own complaints while reading become findings, not stderr", "[io][read]") {
+  const auto dir = test::fresh_dir("gdal_messages");
+  const auto path = test::write_layer(dir / "p.gpkg", "GPKG", "p", 32755, wkbLineString, {{"ID", OFTString}},
+                                      {{"LINESTRING (0 0,10 0)", {"a"}}, {"LINESTRING (10 0,20 0)", {"b"}}});
+  {  // a geometry blob GDAL cannot decode: the GPKG header and then garbage
+    GDALDatasetUniquePtr ds(GDALDataset::Open(path.c_str(), GDAL_OF_VECTOR | GDAL_OF_UPDATE));
+    REQUIRE(ds);
+    ds->ExecuteSQL("UPDATE p SET geom = X'4750000100000000ffff' WHERE fid = 1", nullptr, nullptr);
+  }
+  const io::ReadResult r = io::read_network(io::parse_project(
+      "[pipes]\nsource = \"p.gpkg\"\n[pipes.fields]\nid = \"ID\"\n[pipes.defaults]\ndiameter = \"300 mm\"\n"
+      "manning_n = 0.013\n",
+      (dir / "run.toml").string()));
+  REQUIRE(r.network.conduits.size() == 2);
+  const auto f = by_feature(r.findings);
+  CHECK(f.at("a") == std::vector<std::string>{"DATA_GEOMETRY The pipe has no geometry; it is left out of the analysis.",
+                                              "DATA_SOURCE GDAL reported: Unable to read geometry"});
+  CHECK(f.count("b") == 0);
+  CHECK(r.network.conduits[1].usable);
 }

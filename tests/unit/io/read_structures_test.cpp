@@ -1,5 +1,6 @@
 #include <catch2/catch.hpp>
 
+#include <fstream>
 #include <map>
 
 #include "layer_fixture.hpp"
@@ -93,4 +94,37 @@ loss_k = 0.5
     if (d.layer == LayerRole::structures) notes[d.text] = d.count;
   CHECK(notes == std::map<std::string, std::size_t>{{"diameter 1.2 m from [structures.defaults] diameter", 1},
                                                     {"K 0.5 from [structures.defaults] loss_k", 2}});
+}
+
+TEST_CASE("structures from a CSV with X/Y columns, placed by the project's crs", "[io][read][structures]") {
+  const auto dir = test::fresh_dir("structures_csv");
+  test::write_layer(dir / "p.gpkg", "GPKG", "p", 28355, wkbLineString, {{"ID", OFTString}},
+                    {{"LINESTRING (320000 5810000,320100 5810000)", {"a"}}});
+  {
+    std::ofstream csv(dir / "mh.csv");
+    csv << "MH,X,Y,RIM\nM1,320000,5810000,12.5\nM2,320100,5810000,\n";
+  }
+  const std::string text = R"(
+[pipes]
+source = "p.gpkg"
+[pipes.defaults]
+diameter = "300 mm"
+manning_n = 0.013
+[structures]
+source = "mh.csv"
+open_options = ["X_POSSIBLE_NAMES=X", "Y_POSSIBLE_NAMES=Y"]
+[structures.fields]
+id = "MH"
+rim = { field = "RIM", unit = "m" }
+)";
+  const auto run = (dir / "run.toml").string();
+  const io::ReadResult r = io::read_network(io::parse_project("[project]\ncrs = \"EPSG:28355\"\n" + text, run));
+  REQUIRE(r.network.structures.size() == 2);
+  CHECK(r.network.structures[1].location.x == 320100.0);
+  CHECK(*r.network.structures[0].rim_m == 12.5);  // a text column holding a number
+  REQUIRE(r.findings.size() == 1);
+  CHECK(r.findings[0].message == "RIM is empty; the rim is unknown.");
+  CHECK_THROWS_WITH(io::read_network(io::parse_project("[project]\ncrs = \"EPSG:\"\n" + text, run)),
+                    Catch::Matchers::StartsWith((dir / "mh.csv").string() +
+                                                ":mh: the project's crs \"EPSG:\" is not a CRS GDAL/PROJ knows: "));
 }
