@@ -17,6 +17,11 @@ Topology build_topology(model::Network& network, const TopologyOptions& options,
   topology.turned_conduits = orient_conduits(network, connection, options, findings);
   report_zero_length(network, options, findings);
   build_march_order(network, topology, findings);
+  // A pipe left out for a loop is out for a data problem, which is what usable = false means
+  // (network.hpp); clearing it lets every later stage that filters on usable skip it too.
+  for (std::size_t i = 0; i < network.conduits.size(); ++i)
+    if (topology.status[i] == MarchStatus::self_loop || topology.status[i] == MarchStatus::loop_cut)
+      network.conduits[i].usable = false;
   report_parallels(network, topology, findings);
   compute_structure_geometry(network, topology);
   return topology;

@@ -9,12 +9,14 @@ NetworkSummary summarize(const model::Network& network, const Topology& topology
   s.conduits = network.conduits.size();
   for (std::size_t i = 0; i < network.conduits.size(); ++i) {
     const model::Conduit& c = network.conduits[i];
-    s.usable_conduits += c.usable;
     s.total_length_m += c.length_m;
+    bool cut = false;
     if (i < topology.status.size()) {
       s.loops_cut += topology.status[i] == MarchStatus::loop_cut;
       s.self_loops += topology.status[i] == MarchStatus::self_loop;
+      cut = topology.status[i] == MarchStatus::loop_cut || topology.status[i] == MarchStatus::self_loop;
     }
+    s.usable_conduits += c.usable || cut;
     if (i < topology.conduit_tree.size()) s.marched_conduits += topology.conduit_tree[i] != model::no_index;
   }
   s.turned_conduits = topology.turned_conduits;

@@ -115,8 +115,9 @@ struct Topology {
 };
 
 // Completes the network in place (from/to indices and ids, orientation, derived structures
-// appended to Network::structures) and returns the topology. Never throws for data
-// problems; they are appended to findings.
+// appended to Network::structures; Conduit::usable cleared for self-loops and loop cuts, so
+// a stage that filters on usable and from/to leaves out exactly what the trees leave out)
+// and returns the topology. Never throws for data problems; they are appended to findings.
 Topology build_topology(model::Network& network, const TopologyOptions& options, Findings& findings);
 
 }  // namespace rimline::topology

@@ -20,7 +20,7 @@ struct NetworkSummary {
   std::size_t structures = 0;          // including derived ones
   std::size_t derived_structures = 0;  // kind derived
   std::size_t conduits = 0;
-  std::size_t usable_conduits = 0;     // Conduit::usable
+  std::size_t usable_conduits = 0;     // usable as read (before loop cuts and self-loops)
   std::size_t marched_conduits = 0;    // in a tree
   std::size_t loops_cut = 0;
   std::size_t self_loops = 0;

@@ -120,6 +120,8 @@ TEST_CASE("a loop is reported at the pipe that closes it and cut so the march en
         "march ends");
   CHECK(t.status[g.c("CA")] == MarchStatus::loop_cut);
   CHECK(t.conduit_tree[g.c("CA")] == no_index);
+  CHECK_FALSE(g.n.conduits[g.c("CA")].usable);  // later stages filter on usable
+  CHECK(g.n.conduits[g.c("AB")].usable);
   REQUIRE(t.trees.size() == 1);  // a piece without an outfall gets one where the loop is cut
   CHECK(t.trees[0].outfall == g.s("C"));
   CHECK(t.trees[0].structures == std::vector<std::size_t>{g.s("C"), g.s("B"), g.s("A")});
@@ -201,6 +203,7 @@ TEST_CASE("a zero-length pipe between two structures is reported and marched; on
   CHECK(zero[0]->value == 0.0);
   CHECK(t.status[g.c("Z")] == MarchStatus::marched);
   CHECK(t.status[g.c("SELF")] == MarchStatus::self_loop);
+  CHECK_FALSE(g.n.conduits[g.c("SELF")].usable);
   REQUIRE(with_code(fs, "TOPOLOGY_SELF_LOOP").size() == 1);
   CHECK(with_code(fs, "TOPOLOGY_SELF_LOOP")[0]->message ==
         "pipe SELF starts and ends at structure S3; it is left out of the march");
