@@ -82,6 +82,11 @@ OpenLayer open_layer(const LayerSource& src, const std::string& role) {
   if (ds.GetLayerCount() == 0)
     throw Error(ErrorKind::bad_input, ErrorContext{out.source, "", "", ""}, "the " + role + " source has no layers");
   if (src.layer.empty()) {
+    // With several layers, taking the first would silently depend on the file's internal order.
+    if (ds.GetLayerCount() > 1)
+      throw Error(ErrorKind::bad_config, ErrorContext{out.source, "", "", ""},
+                  "the " + role + " source has " + std::to_string(ds.GetLayerCount()) + " layers (" +
+                      quoted_list(layer_names(ds)) + "); name one with layer = \"...\" in [" + role + "]");
     out.layer = ds.GetLayer(0);
   } else {
     out.layer = ds.GetLayerByName(src.layer.c_str());

@@ -1,5 +1,7 @@
 #include "rimline/io/read_network.hpp"
 
+#include <algorithm>
+
 #include "io/read_layers.hpp"
 #include "io/run_crs.hpp"
 
@@ -52,7 +54,9 @@ ReadResult read_network(const Project& project) {
     LayerRead structure_read{project, structures, Placement{to_run.get(), crs.metres_per_unit, crs.z_metres_per_unit},
                              result.findings, defaults};
     read_structures(structure_read, result.network.structures);
-    result.input_files.insert(result.input_files.end(), structures.files.begin(), structures.files.end());
+    for (const auto& f : structures.files)  // both layers may live in one file
+      if (std::find(result.input_files.begin(), result.input_files.end(), f) == result.input_files.end())
+        result.input_files.push_back(f);
   }
   result.defaults_used = defaults.take();
   return result;

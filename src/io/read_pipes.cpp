@@ -99,8 +99,7 @@ class PipeReader {
         who.add("DATA_GEOMETRY", Severity::error, "",
                 "The " + g.type_name + " has " + std::to_string(g.parts) +
                     " parts that do not join end to end within the snap tolerance of " +
-                    format_fixed(p_.snap_tolerance_m, 3) + " m (gap " + format_fixed(g.gap_m, 3) +
-                    " m); the pipe is left out of the analysis.",
+                    q(p_.snap_tolerance_m, L) + " (gap " + q(g.gap_m, L) + "); the pipe is left out of the analysis.",
                 g.gap_m, p_.snap_tolerance_m, L);
         c.usable = false;
         break;
@@ -126,7 +125,7 @@ class PipeReader {
   void read_length(OGRFeature& feature, model::Conduit& c, const FeatureRef& who) {
     c.length_m = c.geometry_length_m;
     if (col_.length < 0) return;
-    auto use_geometry = [&c] { return "the geometry length " + format_fixed(c.geometry_length_m, 3) + " m is used"; };
+    auto use_geometry = [&c] { return "the geometry length " + q(c.geometry_length_m, Dimension::length) + " is used"; };
     const RawNumber raw = read_number(feature, col_.length);
     if (raw.state == RawNumber::State::null) {
       who.add("DATA_MISSING", Severity::info, f_.length.field, f_.length.field + " is empty; " + use_geometry() + ".");
@@ -148,8 +147,8 @@ class PipeReader {
     const double tol = p_.plausibility.length_tolerance;
     if (std::abs(si / c.geometry_length_m - 1.0) > tol) {
       who.add("DATA_IMPLAUSIBLE", Severity::warning, f_.length.field,
-              shown() + " differs from the geometry length " + format_fixed(c.geometry_length_m, 3) +
-                  " m by more than " + format_fixed(tol * 100.0, 1) + " %; the geometry length is used.",
+              shown() + " differs from the geometry length " + q(c.geometry_length_m, Dimension::length) +
+                  " by more than " + format_fixed(tol * 100.0, 1) + " %; the geometry length is used.",
               si, c.geometry_length_m, Dimension::length);
       return;
     }
@@ -190,6 +189,12 @@ class PipeReader {
   // A required size: null -> the default (if any) or DATA_MISSING; bad values -> DATA_IMPLAUSIBLE.
   std::optional<double> read_size(OGRFeature& feature, int col, const FieldRef& ref, std::optional<double> fallback,
                                   std::string_view role, const FeatureRef& who) {
+    if (col < 0 && !fallback) {
+      who.add("DATA_MISSING", Severity::error, "",
+              "No " + std::string(role) + " field is mapped and [pipes.defaults] has no " + std::string(role) + "; " +
+                  left_out + ".");
+      return std::nullopt;
+    }
     if (col < 0) {
       tally(role, "default", who.id, [&] { return std::string(role) + " " + format_si(*fallback, Dimension::length) + " from [pipes.defaults] " + std::string(role) + " (no field mapped)"; });
       return fallback;
@@ -198,8 +203,8 @@ class PipeReader {
     if (raw.state == RawNumber::State::null) {
       if (fallback) {
         who.add("DATA_MISSING", Severity::info, ref.field,
-                ref.field + " is empty; the default " + std::string(role) + " " +
-                    format_si(*fallback, Dimension::length) + " is used.");
+                ref.field + " is empty; the default " + std::string(role) + " " + q(*fallback, Dimension::length) +
+                    " is used.");
         tally(role, "default", who.id, [&] { return std::string(role) + " " + format_si(*fallback, Dimension::length) + " from [pipes.defaults] " + std::string(role); });
         return fallback;
       }

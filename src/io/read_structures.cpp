@@ -111,7 +111,7 @@ class StructureReader {
 
   void read_diameter(OGRFeature& feature, model::Structure& s, const FeatureRef& who) {
     const double fallback = p_.structure_defaults.diameter_m;
-    auto use_default = [fallback] { return "the default diameter " + format_si(fallback, Dimension::length) + " is used"; };
+    auto use_default = [fallback] { return "the default diameter " + q(fallback, Dimension::length) + " is used"; };
     std::optional<double> d;
     if (col_.diameter >= 0) {
       const RawNumber raw = read_number(feature, col_.diameter);

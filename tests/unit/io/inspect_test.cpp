@@ -146,6 +146,13 @@ TEST_CASE("US-unit names and values are recognised", "[io][inspect]") {
   CHECK(r.network.conduits[1].section.diameter_m == Approx(18 * 0.0254).epsilon(1e-15));
   REQUIRE(r.network.structures.size() == 1);
   CHECK(*r.network.structures[0].rim_m == Approx(60.0 * 1200.0 / 3937.0).epsilon(1e-15));
+  CHECK(r.input_files == std::vector<std::string>{(dir / "net.gpkg").string()});  // one file, listed once
+  // Without a layer name, a source of two layers is ambiguous.
+  CHECK_THROWS_WITH(io::read_network(io::parse_project("[pipes]\nsource = \"net.gpkg\"\n[pipes.defaults]\n"
+                                                       "diameter = \"1 m\"\nmanning_n = 0.013\n",
+                                                       (dir / "run.toml").string())),
+                    (dir / "net.gpkg").string() +
+                        ": the pipes source has 2 layers (\"mains\", \"manholes\"); name one with layer = \"...\" in [pipes]");
 }
 
 TEST_CASE("inspecting a source that is not there is an input error", "[io][inspect]") {

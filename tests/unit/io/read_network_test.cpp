@@ -2,6 +2,7 @@
 
 #include <catch2/catch.hpp>
 
+#include <algorithm>
 #include <cmath>
 #include <fstream>
 #include <map>
@@ -15,10 +16,10 @@ using rimline::test::Row;
 
 namespace {
 
-// Messages of the findings, by feature id, in the order produced.
+// Messages of the findings (quantities rendered in SI), by feature id, in the order produced.
 std::map<std::string, std::vector<std::string>> by_feature(const Findings& findings) {
   std::map<std::string, std::vector<std::string>> out;
-  for (const auto& f : findings) out[f.feature_id].push_back(f.code + " " + f.message);
+  for (const auto& f : findings) out[f.feature_id].push_back(f.code + " " + render_message(f.message, units::System::si));
   return out;
 }
 
@@ -105,8 +106,8 @@ TEST_CASE("each data problem of a pipe becomes one finding with a fixed message"
   CHECK(f.at("zero_dia") == V{"DATA_IMPLAUSIBLE DIA_MM 0 mm is not a positive size; the pipe is left out of the analysis."});
   CHECK(f.at("null_dia") == V{"DATA_MISSING DIA_MM is empty; the pipe is left out of the analysis."});
   CHECK(f.at("bad_n") == V{"DATA_IMPLAUSIBLE N 0.13 is outside the plausible 0.008 to 0.05; n = 0.013 from [pipes.defaults] manning_n is used."});
-  CHECK(f.at("long") == V{"DATA_IMPLAUSIBLE LEN 150 m differs from the geometry length 100 m by more than 20 %; the geometry length is used."});
-  CHECK(f.at("zero_len") == V{"DATA_IMPLAUSIBLE LEN 0 m is not positive; the geometry length 100 m is used."});
+  CHECK(f.at("long") == V{"DATA_IMPLAUSIBLE LEN 150 m differs from the geometry length 100.000 m by more than 20 %; the geometry length is used."});
+  CHECK(f.at("zero_len") == V{"DATA_IMPLAUSIBLE LEN 0 m is not positive; the geometry length 100.000 m is used."});
   CHECK(f.at("no_geom") == V{"DATA_GEOMETRY The pipe has no geometry; it is left out of the analysis."});
   CHECK(f.at("point") == V{"DATA_GEOMETRY The geometry is a POINT, not a line; the pipe is left out of the analysis."});
   CHECK(f.at("degenerate") == V{"DATA_GEOMETRY The line has zero length; the pipe is left out of the analysis."});
@@ -115,10 +116,20 @@ TEST_CASE("each data problem of a pipe becomes one finding with a fixed message"
   CHECK(f.at("fid 16") == V{"DATA_MISSING ID is empty; the pipe is reported as \"fid 16\"."});
   CHECK(f.at("egg") == V{"DATA_IMPLAUSIBLE SHAPE \"EGG\" is not listed in [pipes.shapes]; the pipe is left out of the analysis."});
   CHECK(f.at("merged") == V{"DATA_GEOMETRY The MULTILINESTRING's 2 parts join end to end and were merged into one line.",
-                            "DATA_MISSING LEN is empty; the geometry length 100.2 m is used."});
-  CHECK(f.at("gap") == V{"DATA_GEOMETRY The MULTILINESTRING has 2 parts that do not join end to end within the snap tolerance of 0.5 m (gap 10 m); the pipe is left out of the analysis."});
+                            "DATA_MISSING LEN is empty; the geometry length 100.200 m is used."});
+  CHECK(f.at("gap") == V{"DATA_GEOMETRY The MULTILINESTRING has 2 parts that do not join end to end within the snap tolerance of 0.500 m (gap 10.000 m); the pipe is left out of the analysis."});
   CHECK(f.at("null_n") == V{"DATA_MISSING N is empty; n = 0.013 from [pipes.defaults] manning_n is used."});
   CHECK(r.findings.size() == 20);
+  // Computed quantities travel as q() tokens, so a US report shows them in feet.
+  const auto long_finding = std::find_if(r.findings.begin(), r.findings.end(), [](const Finding& x) { return x.feature_id == "long"; });
+  CHECK(long_finding->message == "LEN 150 m differs from the geometry length {{100|L}} by more than 20 %; the geometry length is used.");
+  CHECK(render_message(long_finding->message, units::System::us) ==
+        "LEN 150 m differs from the geometry length 328.084 ft by more than 20 %; the geometry length is used.");
+  CHECK(long_finding->value == 150.0);
+  CHECK(long_finding->limit == 100.0);
+  CHECK(long_finding->field == "LEN");
+  CHECK(long_finding->severity == Severity::warning);
+  CHECK(long_finding->layer == LayerRole::conduits);
 
   for (const char* out : {"inches", "huge", "zero_dia", "null_dia", "no_geom", "point", "degenerate", "egg", "gap"})
     CHECK_FALSE(conduit(r.network, out).usable);

@@ -74,13 +74,13 @@ loss_k = 0.5
   std::map<std::string, std::vector<std::string>> f;
   for (const auto& x : r.findings) {
     CHECK(x.layer == LayerRole::structures);
-    f[x.feature_id].push_back(x.code + " " + x.message);
+    f[x.feature_id].push_back(x.code + " " + render_message(x.message, units::System::si));
   }
   using V = std::vector<std::string>;
   CHECK(f.at("OF1") == V{"DATA_MISSING RIM_FT is empty; the rim is unknown."});
   CHECK(f.at("odd") == V{"DATA_IMPLAUSIBLE KIND \"ZZ\" is not listed in [structures.types]; the structure is taken as a manhole."});
   CHECK(f.at("sentinel") == V{"DATA_IMPLAUSIBLE RIM_FT 9999 ft is at or above 2952.755906 ft, a no-data sentinel; the rim is unknown."});
-  CHECK(f.at("wide") == V{"DATA_IMPLAUSIBLE DIA_MM 50000 mm is larger than the plausible 30000 mm; the default diameter 1.2 m is used."});
+  CHECK(f.at("wide") == V{"DATA_IMPLAUSIBLE DIA_MM 50000 mm is larger than the plausible 30000 mm; the default diameter 1.200 m is used."});
   CHECK(f.at("negative_k") == V{"DATA_IMPLAUSIBLE K -1 is outside the plausible 0 to 10; the default K 0.5 is used."});
   CHECK(f.at("outflow") == V{"DATA_IMPLAUSIBLE Q -5 L/s is negative; the structure has no local inflow."});
   CHECK(f.at("no_geom") == V{"DATA_GEOMETRY The structure has no geometry; it is left out."});
