@@ -14,7 +14,8 @@ void report_duplicate_ids(const std::vector<IdRef>& ids, LayerRole layer, const 
   std::vector<std::pair<std::size_t, std::int64_t>> repeats;  // (feature index, fid of the first with its id)
   for (std::size_t i = 1; i < order.size(); ++i) {
     std::size_t first = i - 1;
-    while (i < order.size() && ids[order[i]].id == ids[order[first]].id) repeats.emplace_back(order[i++], ids[order[first]].fid);
+    while (i < order.size() && ids[order[i]].id == ids[order[first]].id)
+      repeats.emplace_back(order[i++], ids[order[first]].fid);
   }
   std::sort(repeats.begin(), repeats.end());
   for (const auto& [index, first_fid] : repeats) {

@@ -92,7 +92,8 @@ OpenLayer open_layer(const LayerSource& src, const std::string& role) {
     out.layer = ds.GetLayerByName(src.layer.c_str());
     if (!out.layer) {
       const auto names = layer_names(ds);
-      std::string msg = "no layer \"" + src.layer + "\" in the " + role + " source (layers: " + quoted_list(names) + ")";
+      std::string msg =
+          "no layer \"" + src.layer + "\" in the " + role + " source (layers: " + quoted_list(names) + ")";
       const std::string near = closest_name(src.layer, names);
       if (!near.empty()) msg += "; did you mean \"" + near + "\"?";
       throw Error(ErrorKind::bad_config, ErrorContext{out.source, "", "", ""}, msg);

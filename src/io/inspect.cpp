@@ -14,8 +14,8 @@ namespace {
 
 using detail::format_number;
 
-constexpr std::size_t sample_limit = 10000;      // values kept per field for the median
-constexpr std::size_t unique_limit = 2000000;    // distinct values remembered per id-like field
+constexpr std::size_t sample_limit = 10000;    // values kept per field for the median
+constexpr std::size_t unique_limit = 2000000;  // distinct values remembered per id-like field
 // Metres per degree for the plan-length hint on geographic layers: equirectangular, spherical
 // Earth of radius 6371 km (a hint at the unit of a length field, good to ~0.5 %).
 constexpr double metres_per_degree = 6371000.0 * 3.14159265358979323846 / 180.0;
@@ -175,7 +175,8 @@ std::size_t count_of(const LayerSummary& l, std::initializer_list<const char*> n
 }  // namespace
 
 bool LayerSummary::lines() const {
-  return feature_count > 0 && 2 * count_of(*this, {"LINESTRING", "MULTILINESTRING"}) > static_cast<std::size_t>(feature_count);
+  return feature_count > 0 &&
+         2 * count_of(*this, {"LINESTRING", "MULTILINESTRING"}) > static_cast<std::size_t>(feature_count);
 }
 
 bool LayerSummary::points() const {

@@ -173,8 +173,10 @@ PointStatus read_point(OGRGeometry* g, const Placement& where, Point2& out, std:
   if (where.to_run && g->transform(where.to_run) != OGRERR_NONE) return PointStatus::transform_failed;
   const OGRPoint* p = nullptr;
   const auto type = wkbFlatten(g->getGeometryType());
-  if (type == wkbPoint) p = g->toPoint();
-  else if (type == wkbMultiPoint && g->toMultiPoint()->getNumGeometries() == 1) p = g->toMultiPoint()->getGeometryRef(0);
+  if (type == wkbPoint)
+    p = g->toPoint();
+  else if (type == wkbMultiPoint && g->toMultiPoint()->getNumGeometries() == 1)
+    p = g->toMultiPoint()->getGeometryRef(0);
   if (!p) return PointStatus::wrong_type;
   out = {p->getX() * where.metres_per_unit, p->getY() * where.metres_per_unit};
   return PointStatus::ok;

@@ -22,7 +22,7 @@ struct LineOutcome {
   LineStatus status = LineStatus::ok;
   std::string type_name;  // the OGR geometry type, for messages ("Point", "MultiLineString")
   int parts = 1;
-  double gap_m = 0.0;     // smallest gap left when the parts could not be joined
+  double gap_m = 0.0;  // smallest gap left when the parts could not be joined
 };
 
 // Fills xy (and z when the geometry has Z; else z is cleared) with the line as digitised.

@@ -61,9 +61,12 @@ hydraulics::Shape shape_choice(TomlSection& s, std::string_view key, hydraulics:
 std::map<std::string, double> number_table(TomlSection s) {
   std::map<std::string, double> out;
   for (const auto& [key, node] : s.entries()) {
-    if (node->is_floating_point()) out[key] = node->as_floating_point()->get();
-    else if (node->is_integer()) out[key] = static_cast<double>(node->as_integer()->get());
-    else s.fail_at(node, key, "expected a number");
+    if (node->is_floating_point())
+      out[key] = node->as_floating_point()->get();
+    else if (node->is_integer())
+      out[key] = static_cast<double>(node->as_integer()->get());
+    else
+      s.fail_at(node, key, "expected a number");
   }
   return out;
 }
@@ -89,20 +92,28 @@ void read_pipes(TomlSection s, Project& p) {
 
   TomlSection f = s.table("fields");
   PipeFields& pf = p.pipe_fields;
-  for (auto [key, dst] : {std::pair<std::string_view, std::string*>{"id", &pf.id}, {"from", &pf.from}, {"to", &pf.to},
-                          {"shape", &pf.shape}, {"material", &pf.material}, {"manning_n", &pf.manning_n},
-                          {"split", &pf.split}, {"force_main", &pf.force_main}})
+  for (auto [key, dst] : {std::pair<std::string_view, std::string*>{"id", &pf.id},
+                          {"from", &pf.from},
+                          {"to", &pf.to},
+                          {"shape", &pf.shape},
+                          {"material", &pf.material},
+                          {"manning_n", &pf.manning_n},
+                          {"split", &pf.split},
+                          {"force_main", &pf.force_main}})
     *dst = f.string(key).value_or("");
-  for (auto [key, dst] : {std::pair<std::string_view, FieldRef*>{"diameter", &pf.diameter}, {"width", &pf.width},
-                          {"height", &pf.height}, {"ks", &pf.ks}, {"invert_up", &pf.invert_up},
-                          {"invert_down", &pf.invert_down}, {"length", &pf.length}})
+  for (auto [key, dst] : {std::pair<std::string_view, FieldRef*>{"diameter", &pf.diameter},
+                          {"width", &pf.width},
+                          {"height", &pf.height},
+                          {"ks", &pf.ks},
+                          {"invert_up", &pf.invert_up},
+                          {"invert_down", &pf.invert_down},
+                          {"length", &pf.length}})
     *dst = f.field_ref(key, Dimension::length);
   pf.flow = f.field_ref("flow", Dimension::flow);
   f.finish();
   if (p.shape_from_height && !pf.shape.empty())
     s.fail("shape_from_height", "cannot be used together with pipes.fields.shape; choose one way to give the shape");
-  if (p.shape_from_height && !pf.height.mapped())
-    s.fail("shape_from_height", "needs pipes.fields.height to be mapped");
+  if (p.shape_from_height && !pf.height.mapped()) s.fail("shape_from_height", "needs pipes.fields.height to be mapped");
   if (!p.force_main_values.empty() && pf.force_main.empty())
     s.fail("force_main_values", "needs pipes.fields.force_main to be mapped");
 
@@ -132,8 +143,10 @@ void read_structures(TomlSection s, Project& p) {
   sf.id = f.string("id").value_or("");
   sf.type = f.string("type").value_or("");
   sf.loss_k = f.string("loss_k").value_or("");
-  for (auto [key, dst] : {std::pair<std::string_view, FieldRef*>{"rim", &sf.rim}, {"invert", &sf.invert},
-                          {"diameter", &sf.diameter}, {"tailwater", &sf.tailwater}})
+  for (auto [key, dst] : {std::pair<std::string_view, FieldRef*>{"rim", &sf.rim},
+                          {"invert", &sf.invert},
+                          {"diameter", &sf.diameter},
+                          {"tailwater", &sf.tailwater}})
     *dst = f.field_ref(key, Dimension::length);
   sf.inflow = f.field_ref("inflow", Dimension::flow);
   f.finish();
@@ -157,8 +170,8 @@ void read_methods(TomlSection s, Project& p) {
   Methods& m = p.methods;
   using hydraulics::FrictionLaw;
   using hydraulics::StructureLossMethod;
-  m.friction = s.choice<FrictionLaw>("friction", {{"manning", FrictionLaw::manning},
-                                                  {"darcy_weisbach", FrictionLaw::darcy_weisbach}})
+  m.friction = s.choice<FrictionLaw>(
+                    "friction", {{"manning", FrictionLaw::manning}, {"darcy_weisbach", FrictionLaw::darcy_weisbach}})
                    .value_or(m.friction);
   m.structure_loss = s.choice<StructureLossMethod>("structure_loss", {{"constant_k", StructureLossMethod::constant_k},
                                                                       {"bend", StructureLossMethod::bend},
@@ -220,8 +233,9 @@ void read_plausibility(TomlSection s, Project& p) {
 }
 
 void read_flows_and_tailwater(TomlSection flows, TomlSection tw, Project& p) {
-  p.flow_mode = flows.choice<FlowMode>("mode", {{"pipe_field", FlowMode::pipe_field},
-                                                {"structure_inflows", FlowMode::structure_inflows}})
+  p.flow_mode = flows
+                    .choice<FlowMode>("mode", {{"pipe_field", FlowMode::pipe_field},
+                                               {"structure_inflows", FlowMode::structure_inflows}})
                     .value_or(p.flow_mode);
   p.split_rule = flows.choice<SplitRule>("split", {{"capacity", SplitRule::capacity}, {"field", SplitRule::field}})
                      .value_or(p.split_rule);
@@ -229,10 +243,10 @@ void read_flows_and_tailwater(TomlSection flows, TomlSection tw, Project& p) {
   flows.finish();
   if (p.split_rule == SplitRule::field && p.pipe_fields.split.empty())
     flows.fail("split", "\"field\" needs pipes.fields.split to be mapped");
-  p.tailwater_mode = tw.choice<TailwaterMode>("mode", {{"fixed", TailwaterMode::fixed},
-                                                       {"free", TailwaterMode::free},
-                                                       {"higher", TailwaterMode::higher}})
-                         .value_or(p.tailwater_mode);
+  p.tailwater_mode =
+      tw.choice<TailwaterMode>(
+            "mode", {{"fixed", TailwaterMode::fixed}, {"free", TailwaterMode::free}, {"higher", TailwaterMode::higher}})
+          .value_or(p.tailwater_mode);
   for (const auto& level : tw.strings("levels"))
     p.tailwater_levels_m.push_back(parse_quantity(level, Dimension::length, p.file + ": " + tw.where("levels")));
   tw.finish();

@@ -45,10 +45,12 @@ Name parse_name(const std::string& field) {
   return n;
 }
 
-const std::regex up_invert("^(PIPE)?(US|UP|UPS|UPSTREAM|UPSTR|START|FROM|IN|BEG)(IL|INV|INVERT|IE|INVLEV|INVERTLEVEL|INVELEV|ELEV)$|"
-                           "^(IL|INV|INVERT|IE|INVLEV|INVERTLEVEL|ELEV)(US|UP|UPS|UPSTREAM|START|FROM|IN|BEG|1)$");
-const std::regex down_invert("^(PIPE)?(DS|DN|DOWN|DOWNSTREAM|DNSTR|END|TO|OUT)(IL|INV|INVERT|IE|INVLEV|INVERTLEVEL|INVELEV|ELEV)$|"
-                             "^(IL|INV|INVERT|IE|INVLEV|INVERTLEVEL|ELEV)(DS|DN|DOWN|DOWNSTREAM|END|TO|OUT|2)$");
+const std::regex up_invert(
+    "^(PIPE)?(US|UP|UPS|UPSTREAM|UPSTR|START|FROM|IN|BEG)(IL|INV|INVERT|IE|INVLEV|INVERTLEVEL|INVELEV|ELEV)$|"
+    "^(IL|INV|INVERT|IE|INVLEV|INVERTLEVEL|ELEV)(US|UP|UPS|UPSTREAM|START|FROM|IN|BEG|1)$");
+const std::regex down_invert(
+    "^(PIPE)?(DS|DN|DOWN|DOWNSTREAM|DNSTR|END|TO|OUT)(IL|INV|INVERT|IE|INVLEV|INVERTLEVEL|INVELEV|ELEV)$|"
+    "^(IL|INV|INVERT|IE|INVLEV|INVERTLEVEL|ELEV)(DS|DN|DOWN|DOWNSTREAM|END|TO|OUT|2)$");
 
 // The unit a field's name states ("DIA_MM", "LEN_FT"), if any.
 std::optional<Unit> unit_in_name(const Name& n) {
@@ -178,23 +180,28 @@ MappingProposal propose_mapping(const LayerSummary& layer) {
                  ? 8
                  : 0;
     });
-    p.add(m, "to", to, std::nullopt, from && to && to->name.upper == from->name.upper + "2" ? "the pair's second id" : "the name says downstream");
+    p.add(m, "to", to, std::nullopt,
+          from && to && to->name.upper == from->name.upper + "2" ? "the pair's second id" : "the name says downstream");
     p.add(m, "shape", p.pick([](const Candidate& c) {
-            return !numeric(c) && c.name.has({"SHAPE", "SECTION", "XSECTION", "PIPESHAPE"}) &&
-                           !c.name.has({"LENGTH", "LEN", "AREA", "LENG"})
-                       ? 8
-                       : 0;
-          }), std::nullopt, "text field named for the section shape; list its values in [pipes.shapes]");
+      return !numeric(c) && c.name.has({"SHAPE", "SECTION", "XSECTION", "PIPESHAPE"}) &&
+                     !c.name.has({"LENGTH", "LEN", "AREA", "LENG"})
+                 ? 8
+                 : 0;
+    }),
+          std::nullopt, "text field named for the section shape; list its values in [pipes.shapes]");
     p.add(m, "material", p.pick([](const Candidate& c) {
-            return !numeric(c) && (c.name.has({"MATERIAL", "MAT", "MATL", "PIPEMAT"}) || c.name.joined == "PIPEMATERIAL") ? 8 : 0;
-          }), std::nullopt, "the name says material");
+      return !numeric(c) && (c.name.has({"MATERIAL", "MAT", "MATL", "PIPEMAT"}) || c.name.joined == "PIPEMATERIAL") ? 8
+                                                                                                                    : 0;
+    }),
+          std::nullopt, "the name says material");
     p.add(m, "manning_n", p.pick([](const Candidate& c) {
-            const double med = c.field->median.value_or(-1.0);
-            return numeric(c) && med >= 0.008 && med <= 0.05 &&
-                           c.name.has({"MANNING", "MANNINGS", "MANN", "N", "NVALUE", "ROUGHNESS", "ROUGH"})
-                       ? 8
-                       : 0;
-          }), std::nullopt, "values in the range of Manning's n");
+      const double med = c.field->median.value_or(-1.0);
+      return numeric(c) && med >= 0.008 && med <= 0.05 &&
+                     c.name.has({"MANNING", "MANNINGS", "MANN", "N", "NVALUE", "ROUGHNESS", "ROUGH"})
+                 ? 8
+                 : 0;
+    }),
+          std::nullopt, "values in the range of Manning's n");
   }
   auto size_role = [&](const char* role, std::initializer_list<const char*> words) {
     const Candidate* c = p.pick([&](const Candidate& x) { return numeric(x) && x.name.has(words) ? 8 : 0; });
@@ -212,7 +219,8 @@ MappingProposal propose_mapping(const LayerSummary& layer) {
   std::string system_why;
   if (pipes) {
     const Candidate* len = p.pick([](const Candidate& c) {
-      return numeric(c) && c.name.has({"LENGTH", "LEN", "LENGTHM", "PIPELENGTH", "LENG"}) && !c.name.has({"SHAPE"}) ? 8 : 0;
+      return numeric(c) && c.name.has({"LENGTH", "LEN", "LENGTHM", "PIPELENGTH", "LENG"}) && !c.name.has({"SHAPE"}) ? 8
+                                                                                                                    : 0;
     });
     if (len) {
       const auto [unit, why] = length_unit(*len);
@@ -224,7 +232,8 @@ MappingProposal propose_mapping(const LayerSummary& layer) {
     }
   }
   if (!system_length && layer.crs_metres_per_unit != 1.0) {
-    system_length = std::abs(layer.crs_metres_per_unit - units::metres_per_us_survey_foot) < 1e-9 ? Unit::us_ft : Unit::ft;
+    system_length =
+        std::abs(layer.crs_metres_per_unit - units::metres_per_us_survey_foot) < 1e-9 ? Unit::us_ft : Unit::ft;
     system_why = "as the CRS's unit";
   }
   if (!system_length)
@@ -235,9 +244,12 @@ MappingProposal propose_mapping(const LayerSummary& layer) {
   auto level_role = [&](const char* role, const std::function<bool(const Name&)>& matches) {
     const Candidate* c = p.pick([&](const Candidate& x) { return numeric(x) && matches(x.name) ? 8 : 0; });
     if (!c) return;
-    if (const auto u = unit_in_name(c->name)) p.add(m, role, c, u, "the name states " + std::string(units::unit_symbol(*u)));
-    else if (system_length) p.add(m, role, c, system_length, system_why);
-    else p.add(m, role, c, Unit::m, "metres assumed: nothing says otherwise, check");
+    if (const auto u = unit_in_name(c->name))
+      p.add(m, role, c, u, "the name states " + std::string(units::unit_symbol(*u)));
+    else if (system_length)
+      p.add(m, role, c, system_length, system_why);
+    else
+      p.add(m, role, c, Unit::m, "metres assumed: nothing says otherwise, check");
   };
   if (pipes) {
     level_role("invert_up", [](const Name& n) { return std::regex_match(n.joined, up_invert); });
@@ -261,15 +273,17 @@ MappingProposal propose_mapping(const LayerSummary& layer) {
     }
   } else {
     p.add(m, "type", p.pick([](const Candidate& c) {
-            return !numeric(c) && c.name.has({"TYPE", "KIND", "CLASS", "SUBTYPE", "FEATURETYPE"}) ? 6 : 0;
-          }), std::nullopt, "text field named for the structure type; list its values in [structures.types]");
+      return !numeric(c) && c.name.has({"TYPE", "KIND", "CLASS", "SUBTYPE", "FEATURETYPE"}) ? 6 : 0;
+    }),
+          std::nullopt, "text field named for the structure type; list its values in [structures.types]");
     level_role("rim", [](const Name& n) {
       return n.has({"RIM", "COVER", "GROUND", "GL", "CL", "LID", "TOP", "RIMELEV", "SURFACE", "RL"});
     });
     level_role("invert", [](const Name& n) { return n.has({"INV", "IL", "INVERT", "SUMP", "BOTTOM", "IE"}); });
     p.add(m, "loss_k", p.pick([](const Candidate& c) {
-            return numeric(c) && c.name.has({"K", "LOSS", "KLOSS", "LOSSK"}) ? 6 : 0;
-          }), std::nullopt, "the name says loss coefficient");
+      return numeric(c) && c.name.has({"K", "LOSS", "KLOSS", "LOSSK"}) ? 6 : 0;
+    }),
+          std::nullopt, "the name says loss coefficient");
   }
   return m;
 }

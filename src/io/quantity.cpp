@@ -17,23 +17,30 @@ std::string_view trim(std::string_view s) {
 
 std::string_view dimension_noun(units::Dimension d) {
   switch (d) {
-    case units::Dimension::length: return "a length";
-    case units::Dimension::flow: return "a flow";
-    case units::Dimension::velocity: return "a velocity";
-    case units::Dimension::area: return "an area";
-    case units::Dimension::dimensionless: return "a plain number";
-    case units::Dimension::slope: return "a slope";
-    case units::Dimension::temperature: return "a temperature";
-    case units::Dimension::pressure_head: return "a pressure head";
+    case units::Dimension::length:
+      return "a length";
+    case units::Dimension::flow:
+      return "a flow";
+    case units::Dimension::velocity:
+      return "a velocity";
+    case units::Dimension::area:
+      return "an area";
+    case units::Dimension::dimensionless:
+      return "a plain number";
+    case units::Dimension::slope:
+      return "a slope";
+    case units::Dimension::temperature:
+      return "a temperature";
+    case units::Dimension::pressure_head:
+      return "a pressure head";
   }
   return "a quantity";
 }
 
 // Spellings offered in "did you mean"; parse_unit accepts more.
 const std::vector<std::string>& unit_suggestions() {
-  static const std::vector<std::string> names{"m",   "mm",  "cm",  "ft",  "us_ft", "in", "m3/s", "L/s", "cfs",
-                                              "MGD", "gpm", "m/s", "ft/s", "m2",   "ha", "ft2",  "acre", "%",
-                                              "C",   "F"};
+  static const std::vector<std::string> names{"m",   "mm",  "cm",   "ft", "us_ft", "in",  "m3/s", "L/s", "cfs", "MGD",
+                                              "gpm", "m/s", "ft/s", "m2", "ha",    "ft2", "acre", "%",   "C",   "F"};
   return names;
 }
 

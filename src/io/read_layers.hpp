@@ -27,7 +27,7 @@ void check_structure_mapping(const Project& project, const OpenLayer& source);
 void read_structures(LayerRead& in, std::vector<model::Structure>& out);
 
 // GDAL's warnings while reading one feature -> DATA_SOURCE findings (at most `cap` per layer).
-void report_gdal_messages(GdalErrorCapture& capture, LayerRole layer, const std::string& feature_id,
-                          Findings& findings, std::size_t& reported, std::size_t cap = 100);
+void report_gdal_messages(GdalErrorCapture& capture, LayerRole layer, const std::string& feature_id, Findings& findings,
+                          std::size_t& reported, std::size_t cap = 100);
 
 }  // namespace rimline::io::detail

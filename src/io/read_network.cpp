@@ -8,8 +8,8 @@
 namespace rimline::io {
 namespace detail {
 
-void report_gdal_messages(GdalErrorCapture& capture, LayerRole layer, const std::string& feature_id,
-                          Findings& findings, std::size_t& reported, std::size_t cap) {
+void report_gdal_messages(GdalErrorCapture& capture, LayerRole layer, const std::string& feature_id, Findings& findings,
+                          std::size_t& reported, std::size_t cap) {
   for (const auto& m : capture.messages()) {
     ++reported;
     if (reported > cap) continue;

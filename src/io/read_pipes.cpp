@@ -30,13 +30,25 @@ struct Columns {
 };
 
 Columns resolve(const PipeFields& f, const OpenLayer& l) {
-  auto idx = [&l](const std::string& name, const char* key) { return field_index(l, name, std::string("pipes.fields.") + key); };
-  return {idx(f.id, "id"),          idx(f.from, "from"),           idx(f.to, "to"),
-          idx(f.shape, "shape"),    idx(f.material, "material"),   idx(f.manning_n, "manning_n"),
-          idx(f.split, "split"),    idx(f.force_main, "force_main"), idx(f.diameter.field, "diameter"),
-          idx(f.width.field, "width"), idx(f.height.field, "height"), idx(f.ks.field, "ks"),
-          idx(f.invert_up.field, "invert_up"), idx(f.invert_down.field, "invert_down"),
-          idx(f.length.field, "length"), idx(f.flow.field, "flow")};
+  auto idx = [&l](const std::string& name, const char* key) {
+    return field_index(l, name, std::string("pipes.fields.") + key);
+  };
+  return {idx(f.id, "id"),
+          idx(f.from, "from"),
+          idx(f.to, "to"),
+          idx(f.shape, "shape"),
+          idx(f.material, "material"),
+          idx(f.manning_n, "manning_n"),
+          idx(f.split, "split"),
+          idx(f.force_main, "force_main"),
+          idx(f.diameter.field, "diameter"),
+          idx(f.width.field, "width"),
+          idx(f.height.field, "height"),
+          idx(f.ks.field, "ks"),
+          idx(f.invert_up.field, "invert_up"),
+          idx(f.invert_down.field, "invert_down"),
+          idx(f.length.field, "length"),
+          idx(f.flow.field, "flow")};
 }
 
 // The field that gives a circular pipe its diameter (width doubles as diameter with shape_from_height).
@@ -47,7 +59,8 @@ const FieldRef& diameter_ref(const Project& p) {
 
 class PipeReader {
  public:
-  explicit PipeReader(LayerRead& in) : in_(in), p_(in.project), f_(in.project.pipe_fields), col_(resolve(f_, in.source)) {}
+  explicit PipeReader(LayerRead& in)
+      : in_(in), p_(in.project), f_(in.project.pipe_fields), col_(resolve(f_, in.source)) {}
 
   void read(OGRFeature& feature, model::Conduit& c) {
     c.fid = feature.GetFID();
@@ -58,8 +71,8 @@ class PipeReader {
     read_section(feature, c, who);
     read_roughness(feature, c, who);
     if (col_.invert_up >= 0)
-      c.invert_up_m = checked_level(read_number(feature, col_.invert_up), f_.invert_up, "upstream invert",
-                                    p_.plausibility, who);
+      c.invert_up_m =
+          checked_level(read_number(feature, col_.invert_up), f_.invert_up, "upstream invert", p_.plausibility, who);
     if (col_.invert_down >= 0)
       c.invert_down_m = checked_level(read_number(feature, col_.invert_down), f_.invert_down, "downstream invert",
                                       p_.plausibility, who);
@@ -77,8 +90,8 @@ class PipeReader {
   }
 
   void read_geometry(OGRFeature& feature, model::Conduit& c, const FeatureRef& who) {
-    const LineOutcome g = read_line(feature.GetGeometryRef(), in_.placement, p_.snap_tolerance_m, c.vertices,
-                                    c.vertex_z_m);
+    const LineOutcome g =
+        read_line(feature.GetGeometryRef(), in_.placement, p_.snap_tolerance_m, c.vertices, c.vertex_z_m);
     const auto L = Dimension::length;
     switch (g.status) {
       case LineStatus::missing:
@@ -98,8 +111,8 @@ class PipeReader {
       case LineStatus::gap:
         who.add("DATA_GEOMETRY", Severity::error, "",
                 "The " + g.type_name + " has " + std::to_string(g.parts) +
-                    " parts that do not join end to end within the snap tolerance of " +
-                    q(p_.snap_tolerance_m, L) + " (gap " + q(g.gap_m, L) + "); the pipe is left out of the analysis.",
+                    " parts that do not join end to end within the snap tolerance of " + q(p_.snap_tolerance_m, L) +
+                    " (gap " + q(g.gap_m, L) + "); the pipe is left out of the analysis.",
                 g.gap_m, p_.snap_tolerance_m, L);
         c.usable = false;
         break;
@@ -108,7 +121,8 @@ class PipeReader {
                 "The " + g.type_name + "'s " + std::to_string(g.parts) +
                     " parts join end to end and were merged into one line.");
         break;
-      case LineStatus::ok: break;
+      case LineStatus::ok:
+        break;
     }
     c.geometry_length_m = plan_length_m(c.vertices);
     c.up_point = c.vertices.front();
@@ -125,7 +139,9 @@ class PipeReader {
   void read_length(OGRFeature& feature, model::Conduit& c, const FeatureRef& who) {
     c.length_m = c.geometry_length_m;
     if (col_.length < 0) return;
-    auto use_geometry = [&c] { return "the geometry length " + q(c.geometry_length_m, Dimension::length) + " is used"; };
+    auto use_geometry = [&c] {
+      return "the geometry length " + q(c.geometry_length_m, Dimension::length) + " is used";
+    };
     const RawNumber raw = read_number(feature, col_.length);
     if (raw.state == RawNumber::State::null) {
       who.add("DATA_MISSING", Severity::info, f_.length.field, f_.length.field + " is empty; " + use_geometry() + ".");
@@ -136,8 +152,8 @@ class PipeReader {
     const double si = units::to_si(*v, f_.length.unit);
     auto shown = [&] { return f_.length.field + " " + format_value(*v, f_.length.unit); };
     if (!(si > 0.0)) {
-      who.add("DATA_IMPLAUSIBLE", Severity::warning, f_.length.field, shown() + " is not positive; " + use_geometry() + ".",
-              si, 0.0, Dimension::length);
+      who.add("DATA_IMPLAUSIBLE", Severity::warning, f_.length.field,
+              shown() + " is not positive; " + use_geometry() + ".", si, 0.0, Dimension::length);
       return;
     }
     if (c.geometry_length_m <= 0.0) {  // no usable geometry: the mapped length is all there is
@@ -163,7 +179,8 @@ class PipeReader {
         const Shape s = p_.pipe_defaults.shape;
         who.add("DATA_MISSING", Severity::info, f_.shape,
                 f_.shape + " is empty; the default shape " + std::string(hydraulics::shape_name(s)) + " is used.");
-        tally("shape", "default", who.id, [s] { return "shape " + std::string(hydraulics::shape_name(s)) + " from [pipes.defaults] shape"; });
+        tally("shape", "default", who.id,
+              [s] { return "shape " + std::string(hydraulics::shape_name(s)) + " from [pipes.defaults] shape"; });
         return s;
       }
       const auto it = p_.shape_values.find(*text);
@@ -182,7 +199,9 @@ class PipeReader {
       return (h.state == RawNumber::State::number && h.value == 0.0) ? Shape::circular : Shape::box;
     }
     const Shape s = p_.pipe_defaults.shape;
-    tally("shape", "default", who.id, [s] { return "shape " + std::string(hydraulics::shape_name(s)) + " from [pipes.defaults] shape (no shape field mapped)"; });
+    tally("shape", "default", who.id, [s] {
+      return "shape " + std::string(hydraulics::shape_name(s)) + " from [pipes.defaults] shape (no shape field mapped)";
+    });
     return s;
   }
 
@@ -196,7 +215,10 @@ class PipeReader {
       return std::nullopt;
     }
     if (col < 0) {
-      tally(role, "default", who.id, [&] { return std::string(role) + " " + format_si(*fallback, Dimension::length) + " from [pipes.defaults] " + std::string(role) + " (no field mapped)"; });
+      tally(role, "default", who.id, [&] {
+        return std::string(role) + " " + format_si(*fallback, Dimension::length) + " from [pipes.defaults] " +
+               std::string(role) + " (no field mapped)";
+      });
       return fallback;
     }
     const RawNumber raw = read_number(feature, col);
@@ -205,7 +227,10 @@ class PipeReader {
         who.add("DATA_MISSING", Severity::info, ref.field,
                 ref.field + " is empty; the default " + std::string(role) + " " + q(*fallback, Dimension::length) +
                     " is used.");
-        tally(role, "default", who.id, [&] { return std::string(role) + " " + format_si(*fallback, Dimension::length) + " from [pipes.defaults] " + std::string(role); });
+        tally(role, "default", who.id, [&] {
+          return std::string(role) + " " + format_si(*fallback, Dimension::length) + " from [pipes.defaults] " +
+                 std::string(role);
+        });
         return fallback;
       }
       who.add("DATA_MISSING", Severity::error, ref.field, ref.field + " is empty; " + left_out + ".");
@@ -225,8 +250,10 @@ class PipeReader {
       const FieldRef& ref = diameter_ref(p_);
       const int col = &ref == &f_.width ? col_.width : col_.diameter;
       const auto d = read_size(feature, col, ref, p_.pipe_defaults.diameter_m, "diameter", who);
-      if (d) c.section.diameter_m = *d;
-      else c.usable = false;
+      if (d)
+        c.section.diameter_m = *d;
+      else
+        c.usable = false;
       return;
     }
     const auto w = read_size(feature, col_.width, f_.width, std::nullopt, "width", who);
@@ -246,14 +273,17 @@ class PipeReader {
     c.roughness.law = p_.methods.friction;
     const bool manning = p_.methods.friction == hydraulics::FrictionLaw::manning;
     const FieldRef n_ref{f_.manning_n, units::Unit::one};
-    if (auto n = roughness(feature, col_.manning_n, n_ref, "manning_n", "n", manning_n_min, manning_n_max,
-                           p_.pipe_defaults.manning_n_by_material, p_.pipe_defaults.manning_n, c.material, manning, who))
+    if (auto n =
+            roughness(feature, col_.manning_n, n_ref, "manning_n", "n", manning_n_min, manning_n_max,
+                      p_.pipe_defaults.manning_n_by_material, p_.pipe_defaults.manning_n, c.material, manning, who))
       c.roughness.manning_n = *n;
-    else if (manning) c.usable = false;
+    else if (manning)
+      c.usable = false;
     if (auto ks = roughness(feature, col_.ks, f_.ks, "ks", "ks", 0.0, ks_max_m, p_.pipe_defaults.ks_m_by_material,
                             p_.pipe_defaults.ks_m, c.material, !manning, who))
       c.roughness.ks_m = *ks;
-    else if (!manning) c.usable = false;
+    else if (!manning)
+      c.usable = false;
   }
 
   std::optional<double> roughness(OGRFeature& feature, int col, const FieldRef& ref, std::string_view role,
@@ -311,15 +341,17 @@ class PipeReader {
     auto link = [&](int col, const std::string& field, const char* end, std::string& dst) {
       if (col < 0) return;
       auto v = read_text(feature, col);
-      if (v) dst = std::move(*v);
-      else who.add("DATA_MISSING", Severity::info, field, field + " is empty; the " + end + " structure id is unknown.");
+      if (v)
+        dst = std::move(*v);
+      else
+        who.add("DATA_MISSING", Severity::info, field, field + " is empty; the " + end + " structure id is unknown.");
     };
     link(col_.from, f_.from, "upstream", c.from_id);
     link(col_.to, f_.to, "downstream", c.to_id);
     if (col_.force_main >= 0)
       if (const auto v = read_text(feature, col_.force_main))
-        c.force_main = std::find(p_.force_main_values.begin(), p_.force_main_values.end(), *v) !=
-                       p_.force_main_values.end();
+        c.force_main =
+            std::find(p_.force_main_values.begin(), p_.force_main_values.end(), *v) != p_.force_main_values.end();
   }
 
   void read_flow(OGRFeature& feature, model::Conduit& c, const FeatureRef& who) {
@@ -327,14 +359,16 @@ class PipeReader {
       const RawNumber raw = read_number(feature, col_.flow);
       const char* none = "the pipe has no design flow";
       if (raw.state == RawNumber::State::null) {
-        who.add("DATA_MISSING", Severity::warning, f_.flow.field, f_.flow.field + " is empty; " + std::string(none) + ".");
+        who.add("DATA_MISSING", Severity::warning, f_.flow.field,
+                f_.flow.field + " is empty; " + std::string(none) + ".");
       } else if (const auto v = checked_number(raw, f_.flow.field, none, who)) {
         const double si = units::to_si(*v, f_.flow.unit);
         if (si < 0.0)
           who.add("DATA_IMPLAUSIBLE", Severity::warning, f_.flow.field,
-                  f_.flow.field + " " + format_value(*v, f_.flow.unit) + " is negative; " + std::string(none) + ".", si, 0.0,
-                  Dimension::flow);
-        else c.flow_m3_s = si;
+                  f_.flow.field + " " + format_value(*v, f_.flow.unit) + " is negative; " + std::string(none) + ".", si,
+                  0.0, Dimension::flow);
+        else
+          c.flow_m3_s = si;
       }
     }
     if (col_.split >= 0) {
@@ -346,8 +380,10 @@ class PipeReader {
       } else if (const auto v = checked_number(raw, f_.split, none, who)) {
         if (*v < 0.0 || *v > 1.0)
           who.add("DATA_IMPLAUSIBLE", Severity::warning, f_.split,
-                  f_.split + " " + format_number(*v) + " is outside 0 to 1; " + std::string(none) + ".", *v, *v < 0.0 ? 0.0 : 1.0);
-        else c.split_fraction = *v;
+                  f_.split + " " + format_number(*v) + " is outside 0 to 1; " + std::string(none) + ".", *v,
+                  *v < 0.0 ? 0.0 : 1.0);
+        else
+          c.split_fraction = *v;
       }
     }
   }

@@ -24,9 +24,14 @@ Columns resolve(const StructureFields& f, const OpenLayer& l) {
   auto idx = [&l](const std::string& name, const char* key) {
     return field_index(l, name, std::string("structures.fields.") + key);
   };
-  return {idx(f.id, "id"),         idx(f.type, "type"),         idx(f.loss_k, "loss_k"),
-          idx(f.rim.field, "rim"), idx(f.invert.field, "invert"), idx(f.diameter.field, "diameter"),
-          idx(f.inflow.field, "inflow"), idx(f.tailwater.field, "tailwater")};
+  return {idx(f.id, "id"),
+          idx(f.type, "type"),
+          idx(f.loss_k, "loss_k"),
+          idx(f.rim.field, "rim"),
+          idx(f.invert.field, "invert"),
+          idx(f.diameter.field, "diameter"),
+          idx(f.inflow.field, "inflow"),
+          idx(f.tailwater.field, "tailwater")};
 }
 
 std::optional<model::StructureKind> kind_of(const std::string& name) {
@@ -52,7 +57,8 @@ class StructureReader {
     s.id = id ? std::move(*id) : "fid " + std::to_string(s.fid);
     const FeatureRef who{LayerRole::structures, s.id, in_.findings};
     if (col_.id >= 0 && !id)
-      who.add("DATA_MISSING", Severity::warning, f_.id, f_.id + " is empty; the structure is reported as \"" + s.id + "\".");
+      who.add("DATA_MISSING", Severity::warning, f_.id,
+              f_.id + " is empty; the structure is reported as \"" + s.id + "\".");
     if (!read_location(feature, s, who)) return false;
     read_kind(feature, s, who);
     if (col_.rim >= 0) s.rim_m = checked_level(read_number(feature, col_.rim), f_.rim, "rim", p_.plausibility, who);
@@ -72,12 +78,14 @@ class StructureReader {
   bool read_location(OGRFeature& feature, model::Structure& s, const FeatureRef& who) {
     std::string type;
     switch (read_point(feature.GetGeometryRef(), in_.placement, s.location, type)) {
-      case PointStatus::ok: return true;
+      case PointStatus::ok:
+        return true;
       case PointStatus::missing:
         who.add("DATA_GEOMETRY", Severity::error, "", "The structure has no geometry; it is left out.");
         return false;
       case PointStatus::wrong_type:
-        who.add("DATA_GEOMETRY", Severity::error, "", "The geometry is a " + type + ", not a point; the structure is left out.");
+        who.add("DATA_GEOMETRY", Severity::error, "",
+                "The geometry is a " + type + ", not a point; the structure is left out.");
         return false;
       case PointStatus::transform_failed:
         who.add("DATA_GEOMETRY", Severity::error, "",
@@ -116,12 +124,14 @@ class StructureReader {
     if (col_.diameter >= 0) {
       const RawNumber raw = read_number(feature, col_.diameter);
       if (raw.state == RawNumber::State::null)
-        who.add("DATA_MISSING", Severity::info, f_.diameter.field, f_.diameter.field + " is empty; " + use_default() + ".");
-      else if (const double si = units::to_si(raw.value, f_.diameter.unit);
-               raw.state == RawNumber::State::number && si >= size_limits_.diameter_min_m &&
-               si <= size_limits_.diameter_max_m)
+        who.add("DATA_MISSING", Severity::info, f_.diameter.field,
+                f_.diameter.field + " is empty; " + use_default() + ".");
+      else if (const double si = units::to_si(raw.value, f_.diameter.unit); raw.state == RawNumber::State::number &&
+                                                                            si >= size_limits_.diameter_min_m &&
+                                                                            si <= size_limits_.diameter_max_m)
         d = si;  // the common case, without building the message
-      else d = checked_size(raw, f_.diameter, size_limits_, use_default(), Severity::warning, who);
+      else
+        d = checked_size(raw, f_.diameter, size_limits_, use_default(), Severity::warning, who);
     }
     if (!d)
       in_.defaults.add(LayerRole::structures, "diameter", "default", s.id, [&] {
@@ -133,14 +143,16 @@ class StructureReader {
   void read_loss_and_inflow(OGRFeature& feature, model::Structure& s, const FeatureRef& who) {
     const auto fallback = p_.structure_defaults.loss_k;
     auto use_default = [&fallback] {
-      return fallback ? "the default K " + format_number(*fallback) + " is used" : std::string("the method's K is used");
+      return fallback ? "the default K " + format_number(*fallback) + " is used"
+                      : std::string("the method's K is used");
     };
     if (col_.loss_k >= 0) {
       const RawNumber raw = read_number(feature, col_.loss_k);
       if (raw.state == RawNumber::State::null)
         who.add("DATA_MISSING", Severity::info, f_.loss_k, f_.loss_k + " is empty; " + use_default() + ".");
       else if (const auto k = checked_number_lazy(raw, f_.loss_k, use_default, who)) {
-        if (*k >= 0.0 && *k <= loss_k_max) s.loss_k = *k;
+        if (*k >= 0.0 && *k <= loss_k_max)
+          s.loss_k = *k;
         else
           who.add("DATA_IMPLAUSIBLE", Severity::warning, f_.loss_k,
                   f_.loss_k + " " + format_number(*k) + " is outside the plausible 0 to " + format_number(loss_k_max) +
@@ -158,11 +170,12 @@ class StructureReader {
       const char* none = "the structure has no local inflow";
       if (const auto q = checked_number(raw, f_.inflow.field, none, who)) {
         const double si = units::to_si(*q, f_.inflow.unit);
-        if (si >= 0.0) s.inflow_m3_s = si;
+        if (si >= 0.0)
+          s.inflow_m3_s = si;
         else
           who.add("DATA_IMPLAUSIBLE", Severity::warning, f_.inflow.field,
-                  f_.inflow.field + " " + format_value(*q, f_.inflow.unit) + " is negative; " + std::string(none) + ".", si, 0.0,
-                  Dimension::flow);
+                  f_.inflow.field + " " + format_value(*q, f_.inflow.unit) + " is negative; " + std::string(none) + ".",
+                  si, 0.0, Dimension::flow);
       }
     }
   }

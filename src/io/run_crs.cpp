@@ -108,8 +108,10 @@ RunCrs plan_run_crs(const OpenLayer& pipes, const std::string& crs_override) {
   }
   // Z: the vertical CRS's unit when the CRS is compound; otherwise assumed in the horizontal
   // unit of a projected CRS (US state-plane exports carry elevations in feet) and metres otherwise.
-  if (r.source.IsCompound()) r.z_metres_per_unit = r.source.GetTargetLinearUnits("VERT_CS");
-  else r.z_metres_per_unit = r.to_run ? 1.0 : r.metres_per_unit;
+  if (r.source.IsCompound())
+    r.z_metres_per_unit = r.source.GetTargetLinearUnits("VERT_CS");
+  else
+    r.z_metres_per_unit = r.to_run ? 1.0 : r.metres_per_unit;
   if (!(r.z_metres_per_unit > 0.0)) r.z_metres_per_unit = 1.0;
   r.run_wkt = to_wkt(r.run);
   r.description = r.run.GetName() ? r.run.GetName() : "";

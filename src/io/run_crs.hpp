@@ -17,13 +17,13 @@ struct CoordinateTransformDeleter {
 using TransformPtr = std::unique_ptr<OGRCoordinateTransformation, CoordinateTransformDeleter>;
 
 struct RunCrs {
-  OGRSpatialReference source;   // the pipe layer's CRS (or the project's crs), traditional GIS axis order
-  OGRSpatialReference run;      // the CRS coordinates are computed in
-  TransformPtr to_run;          // source -> run; null when they are the same
-  double metres_per_unit = 1.0; // linear unit of the run CRS, from the CRS
+  OGRSpatialReference source;    // the pipe layer's CRS (or the project's crs), traditional GIS axis order
+  OGRSpatialReference run;       // the CRS coordinates are computed in
+  TransformPtr to_run;           // source -> run; null when they are the same
+  double metres_per_unit = 1.0;  // linear unit of the run CRS, from the CRS
   double z_metres_per_unit = 1.0;
-  std::string description;      // name of the run CRS
-  std::string note;             // what was done to the coordinates, "" when nothing
+  std::string description;  // name of the run CRS
+  std::string note;         // what was done to the coordinates, "" when nothing
   std::string source_wkt;
   std::string run_wkt;
 };

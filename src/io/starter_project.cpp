@@ -28,7 +28,8 @@ void write_fields(std::ostream& out, const MappingProposal& m) {
     out << f.role << " = ";
     if (dimensioned(f.role) && f.unit)
       out << "{ field = " << quoted(f.field) << ", unit = " << quoted(std::string(units::unit_symbol(*f.unit))) << " }";
-    else out << quoted(f.field);
+    else
+      out << quoted(f.field);
     out << "  # " << f.reason << "\n";
   }
 }

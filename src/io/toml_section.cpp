@@ -9,30 +9,46 @@ namespace {
 
 std::string_view type_name(const toml::node& n) {
   switch (n.type()) {
-    case toml::node_type::table: return "a table";
-    case toml::node_type::array: return "an array";
-    case toml::node_type::string: return "a string";
-    case toml::node_type::integer: return "an integer";
-    case toml::node_type::floating_point: return "a number";
-    case toml::node_type::boolean: return "a boolean";
+    case toml::node_type::table:
+      return "a table";
+    case toml::node_type::array:
+      return "an array";
+    case toml::node_type::string:
+      return "a string";
+    case toml::node_type::integer:
+      return "an integer";
+    case toml::node_type::floating_point:
+      return "a number";
+    case toml::node_type::boolean:
+      return "a boolean";
     case toml::node_type::date:
     case toml::node_type::time:
-    case toml::node_type::date_time: return "a date/time";
-    case toml::node_type::none: break;
+    case toml::node_type::date_time:
+      return "a date/time";
+    case toml::node_type::none:
+      break;
   }
   return "nothing";
 }
 
 std::string_view dimension_name(units::Dimension d) {
   switch (d) {
-    case units::Dimension::length: return "length";
-    case units::Dimension::flow: return "flow";
-    case units::Dimension::velocity: return "velocity";
-    case units::Dimension::area: return "area";
-    case units::Dimension::dimensionless: return "number without unit";
-    case units::Dimension::slope: return "slope";
-    case units::Dimension::temperature: return "temperature";
-    case units::Dimension::pressure_head: return "pressure head";
+    case units::Dimension::length:
+      return "length";
+    case units::Dimension::flow:
+      return "flow";
+    case units::Dimension::velocity:
+      return "velocity";
+    case units::Dimension::area:
+      return "area";
+    case units::Dimension::dimensionless:
+      return "number without unit";
+    case units::Dimension::slope:
+      return "slope";
+    case units::Dimension::temperature:
+      return "temperature";
+    case units::Dimension::pressure_head:
+      return "pressure head";
   }
   return "quantity";
 }
@@ -49,7 +65,8 @@ std::string TomlSection::dotted(std::string_view key) const {
 
 std::string TomlSection::where(const toml::node* node, std::string_view key) const {
   std::string out;
-  if (node && node->source().begin.line > 0) out = "line " + std::to_string(node->source().begin.line) + ": ";
+  if (node && node->source().begin.line > 0)
+    out = "line " + std::to_string(node->source().begin.line) + ": ";
   else if (table_ && table_->source().begin.line > 0)
     out = "line " + std::to_string(table_->source().begin.line) + ": ";
   return out + "key " + dotted(key);
@@ -109,8 +126,9 @@ std::optional<double> TomlSection::quantity(std::string_view key, units::Dimensi
   const toml::node* n = get(key);
   if (!n) return std::nullopt;
   if (!n->is_string())
-    fail_at(n, key, "expected a quantity string \"<number> <unit>\" (a " + std::string(dimension_name(expected)) +
-                        "), found " + std::string(type_name(*n)));
+    fail_at(n, key,
+            "expected a quantity string \"<number> <unit>\" (a " + std::string(dimension_name(expected)) + "), found " +
+                std::string(type_name(*n)));
   return parse_quantity(std::string(n->as_string()->get()), expected, file_ + ": " + where(n, key));
 }
 
@@ -140,8 +158,9 @@ FieldRef TomlSection::field_ref(std::string_view key, units::Dimension dimension
     return ref;
   }
   if (!n->is_table())
-    fail_at(n, key, "expected { field = \"NAME\", unit = \"...\" } (a " + std::string(dimension_name(dimension)) +
-                        " needs its unit), found " + std::string(type_name(*n)));
+    fail_at(n, key,
+            "expected { field = \"NAME\", unit = \"...\" } (a " + std::string(dimension_name(dimension)) +
+                " needs its unit), found " + std::string(type_name(*n)));
   TomlSection sub(n->as_table(), dotted(key), file_);
   const auto field = sub.string("field");
   if (!field || field->empty()) sub.fail("field", "the source field name is missing");

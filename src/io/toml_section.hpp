@@ -59,7 +59,8 @@ class TomlSection {
 
  private:
   const toml::node* get(std::string_view key);
-  [[noreturn]] void fail_choice(std::string_view key, const std::string& value, const std::vector<std::string>& names) const;
+  [[noreturn]] void fail_choice(std::string_view key, const std::string& value,
+                                const std::vector<std::string>& names) const;
   std::string dotted(std::string_view key) const;
 
   const toml::table* table_;

@@ -16,10 +16,14 @@ std::string_view trim(std::string_view s) {
 
 std::string_view unit_words(units::Unit u) {
   switch (u) {
-    case units::Unit::mm: return "millimetres";
-    case units::Unit::in: return "inches";
-    case units::Unit::m: return "metres";
-    default: return units::unit_symbol(u);
+    case units::Unit::mm:
+      return "millimetres";
+    case units::Unit::in:
+      return "inches";
+    case units::Unit::m:
+      return "metres";
+    default:
+      return units::unit_symbol(u);
   }
 }
 
@@ -111,8 +115,10 @@ void FeatureRef::add(std::string_view code, Severity s, const std::string& field
 std::optional<double> checked_number(const RawNumber& raw, const std::string& field, std::string_view consequence,
                                      const FeatureRef& who, Severity severity) {
   switch (raw.state) {
-    case RawNumber::State::null: return std::nullopt;
-    case RawNumber::State::number: return raw.value;
+    case RawNumber::State::null:
+      return std::nullopt;
+    case RawNumber::State::number:
+      return raw.value;
     case RawNumber::State::not_number:
       who.add("DATA_IMPLAUSIBLE", severity, field,
               field + " holds \"" + raw.text + "\", which is not a number; " + std::string(consequence) + ".");

@@ -25,10 +25,10 @@ RawNumber read_number(OGRFeature& f, int idx);
 // Trimmed text; nullopt when null, unset or blank.
 std::optional<std::string> read_text(OGRFeature& f, int idx);
 
-std::string format_number(double v);              // up to 10 significant digits, no trailing zeros
-std::string format_value(double raw, units::Unit u);  // "760 mm", "0.013"
+std::string format_number(double v);                   // up to 10 significant digits, no trailing zeros
+std::string format_value(double raw, units::Unit u);   // "760 mm", "0.013"
 std::string format_si(double si, units::Dimension d);  // "0.76 m", "0.25 m3/s"
-std::string format_fixed(double v, int decimals);       // rounded, trailing zeros dropped: "105.7"
+std::string format_fixed(double v, int decimals);      // rounded, trailing zeros dropped: "105.7"
 
 // Who a finding is about: the layer role and the feature's own id.
 struct FeatureRef {

@@ -15,16 +15,16 @@ namespace rimline::io {
 
 struct FieldSummary {
   std::string name;
-  std::string type;              // OGR field type: "Integer", "Integer64", "Real", "String", "DateTime", ...
-  std::size_t null_count = 0;    // null, unset or blank
-  std::size_t value_count = 0;   // the others
-  std::optional<double> min;     // numeric fields, and text fields whose every value is a number
+  std::string type;             // OGR field type: "Integer", "Integer64", "Real", "String", "DateTime", ...
+  std::size_t null_count = 0;   // null, unset or blank
+  std::size_t value_count = 0;  // the others
+  std::optional<double> min;    // numeric fields, and text fields whose every value is a number
   std::optional<double> max;
-  std::optional<double> median;  // of the first 10,000 numeric values
+  std::optional<double> median;           // of the first 10,000 numeric values
   std::optional<double> median_positive;  // of the first 10,000 values > 0
-  std::optional<double> zero_fraction;  // share of numeric values that are exactly 0
-  std::vector<std::string> samples;     // up to 3 distinct values, in reading order
-  std::optional<bool> unique;    // tracked for id-like names only: every non-null value distinct
+  std::optional<double> zero_fraction;    // share of numeric values that are exactly 0
+  std::vector<std::string> samples;       // up to 3 distinct values, in reading order
+  std::optional<bool> unique;             // tracked for id-like names only: every non-null value distinct
   // Lines only: median of value / plan length of the feature's line [m], a hint at the length unit.
   std::optional<double> median_ratio_to_line_length;
   bool numeric() const { return min.has_value(); }
@@ -32,12 +32,12 @@ struct FieldSummary {
 
 struct LayerSummary {
   std::string name;
-  std::string declared_geometry;                    // the layer's declared type, e.g. "Line String"
+  std::string declared_geometry;                       // the layer's declared type, e.g. "Line String"
   std::map<std::string, std::size_t> geometry_counts;  // observed: "LINESTRING" -> 2250, "(none)" -> 0 ...
-  std::string crs_name;                             // "" when the layer has no CRS
-  std::string crs_id;                               // "EPSG:4326", or "" when it has no code
+  std::string crs_name;                                // "" when the layer has no CRS
+  std::string crs_id;                                  // "EPSG:4326", or "" when it has no code
   bool crs_geographic = false;
-  std::string crs_linear_unit;                      // "metre", "US survey foot", ... (projected only)
+  std::string crs_linear_unit;  // "metre", "US survey foot", ... (projected only)
   double crs_metres_per_unit = 1.0;
   std::int64_t feature_count = 0;
   std::optional<double> min_x, min_y, max_x, max_y;  // extent in the layer's CRS
@@ -78,8 +78,8 @@ MappingProposal propose_mapping(const LayerSummary& layer);
 // A starter project file (TOML) for the user to edit: sources, the proposed mappings with their
 // reasons as comments, and defaults to review. It parses with parse_project as written.
 struct StarterLayer {
-  std::string source;                  // as the project file should say it (relative to the project)
-  const LayerSummary* layer = nullptr; // null: not present
+  std::string source;                   // as the project file should say it (relative to the project)
+  const LayerSummary* layer = nullptr;  // null: not present
 };
 std::string starter_project_toml(const StarterLayer& pipes, const StarterLayer& structures = {});
 

@@ -7,8 +7,8 @@ using namespace rimline::units;
 // Exact factors from NIST SP 811 (2008 ed.), Appendix B.8 unless noted. The checks use the
 // printed values, not the constants in units.hpp, so a mistyped constant fails here.
 TEST_CASE("length factors are the exact NIST SP 811 values", "[base][units]") {
-  CHECK(to_si(1.0, Unit::ft) == 0.3048);           // foot (international) = 3.048 E-01 m, exact
-  CHECK(to_si(1.0, Unit::in) == 0.0254);           // inch = 2.54 E-02 m, exact
+  CHECK(to_si(1.0, Unit::ft) == 0.3048);                               // foot (international) = 3.048 E-01 m, exact
+  CHECK(to_si(1.0, Unit::in) == 0.0254);                               // inch = 2.54 E-02 m, exact
   CHECK(to_si(3937.0, Unit::us_ft) == Approx(1200.0).epsilon(1e-15));  // B.6 note: 1 ft (US survey) = 1200/3937 m
   CHECK(to_si(1.0, Unit::us_ft) == Approx(3.048006e-1).epsilon(0).margin(1e-7));  // B.8: 3.048 006 E-01 m
   CHECK(to_si(1500.0, Unit::mm) == Approx(1.5).epsilon(1e-15));
@@ -16,16 +16,19 @@ TEST_CASE("length factors are the exact NIST SP 811 values", "[base][units]") {
 }
 
 TEST_CASE("flow, area and velocity factors match NIST SP 811", "[base][units]") {
-  CHECK(to_si(1.0, Unit::cfs) == Approx(2.831685e-2).epsilon(0).margin(1e-8));  // cubic foot per second = 2.831 685 E-02 m3/s
-  CHECK(to_si(1.0, Unit::gpm) == Approx(6.309020e-5).epsilon(0).margin(1e-11)); // gallon (U.S.) per minute = 6.309 020 E-05 m3/s
-  CHECK(to_si(1.0, Unit::mgd) == Approx(4.381264e-2).epsilon(0).margin(1e-8));  // 1e6 gal/day: gallon = 3.785 412 E-03 m3
+  CHECK(to_si(1.0, Unit::cfs) ==
+        Approx(2.831685e-2).epsilon(0).margin(1e-8));  // cubic foot per second = 2.831 685 E-02 m3/s
+  CHECK(to_si(1.0, Unit::gpm) ==
+        Approx(6.309020e-5).epsilon(0).margin(1e-11));  // gallon (U.S.) per minute = 6.309 020 E-05 m3/s
+  CHECK(to_si(1.0, Unit::mgd) ==
+        Approx(4.381264e-2).epsilon(0).margin(1e-8));  // 1e6 gal/day: gallon = 3.785 412 E-03 m3
   // acre = 43 560 ft2. With the international foot (the US definition since 2023, Federal Register
   // 85 FR 62698, from memory) that is 4046.856 422 4 m2 exactly; NIST SP 811 (2008) B.8 prints 4.046 873 E+03 because
   // it used the US survey foot then. rimline uses the international foot.
   CHECK(to_si(1.0, Unit::acre) == Approx(4046.8564224).epsilon(1e-14));
-  CHECK(to_si(1.0, Unit::ha) == 1.0e4);                              // hectare = 1.0 E+04 m2, exact
-  CHECK(to_si(1.0, Unit::ft_s) == 0.3048);                           // foot per second = 3.048 E-01 m/s, exact
-  CHECK(to_si(1.0, Unit::l_s) == Approx(1.0e-3).epsilon(1e-15));     // litre = 1.0 E-03 m3, exact
+  CHECK(to_si(1.0, Unit::ha) == 1.0e4);                           // hectare = 1.0 E+04 m2, exact
+  CHECK(to_si(1.0, Unit::ft_s) == 0.3048);                        // foot per second = 3.048 E-01 m/s, exact
+  CHECK(to_si(1.0, Unit::l_s) == Approx(1.0e-3).epsilon(1e-15));  // litre = 1.0 E-03 m3, exact
 }
 
 TEST_CASE("temperature and round trips", "[base][units]") {

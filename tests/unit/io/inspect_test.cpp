@@ -15,7 +15,8 @@ using rimline::test::FieldSpec;
 namespace {
 
 const io::FieldSummary& field(const io::LayerSummary& l, const std::string& name) {
-  const auto it = std::find_if(l.fields.begin(), l.fields.end(), [&](const io::FieldSummary& f) { return f.name == name; });
+  const auto it =
+      std::find_if(l.fields.begin(), l.fields.end(), [&](const io::FieldSummary& f) { return f.name == name; });
   REQUIRE(it != l.fields.end());
   return *it;
 }
@@ -47,10 +48,10 @@ TEST_CASE("inspecting the Melbourne export summarises its one layer", "[io][insp
   CHECK(*height.min == 0.0);
   CHECK(*height.max == 3400.0);
   CHECK(*height.zero_fraction == Approx(1.0 - 412.0 / 2252.0).epsilon(1e-12));  // README: 412 non-circular
-  CHECK(field(l, "MATERIAL").null_count == 4);   // measured (ogrinfo -sql agrees)
+  CHECK(field(l, "MATERIAL").null_count == 4);                                  // measured (ogrinfo -sql agrees)
   CHECK(field(l, "MXUNITID").unique == true);
   CHECK(field(l, "UNITID").unique == false);
-  CHECK(field(l, "UPSTREAM_IL").max == 999.5);   // README: sentinel 999.5
+  CHECK(field(l, "UPSTREAM_IL").max == 999.5);                                         // README: sentinel 999.5
   CHECK(field(l, "SERVICE_STATUS").samples == std::vector<std::string>{"IN", "WIP"});  // README: IN 2250, WIP 2
   CHECK_FALSE(field(l, "MXUNITID").numeric());
   // README: geometry length / PIPE_LENGTH has a median of 0.997; measured here against an
@@ -83,8 +84,8 @@ TEST_CASE("the proposed Melbourne mapping and starter project match the hand-wri
 TEST_CASE("US-unit names and values are recognised", "[io][inspect]") {
   const auto dir = test::fresh_dir("inspect_us");
   // EPSG:2227 is in US survey feet; LENGTH is in feet (3.28 x the line), DIAMETER in inches.
-  const std::vector<FieldSpec> pipe_fields{{"FACILITYID", OFTString}, {"US_NODE", OFTString}, {"DS_NODE", OFTString},
-                                           {"DIAMETER", OFTInteger},  {"LENGTH", OFTReal},    {"US_INV", OFTReal},
+  const std::vector<FieldSpec> pipe_fields{{"FACILITYID", OFTString}, {"US_NODE", OFTString},  {"DS_NODE", OFTString},
+                                           {"DIAMETER", OFTInteger},  {"LENGTH", OFTReal},     {"US_INV", OFTReal},
                                            {"DS_INV", OFTReal},       {"MANNINGS_N", OFTReal}, {"Q_CFS", OFTReal}};
   test::write_layer(dir / "net.gpkg", "GPKG", "mains", 2227, wkbLineString, pipe_fields,
                     {{"LINESTRING (0 0,100 0)", {"P1", "A", "B", "12", "100", "50", "49", "0.013", "2"}},
@@ -125,9 +126,9 @@ TEST_CASE("US-unit names and values are recognised", "[io][inspect]") {
   CHECK(unit_of(pm, "id") == "FACILITYID:");
   CHECK(unit_of(pm, "from") == "US_NODE:");
   CHECK(unit_of(pm, "to") == "DS_NODE:");
-  CHECK(unit_of(pm, "diameter") == "DIAMETER:in");      // median 18 looks like inches
-  CHECK(unit_of(pm, "length") == "LENGTH:ft");          // 100 ftUS lines, LENGTH 100: ratio 3.28 to metres
-  CHECK(unit_of(pm, "invert_up") == "US_INV:ft");       // as the length field
+  CHECK(unit_of(pm, "diameter") == "DIAMETER:in");  // median 18 looks like inches
+  CHECK(unit_of(pm, "length") == "LENGTH:ft");      // 100 ftUS lines, LENGTH 100: ratio 3.28 to metres
+  CHECK(unit_of(pm, "invert_up") == "US_INV:ft");   // as the length field
   CHECK(unit_of(pm, "invert_down") == "DS_INV:ft");
   CHECK(unit_of(pm, "manning_n") == "MANNINGS_N:");
   CHECK(unit_of(pm, "flow") == "Q_CFS:cfs");
@@ -135,7 +136,7 @@ TEST_CASE("US-unit names and values are recognised", "[io][inspect]") {
   CHECK(sm.kind == io::LayerKind::structures);
   CHECK(unit_of(sm, "id") == "MH_ID:");
   CHECK(unit_of(sm, "type") == "STRUCT_TYPE:");
-  CHECK(unit_of(sm, "rim") == "RIM_ELEV:us_ft");        // no length field: the CRS's unit
+  CHECK(unit_of(sm, "rim") == "RIM_ELEV:us_ft");  // no length field: the CRS's unit
   CHECK(unit_of(sm, "invert") == "INV_ELEV:us_ft");
   // The starter project for both layers parses and reads.
   const std::string toml = io::starter_project_toml({"net.gpkg", &mains}, {"net.gpkg", &s.layers[1]});
@@ -148,11 +149,12 @@ TEST_CASE("US-unit names and values are recognised", "[io][inspect]") {
   CHECK(*r.network.structures[0].rim_m == Approx(60.0 * 1200.0 / 3937.0).epsilon(1e-15));
   CHECK(r.input_files == std::vector<std::string>{(dir / "net.gpkg").string()});  // one file, listed once
   // Without a layer name, a source of two layers is ambiguous.
-  CHECK_THROWS_WITH(io::read_network(io::parse_project("[pipes]\nsource = \"net.gpkg\"\n[pipes.defaults]\n"
-                                                       "diameter = \"1 m\"\nmanning_n = 0.013\n",
-                                                       (dir / "run.toml").string())),
-                    (dir / "net.gpkg").string() +
-                        ": the pipes source has 2 layers (\"mains\", \"manholes\"); name one with layer = \"...\" in [pipes]");
+  CHECK_THROWS_WITH(
+      io::read_network(io::parse_project("[pipes]\nsource = \"net.gpkg\"\n[pipes.defaults]\n"
+                                         "diameter = \"1 m\"\nmanning_n = 0.013\n",
+                                         (dir / "run.toml").string())),
+      (dir / "net.gpkg").string() +
+          ": the pipes source has 2 layers (\"mains\", \"manholes\"); name one with layer = \"...\" in [pipes]");
 }
 
 TEST_CASE("inspecting a source that is not there is an input error", "[io][inspect]") {

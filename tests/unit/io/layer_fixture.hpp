@@ -31,9 +31,9 @@ inline std::filesystem::path fresh_dir(const std::string& name) {
 }
 
 // epsg 0 = no CRS. Returns the path written.
-inline std::string write_layer(const std::filesystem::path& path, const char* driver_name, const std::string& layer_name,
-                               int epsg, OGRwkbGeometryType type, const std::vector<FieldSpec>& fields,
-                               const std::vector<Row>& rows) {
+inline std::string write_layer(const std::filesystem::path& path, const char* driver_name,
+                               const std::string& layer_name, int epsg, OGRwkbGeometryType type,
+                               const std::vector<FieldSpec>& fields, const std::vector<Row>& rows) {
   GDALAllRegister();
   GDALDriver* driver = GetGDALDriverManager()->GetDriverByName(driver_name);
   REQUIRE(driver != nullptr);
@@ -53,8 +53,10 @@ inline std::string write_layer(const std::filesystem::path& path, const char* dr
   for (const auto& r : rows) {
     OGRFeatureUniquePtr feature(OGRFeature::CreateFeature(layer->GetLayerDefn()));
     for (std::size_t i = 0; i < fields.size() && i < r.values.size(); ++i) {
-      if (r.values[i]) feature->SetField(static_cast<int>(i), r.values[i]->c_str());
-      else feature->SetFieldNull(static_cast<int>(i));
+      if (r.values[i])
+        feature->SetField(static_cast<int>(i), r.values[i]->c_str());
+      else
+        feature->SetFieldNull(static_cast<int>(i));
     }
     if (!r.wkt.empty()) {
       OGRGeometry* g = nullptr;

@@ -84,7 +84,8 @@ TEST_CASE("Melbourne: sections, pressure mains and usable pipes", "[io][melbourn
   CHECK(std::count_if(n.conduits.begin(), n.conduits.end(),
                       [](const model::Conduit& c) { return c.section.shape == hydraulics::Shape::box; }) == 412);
   // README: UNITTYPE "RM = RISING MAIN 81", "EO-RM 27".
-  CHECK(std::count_if(n.conduits.begin(), n.conduits.end(), [](const model::Conduit& c) { return c.force_main; }) == 108);
+  CHECK(std::count_if(n.conduits.begin(), n.conduits.end(), [](const model::Conduit& c) { return c.force_main; }) ==
+        108);
   CHECK(std::count_if(n.conduits.begin(), n.conduits.end(), [](const model::Conduit& c) { return !c.usable; }) == 3);
   // The README's sample feature MRM062-MRM061: 760 mm circular, inverts 8.347 / 8.2 m, length 105.69 m.
   const auto it = std::find_if(n.conduits.begin(), n.conduits.end(),

@@ -146,7 +146,8 @@ TEST_CASE("unknown keys are errors with a suggestion", "[io][project]") {
 }
 
 TEST_CASE("values of the wrong type are errors", "[io][project]") {
-  CHECK(error_of("[pipes]\nsource = 3\n") == "/proj/run.toml: line 2: key pipes.source: expected a string, found an integer");
+  CHECK(error_of("[pipes]\nsource = 3\n") ==
+        "/proj/run.toml: line 2: key pipes.source: expected a string, found an integer");
   CHECK(error_of("[pipes]\nsource = \"p.shp\"\nsnap_tolerance = 0.5\n") ==
         "/proj/run.toml: line 3: key pipes.snap_tolerance: expected a quantity string \"<number> <unit>\" (a length), "
         "found a number");

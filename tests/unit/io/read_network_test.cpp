@@ -19,7 +19,8 @@ namespace {
 // Messages of the findings (quantities rendered in SI), by feature id, in the order produced.
 std::map<std::string, std::vector<std::string>> by_feature(const Findings& findings) {
   std::map<std::string, std::vector<std::string>> out;
-  for (const auto& f : findings) out[f.feature_id].push_back(f.code + " " + render_message(f.message, units::System::si));
+  for (const auto& f : findings)
+    out[f.feature_id].push_back(f.code + " " + render_message(f.message, units::System::si));
   return out;
 }
 
@@ -30,7 +31,7 @@ const model::Conduit& conduit(const model::Network& n, const std::string& id) {
   return n.conduits.front();
 }
 
-const std::vector<FieldSpec> catalogue_fields{{"ID", OFTString},   {"SHAPE", OFTString}, {"DIA_MM", OFTInteger},
+const std::vector<FieldSpec> catalogue_fields{{"ID", OFTString},    {"SHAPE", OFTString}, {"DIA_MM", OFTInteger},
                                               {"W_MM", OFTInteger}, {"H_MM", OFTInteger}, {"US_IL", OFTReal},
                                               {"DS_IL", OFTReal},   {"LEN", OFTReal},     {"N", OFTReal}};
 
@@ -98,31 +99,44 @@ TEST_CASE("each data problem of a pipe becomes one finding with a fixed message"
 
   using V = std::vector<std::string>;
   CHECK(f.count("box") == 0);
-  CHECK(f.at("sentinel") == V{"DATA_IMPLAUSIBLE US_IL 999.5 m is at or above 900 m, a no-data sentinel; the upstream invert is unknown."});
-  CHECK(f.at("zero_invert") == V{"DATA_IMPLAUSIBLE DS_IL is exactly 0, a common placeholder for a missing level; the downstream invert is unknown."});
+  CHECK(f.at("sentinel") ==
+        V{"DATA_IMPLAUSIBLE US_IL 999.5 m is at or above 900 m, a no-data sentinel; the upstream invert is unknown."});
+  CHECK(f.at("zero_invert") == V{"DATA_IMPLAUSIBLE DS_IL is exactly 0, a common placeholder for a missing level; the "
+                                 "downstream invert is unknown."});
   CHECK(f.at("null_invert") == V{"DATA_MISSING US_IL is empty; the upstream invert is unknown."});
-  CHECK(f.at("inches") == V{"DATA_IMPLAUSIBLE DIA_MM 12 mm is smaller than the plausible 30 mm (it looks like a value in inches); the pipe is left out of the analysis."});
-  CHECK(f.at("huge") == V{"DATA_IMPLAUSIBLE DIA_MM 15000 mm is larger than the plausible 10000 mm; the pipe is left out of the analysis."});
-  CHECK(f.at("zero_dia") == V{"DATA_IMPLAUSIBLE DIA_MM 0 mm is not a positive size; the pipe is left out of the analysis."});
+  CHECK(f.at("inches") == V{"DATA_IMPLAUSIBLE DIA_MM 12 mm is smaller than the plausible 30 mm (it looks like a value "
+                            "in inches); the pipe is left out of the analysis."});
+  CHECK(f.at("huge") == V{"DATA_IMPLAUSIBLE DIA_MM 15000 mm is larger than the plausible 10000 mm; the pipe is left "
+                          "out of the analysis."});
+  CHECK(f.at("zero_dia") ==
+        V{"DATA_IMPLAUSIBLE DIA_MM 0 mm is not a positive size; the pipe is left out of the analysis."});
   CHECK(f.at("null_dia") == V{"DATA_MISSING DIA_MM is empty; the pipe is left out of the analysis."});
-  CHECK(f.at("bad_n") == V{"DATA_IMPLAUSIBLE N 0.13 is outside the plausible 0.008 to 0.05; n = 0.013 from [pipes.defaults] manning_n is used."});
-  CHECK(f.at("long") == V{"DATA_IMPLAUSIBLE LEN 150 m differs from the geometry length 100.000 m by more than 20 %; the geometry length is used."});
+  CHECK(f.at("bad_n") == V{"DATA_IMPLAUSIBLE N 0.13 is outside the plausible 0.008 to 0.05; n = 0.013 from "
+                           "[pipes.defaults] manning_n is used."});
+  CHECK(f.at("long") == V{"DATA_IMPLAUSIBLE LEN 150 m differs from the geometry length 100.000 m by more than 20 %; "
+                          "the geometry length is used."});
   CHECK(f.at("zero_len") == V{"DATA_IMPLAUSIBLE LEN 0 m is not positive; the geometry length 100.000 m is used."});
   CHECK(f.at("no_geom") == V{"DATA_GEOMETRY The pipe has no geometry; it is left out of the analysis."});
   CHECK(f.at("point") == V{"DATA_GEOMETRY The geometry is a POINT, not a line; the pipe is left out of the analysis."});
   CHECK(f.at("degenerate") == V{"DATA_GEOMETRY The line has zero length; the pipe is left out of the analysis."});
   // The second "ok" (fid 15) repeats the id of fid 1.
-  CHECK(f.at("ok") == V{"DATA_DUPLICATE_ID The id \"ok\" is also used by fid 1; both pipes are kept, so results under this id are ambiguous."});
+  CHECK(f.at("ok") == V{"DATA_DUPLICATE_ID The id \"ok\" is also used by fid 1; both pipes are kept, so results under "
+                        "this id are ambiguous."});
   CHECK(f.at("fid 16") == V{"DATA_MISSING ID is empty; the pipe is reported as \"fid 16\"."});
-  CHECK(f.at("egg") == V{"DATA_IMPLAUSIBLE SHAPE \"EGG\" is not listed in [pipes.shapes]; the pipe is left out of the analysis."});
-  CHECK(f.at("merged") == V{"DATA_GEOMETRY The MULTILINESTRING's 2 parts join end to end and were merged into one line.",
-                            "DATA_MISSING LEN is empty; the geometry length 100.200 m is used."});
-  CHECK(f.at("gap") == V{"DATA_GEOMETRY The MULTILINESTRING has 2 parts that do not join end to end within the snap tolerance of 0.500 m (gap 10.000 m); the pipe is left out of the analysis."});
+  CHECK(f.at("egg") ==
+        V{"DATA_IMPLAUSIBLE SHAPE \"EGG\" is not listed in [pipes.shapes]; the pipe is left out of the analysis."});
+  CHECK(f.at("merged") ==
+        V{"DATA_GEOMETRY The MULTILINESTRING's 2 parts join end to end and were merged into one line.",
+          "DATA_MISSING LEN is empty; the geometry length 100.200 m is used."});
+  CHECK(f.at("gap") == V{"DATA_GEOMETRY The MULTILINESTRING has 2 parts that do not join end to end within the snap "
+                         "tolerance of 0.500 m (gap 10.000 m); the pipe is left out of the analysis."});
   CHECK(f.at("null_n") == V{"DATA_MISSING N is empty; n = 0.013 from [pipes.defaults] manning_n is used."});
   CHECK(r.findings.size() == 20);
   // Computed quantities travel as q() tokens, so a US report shows them in feet.
-  const auto long_finding = std::find_if(r.findings.begin(), r.findings.end(), [](const Finding& x) { return x.feature_id == "long"; });
-  CHECK(long_finding->message == "LEN 150 m differs from the geometry length {{100|L}} by more than 20 %; the geometry length is used.");
+  const auto long_finding =
+      std::find_if(r.findings.begin(), r.findings.end(), [](const Finding& x) { return x.feature_id == "long"; });
+  CHECK(long_finding->message ==
+        "LEN 150 m differs from the geometry length {{100|L}} by more than 20 %; the geometry length is used.");
   CHECK(render_message(long_finding->message, units::System::us) ==
         "LEN 150 m differs from the geometry length 328.084 ft by more than 20 %; the geometry length is used.");
   CHECK(long_finding->value == 150.0);
@@ -133,7 +147,8 @@ TEST_CASE("each data problem of a pipe becomes one finding with a fixed message"
 
   for (const char* out : {"inches", "huge", "zero_dia", "null_dia", "no_geom", "point", "degenerate", "egg", "gap"})
     CHECK_FALSE(conduit(r.network, out).usable);
-  for (const char* kept : {"ok", "sentinel", "zero_invert", "null_invert", "bad_n", "long", "zero_len", "box", "merged", "null_n"})
+  for (const char* kept :
+       {"ok", "sentinel", "zero_invert", "null_invert", "bad_n", "long", "zero_len", "box", "merged", "null_n"})
     CHECK(conduit(r.network, kept).usable);
 
   const auto& ok = conduit(r.network, "ok");
@@ -164,13 +179,15 @@ TEST_CASE("each data problem of a pipe becomes one finding with a fixed message"
 
 TEST_CASE("US customary fields are converted to SI once, on reading", "[io][read]") {
   const auto dir = test::fresh_dir("us_units");
-  const std::vector<FieldSpec> fields{{"ID", OFTString},    {"DIA_IN", OFTReal}, {"US_FT", OFTReal}, {"DS_FT", OFTReal},
-                                      {"LEN_FT", OFTReal},  {"Q_CFS", OFTReal},  {"MAT", OFTString}, {"UP", OFTString},
-                                      {"DN", OFTString},    {"KIND", OFTString}};
+  const std::vector<FieldSpec> fields{{"ID", OFTString},   {"DIA_IN", OFTReal}, {"US_FT", OFTReal}, {"DS_FT", OFTReal},
+                                      {"LEN_FT", OFTReal}, {"Q_CFS", OFTReal},  {"MAT", OFTString}, {"UP", OFTString},
+                                      {"DN", OFTString},   {"KIND", OFTString}};
   // 30.48 m = 100 ft exactly (NIST SP 811, 2008 ed., B.8).
-  test::write_layer(dir / "p.gpkg", "GPKG", "p", 32755, wkbUnknown, fields,
-                    {{"LINESTRING Z (0 0 5,30.48 0 4)", {"P1", "12", "100", "99.5", "100", "10", "RC", "MH1", "MH2", "RM"}},
-                     {"LINESTRING (0 10,30.48 10)", {"P2", "18", "100", "99", "100", std::nullopt, "PVC", std::nullopt, "MH3", "G"}}});
+  test::write_layer(
+      dir / "p.gpkg", "GPKG", "p", 32755, wkbUnknown, fields,
+      {{"LINESTRING Z (0 0 5,30.48 0 4)", {"P1", "12", "100", "99.5", "100", "10", "RC", "MH1", "MH2", "RM"}},
+       {"LINESTRING (0 10,30.48 10)",
+        {"P2", "18", "100", "99", "100", std::nullopt, "PVC", std::nullopt, "MH3", "G"}}});
   const io::Project project = io::parse_project(R"(
 [pipes]
 source = "p.gpkg"
@@ -237,16 +254,18 @@ TEST_CASE("a mapped field missing from the layer stops the run with a suggestion
     FAIL("no error");
   } catch (const Error& e) {
     CHECK(e.kind() == ErrorKind::bad_config);
-    CHECK(std::string(e.what()) ==
-          src + ":p:field DIAMETR: the field mapped by pipes.fields.diameter is not in the layer; did you mean \"DIAMETER\"?");
+    CHECK(std::string(e.what()) == src +
+                                       ":p:field DIAMETR: the field mapped by pipes.fields.diameter is not in the "
+                                       "layer; did you mean \"DIAMETER\"?");
   }
   const io::Project wrong_layer = io::parse_project(
       "[pipes]\nsource = \"p.gpkg\"\nlayer = \"q\"\n[pipes.defaults]\nmanning_n = 0.013\ndiameter = \"300 mm\"\n",
       (dir / "run.toml").string());
-  CHECK_THROWS_WITH(io::read_network(wrong_layer), src + ": no layer \"q\" in the pipes source (layers: \"p\"); did you mean \"p\"?");
-  const io::Project no_file = io::parse_project(
-      "[pipes]\nsource = \"none.gpkg\"\n[pipes.defaults]\nmanning_n = 0.013\ndiameter = \"300 mm\"\n",
-      (dir / "run.toml").string());
+  CHECK_THROWS_WITH(io::read_network(wrong_layer),
+                    src + ": no layer \"q\" in the pipes source (layers: \"p\"); did you mean \"p\"?");
+  const io::Project no_file =
+      io::parse_project("[pipes]\nsource = \"none.gpkg\"\n[pipes.defaults]\nmanning_n = 0.013\ndiameter = \"300 mm\"\n",
+                        (dir / "run.toml").string());
   try {
     io::read_network(no_file);
     FAIL("no error");
@@ -261,30 +280,36 @@ TEST_CASE("a project that cannot size or roughen pipes is refused before reading
   test::write_layer(dir / "p.gpkg", "GPKG", "p", 32755, wkbLineString, {{"ID", OFTString}},
                     {{"LINESTRING (0 0,1 1)", {"a"}}});
   const auto run = (dir / "run.toml").string();
-  CHECK_THROWS_WITH(io::read_network(io::parse_project("[pipes]\nsource = \"p.gpkg\"\n[pipes.defaults]\nmanning_n = 0.013\n", run)),
-                    run + ": circular pipes need a diameter: map pipes.fields.diameter or set pipes.defaults.diameter");
-  CHECK_THROWS_WITH(io::read_network(io::parse_project("[pipes]\nsource = \"p.gpkg\"\n[pipes.defaults]\ndiameter = \"1 m\"\n", run)),
-                    run + ": methods.friction is \"manning\" but no Manning n is given: map pipes.fields.manning_n or set "
-                          "pipes.defaults.manning_n or [pipes.defaults.manning_n_by_material]");
+  CHECK_THROWS_WITH(
+      io::read_network(io::parse_project("[pipes]\nsource = \"p.gpkg\"\n[pipes.defaults]\nmanning_n = 0.013\n", run)),
+      run + ": circular pipes need a diameter: map pipes.fields.diameter or set pipes.defaults.diameter");
+  CHECK_THROWS_WITH(
+      io::read_network(io::parse_project("[pipes]\nsource = \"p.gpkg\"\n[pipes.defaults]\ndiameter = \"1 m\"\n", run)),
+      run +
+          ": methods.friction is \"manning\" but no Manning n is given: map pipes.fields.manning_n or set "
+          "pipes.defaults.manning_n or [pipes.defaults.manning_n_by_material]");
 }
 
 TEST_CASE("a CSV with WKT geometry, text numbers and no CRS", "[io][read]") {
   const auto dir = test::fresh_dir("csv");
   {
     std::ofstream csv(dir / "pipes.csv");
-    csv << "WKT,ID,DIA\n\"LINESTRING (0 0,3 4)\",a,375\n\"LINESTRING (3 4,6 8)\",b,abc\n\"LINESTRING (6 8,9 12)\",c,inf\n";
+    csv << "WKT,ID,DIA\n\"LINESTRING (0 0,3 4)\",a,375\n\"LINESTRING (3 4,6 8)\",b,abc\n\"LINESTRING (6 8,9 "
+           "12)\",c,inf\n";
   }
-  const std::string text = "[pipes]\nsource = \"pipes.csv\"\n[pipes.fields]\nid = \"ID\"\n"
-                           "diameter = { field = \"DIA\", unit = \"mm\" }\n[pipes.defaults]\nmanning_n = 0.013\n";
+  const std::string text =
+      "[pipes]\nsource = \"pipes.csv\"\n[pipes.fields]\nid = \"ID\"\n"
+      "diameter = { field = \"DIA\", unit = \"mm\" }\n[pipes.defaults]\nmanning_n = 0.013\n";
   const auto run = (dir / "run.toml").string();
   try {
     io::read_network(io::parse_project(text, run));
     FAIL("no error");
   } catch (const Error& e) {
     CHECK(e.kind() == ErrorKind::bad_input);
-    CHECK(std::string(e.what()) == (dir / "pipes.csv").string() +
-                                       ":pipes: the layer has no CRS; set crs = \"EPSG:....\" in [project] to say which one "
-                                       "its coordinates are in");
+    CHECK(std::string(e.what()) ==
+          (dir / "pipes.csv").string() +
+              ":pipes: the layer has no CRS; set crs = \"EPSG:....\" in [project] to say which one "
+              "its coordinates are in");
   }
   const io::ReadResult r = io::read_network(io::parse_project("[project]\ncrs = \"EPSG:28355\"\n" + text, run));
   REQUIRE(r.network.conduits.size() == 3);

@@ -14,8 +14,9 @@ TEST_CASE("structure values are converted and their problems become findings", "
   const auto dir = test::fresh_dir("structures");
   test::write_layer(dir / "p.gpkg", "GPKG", "p", 32755, wkbLineString, {{"ID", OFTString}},
                     {{"LINESTRING (0 0,100 0)", {"a"}}});
-  const std::vector<FieldSpec> fields{{"MH", OFTString}, {"KIND", OFTString}, {"RIM_FT", OFTReal}, {"INV_FT", OFTReal},
-                                      {"DIA_MM", OFTInteger}, {"K", OFTReal}, {"Q", OFTReal}, {"TW", OFTReal}};
+  const std::vector<FieldSpec> fields{{"MH", OFTString},   {"KIND", OFTString},    {"RIM_FT", OFTReal},
+                                      {"INV_FT", OFTReal}, {"DIA_MM", OFTInteger}, {"K", OFTReal},
+                                      {"Q", OFTReal},      {"TW", OFTReal}};
   auto row = [](std::string id, std::map<int, std::optional<std::string>> change = {},
                 std::string wkt = "POINT (0 0)") {
     Row r{std::move(wkt), {id, "MH", "100", "90", "1200", "0.5", "10", std::nullopt}};
@@ -78,14 +79,18 @@ loss_k = 0.5
   }
   using V = std::vector<std::string>;
   CHECK(f.at("OF1") == V{"DATA_MISSING RIM_FT is empty; the rim is unknown."});
-  CHECK(f.at("odd") == V{"DATA_IMPLAUSIBLE KIND \"ZZ\" is not listed in [structures.types]; the structure is taken as a manhole."});
-  CHECK(f.at("sentinel") == V{"DATA_IMPLAUSIBLE RIM_FT 9999 ft is at or above 2952.755906 ft, a no-data sentinel; the rim is unknown."});
-  CHECK(f.at("wide") == V{"DATA_IMPLAUSIBLE DIA_MM 50000 mm is larger than the plausible 30000 mm; the default diameter 1.200 m is used."});
+  CHECK(f.at("odd") ==
+        V{"DATA_IMPLAUSIBLE KIND \"ZZ\" is not listed in [structures.types]; the structure is taken as a manhole."});
+  CHECK(f.at("sentinel") ==
+        V{"DATA_IMPLAUSIBLE RIM_FT 9999 ft is at or above 2952.755906 ft, a no-data sentinel; the rim is unknown."});
+  CHECK(f.at("wide") == V{"DATA_IMPLAUSIBLE DIA_MM 50000 mm is larger than the plausible 30000 mm; the default "
+                          "diameter 1.200 m is used."});
   CHECK(f.at("negative_k") == V{"DATA_IMPLAUSIBLE K -1 is outside the plausible 0 to 10; the default K 0.5 is used."});
   CHECK(f.at("outflow") == V{"DATA_IMPLAUSIBLE Q -5 L/s is negative; the structure has no local inflow."});
   CHECK(f.at("no_geom") == V{"DATA_GEOMETRY The structure has no geometry; it is left out."});
   CHECK(f.at("line") == V{"DATA_GEOMETRY The geometry is a LINESTRING, not a point; the structure is left out."});
-  CHECK(f.at("MH1") == V{"DATA_DUPLICATE_ID The id \"MH1\" is also used by fid 1; both structures are kept, so pipes that name this id are ambiguous."});
+  CHECK(f.at("MH1") == V{"DATA_DUPLICATE_ID The id \"MH1\" is also used by fid 1; both structures are kept, so pipes "
+                         "that name this id are ambiguous."});
   CHECK(f.at("no_k") == V{"DATA_MISSING K is empty; the default K 0.5 is used."});
   CHECK(r.findings.size() == 10);
   // Defaults are counted: the diameter once (wide), K twice (negative_k, no_k).

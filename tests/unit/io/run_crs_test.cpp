@@ -45,7 +45,8 @@ TEST_CASE("a geographic pipe layer is reprojected to the UTM zone of its extent 
   CHECK(c.up_point.y == Approx(5812911.6995).epsilon(0).margin(1e-3));
   CHECK(c.down_point.x == Approx(321303.1931).epsilon(0).margin(1e-3));
   CHECK(c.down_point.y == Approx(5813324.3996).epsilon(0).margin(1e-3));
-  CHECK(c.geometry_length_m == Approx(std::hypot(321303.1931 - 320704.4463, 5813324.3996 - 5812911.6995)).epsilon(0).margin(2e-3));
+  CHECK(c.geometry_length_m ==
+        Approx(std::hypot(321303.1931 - 320704.4463, 5813324.3996 - 5812911.6995)).epsilon(0).margin(2e-3));
   CHECK(r.network.crs_description == "WGS 84 / UTM zone 55S");
   CHECK(r.network.crs_note ==
         "The pipe layer's CRS WGS 84 (EPSG:4326) is geographic; coordinates were reprojected to WGS 84 / UTM zone 55S "
@@ -80,11 +81,11 @@ TEST_CASE("structures in another CRS are moved into the pipes' run CRS", "[io][c
                     {{"LINESTRING (320704.4463 5812911.6995,321303.1931 5813324.3996)", {"a"}}});
   test::write_layer(dir / "s.geojson", "GeoJSON", "s", 4326, wkbPoint, {{"MH", OFTString}},
                     {{"POINT (144.9631 -37.8136)", {"MH1"}}});
-  const io::Project with_structures =
-      io::parse_project("[structures]\nsource = \"s.geojson\"\n[structures.fields]\nid = \"MH\"\n[pipes]\nsource = "
-                        "\"p.gpkg\"\n[pipes.fields]\nid = \"ID\"\n[pipes.defaults]\ndiameter = \"300 mm\"\n"
-                        "manning_n = 0.013\n",
-                        (dir / "run.toml").string());
+  const io::Project with_structures = io::parse_project(
+      "[structures]\nsource = \"s.geojson\"\n[structures.fields]\nid = \"MH\"\n[pipes]\nsource = "
+      "\"p.gpkg\"\n[pipes.fields]\nid = \"ID\"\n[pipes.defaults]\ndiameter = \"300 mm\"\n"
+      "manning_n = 0.013\n",
+      (dir / "run.toml").string());
   const io::ReadResult r = io::read_network(with_structures);
   REQUIRE(r.network.structures.size() == 1);
   // Same cs2cs reference as the reprojection case above.
