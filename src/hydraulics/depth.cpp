@@ -17,7 +17,7 @@ namespace {
 constexpr double g = units::gravity_m_s2;
 constexpr int max_iterations = 200;
 
-double depth_tolerance(const Section& s) { return std::fmax(1e-7, 1e-9 * rise_m(s)); }
+double depth_tolerance(const Section& s) { return 1e-10 * rise_m(s); }
 
 void require_flow(double q) {
   if (!std::isfinite(q) || q < 0.0)

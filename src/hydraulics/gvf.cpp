@@ -107,6 +107,7 @@ struct Joined {
   std::size_t super_from = 0;  // index of the first node belonging to the supercritical branch
   bool has_super = false;
   bool ok = true;
+  std::string note;
 };
 
 double force_gap(const PreparedReach& r, const Branch& sub, const Branch& sup, double x) {
@@ -213,11 +214,18 @@ Joined join(const PreparedReach& r, const Branch& sub, const Branch* sup) {
   j.nodes.push_back(sub_at);
   j.super_from = j.nodes.size();
   j.has_super = true;
-  j.nodes.push_back(sup_at);
+  // A jump loses energy. Where round-off (conjugate depths within a hair of critical) would make
+  // the supercritical side's energy the lower one, its sections are dropped until the energy
+  // line rises again, so the EGL never climbs in the flow direction.
+  const double head_sub = detail::total_head(r, sub_at);
+  std::vector<Node> upstream{sup_at};
   for (auto it = sup->nodes.rbegin(); it != sup->nodes.rend(); ++it)
-    if (it->x > *jump) j.nodes.push_back(*it);
+    if (it->x > *jump) upstream.push_back(*it);
+  std::size_t first = 0;
+  while (first < upstream.size() && detail::total_head(r, upstream[first]) < head_sub) ++first;
+  j.nodes.insert(j.nodes.end(), upstream.begin() + static_cast<std::ptrdiff_t>(first), upstream.end());
   j.jump_x = *jump;
-  j.jump_loss = std::max(0.0, detail::total_head(r, sup_at) - detail::total_head(r, sub_at));
+  if (first == 0) j.jump_loss = detail::total_head(r, sup_at) - head_sub;
   return j;
 }
 }  // namespace
@@ -236,18 +244,20 @@ ConduitProfile compute_profile(const ConduitReach& reach, double downstream_leve
     const DepthSolve yn = normal_depth(r.roughness, r.section, r.flow, r.slope);
     r.has_normal = yn.exists;
     r.yn = yn.depth_m;
+    r.near_critical_slope = yn.exists && yc.exists && std::fabs(r.yn - r.yc) <= 0.01 * r.yc;
   }
   const double outlet_depth = downstream_level_m - r.z_down;
-  const bool free_outlet = yc.exists && outlet_depth < r.yc;
+  const bool free_outlet = outlet_depth < r.yc;
   std::string note;
 
-  // Controls. Above full capacity (or with critical depth above the rise) no free surface can
-  // carry the flow: the conduit runs full from the outlet crown or the tailwater, whichever is higher.
+  // Controls. Above full capacity no free surface can carry the flow: the conduit runs full from
+  // the outlet crown or the tailwater, whichever is higher. With critical depth above the rise no
+  // subcritical free surface exists: the outlet runs full, and a steep conduit runs supercritical
+  // from a soffit-high inlet (the supercritical branch below starts at r.yc = rise).
   Node start;
   const bool over_capacity = r.slope > 0.0 && r.flow > q_full;
   if (over_capacity || outlet_depth >= r.rise || !yc.exists) {
     start = {0.0, r.rise, std::max(downstream_level_m, r.crown(0.0)), true};
-    if (!yc.exists) note = "critical depth lies above the rise: treated as full flow";
   } else {
     const double y0 = std::max(outlet_depth, r.yc);
     start = {0.0, y0, r.invert(0.0) + y0, false};
@@ -256,12 +266,13 @@ ConduitProfile compute_profile(const ConduitReach& reach, double downstream_leve
   // the jump lies downstream and the subcritical march can stop.
   Branch sup;
   bool has_sup = false;
-  if (!over_capacity && yc.exists) {
+  if (!over_capacity) {
     const double given = options.inlet_supercritical_depth_m;
-    if (std::isfinite(given) && given > 0.0 && given < r.yc) {
+    const double band = r.near_critical_slope ? 0.01 * r.yc : 0.0;
+    if (std::isfinite(given) && given > 0.0 && given < r.yc - band) {
       sup = detail::march_supercritical(r, {r.length, given, r.invert(r.length) + given, false});
       has_sup = true;
-    } else if (r.has_normal && r.yn < r.yc) {  // steep: critical depth at the inlet
+    } else if (r.has_normal && r.yn < r.yc && !r.near_critical_slope) {  // steep: critical depth at the inlet
       sup = detail::march_supercritical(r, {r.length, r.yc, r.invert(r.length) + r.yc, false});
       has_sup = true;
     }
@@ -273,7 +284,20 @@ ConduitProfile compute_profile(const ConduitReach& reach, double downstream_leve
       return n.x > sup_bottom && n.x < r.length && detail::specific_force_at(r, n) < detail::specific_force_at(r, interpolated(sup, n.x));
     };
   }
+  if (has_sup && sup.end == detail::BranchEnd::critical && r.near_critical_slope) {
+    // An S3/M3 curve met critical depth on its way to a normal depth barely off it: uniform flow
+    // is taken from there to the outlet.
+    note = "near-critical slope: uniform flow assumed downstream of station " + std::to_string(sup.far_x()) + " m";
+    sup.nodes.push_back({0.0, r.yn, r.invert(0.0) + r.yn, false});
+    sup.end = detail::BranchEnd::reached_end;
+  }
   Branch sub = over_capacity ? Branch{} : detail::march_subcritical(r, start, below_super);
+  if (sub.end == detail::BranchEnd::critical && r.has_normal && (r.yn >= r.yc || r.near_critical_slope) && !has_sup) {
+    // Likewise an M1/C1 curve that met critical depth on its way to a normal depth barely above it.
+    note = "near-critical slope: uniform flow assumed upstream of station " + std::to_string(sub.far_x()) + " m";
+    sub.nodes.push_back({r.length, r.yn, r.invert(r.length) + r.yn, false});
+    sub.end = detail::BranchEnd::reached_end;
+  }
   if (over_capacity) {
     sub.nodes = {start, {r.length, r.rise, start.hgl + r.sf_full * r.length, true}};
     note = "flow exceeds the full-flow capacity at this slope: the conduit runs surcharged";
@@ -287,7 +311,7 @@ ConduitProfile compute_profile(const ConduitReach& reach, double downstream_leve
   p.steps = sub.steps + (has_sup ? sup.steps : 0);
   p.normal_depth_m = r.has_normal ? r.yn : std::nan("");
   p.critical_depth_m = r.yc;
-  const bool capped = sub.end == detail::BranchEnd::step_cap || (has_sup && sup.end == detail::BranchEnd::step_cap);
+  const bool capped = sub.end == detail::BranchEnd::step_cap || (joined.has_super && sup.end == detail::BranchEnd::step_cap);
   if (capped) {
     p.converged = false;
     note = "the step method hit its step cap of " + std::to_string(r.max_steps) + " steps";
@@ -295,6 +319,7 @@ ConduitProfile compute_profile(const ConduitReach& reach, double downstream_leve
     p.converged = false;
     note = "neither the outlet nor an inlet control spans the conduit; the profile stops at critical depth";
   }
+  if (note.empty()) note = joined.note;
   if (p.points.size() < 2) {  // a degenerate march: keep the two ends
     p.converged = false;
     note = "the profile could not be marched; ends only";

@@ -105,21 +105,40 @@ FreeEnd march_free(const PreparedReach& r, Branch& b, const Node& start, double 
   bool have_prev = false;
   double f_prev = 0.0, sf_prev = 0.0, dx_prev = 0.0;
   const double min_step = 1e-7 * r.length;
+  // Critical depth at or above the rise: no subcritical free surface exists below the crown.
+  if (b.side == Side::sub && r.yc >= r.rise && start.y >= r.rise) return FreeEnd::critical;
 
-  // At critical depth dy/dx is infinite: take the first step by depth, not by distance.
-  if (std::fabs(1.0 - s0.fr2) < 1e-6) {
+  // Depth changes per step are capped absolutely (max_dy) and relative to the depth, so that
+  // very shallow flows are stepped as finely as deep ones.
+  auto dy_cap = [&](double y) { return std::min(r.max_dy, 0.25 * y); };
+  // At critical depth dy/dx is infinite: take the first step by depth, not by distance. (Near a
+  // circle's crown Fr changes so fast with y that the depth itself is the test.)
+  const bool at_critical = std::fabs(start.y - r.yc) <= 1e-9 * r.rise || std::fabs(1.0 - s0.fr2) < 1e-6;
+  if (!at_critical && (b.side == Side::sub ? start.y < r.yc : start.y > r.yc)) return FreeEnd::critical;  // wrong limb
+  if (at_critical) {
     const double drift = b.side == Side::sub ? s0.sf - r.slope : r.slope - s0.sf;  // > 0: leaves critical on this side
     if (drift <= 0.0) return FreeEnd::critical;
-    double delta = 0.25 * r.max_dy;
+    double delta = 0.25 * dy_cap(r.yc);
     if (r.has_normal) delta = std::min(delta, 0.5 * std::fabs(r.yn - r.yc));
     const double y1 = b.side == Side::sub ? std::min(r.yc + delta, r.rise) : std::max(r.yc - delta, 1e-6 * r.rise);
-    const double dx = direct_step(r, x, head0, s0.sf, y1);
-    if (dx * dir_d > 0.0 && std::fabs(dx) < std::fabs(x_end - x)) {
-      x += dx;
-      s0 = free_state(r, y1);
+    const double remaining = std::fabs(x_end - x);
+    double dx = direct_step(r, x, head0, s0.sf, y1);
+    double y_end = y1;
+    if (dx * dir_d > 0.0 && std::fabs(dx) >= remaining) {
+      // A conduit shorter than the first depth step: find the depth whose direct-step distance
+      // is the remaining length (the distance grows monotonically away from critical depth).
+      const double h0 = head0, sf_start = s0.sf, x_start = x;
+      auto excess = [&](double y) { return std::fabs(direct_step(r, x_start, h0, sf_start, y)) - remaining; };
+      y_end = brent_root(excess, r.yc, y1, -remaining, std::fabs(dx) - remaining, r.closure * r.rise, 200).x;
+      dx = dir_d * remaining;
+    }
+    if (dx * dir_d > 0.0) {
+      x = std::fabs(dx) >= remaining ? x_end : x + dx;
+      s0 = free_state(r, y_end);
       head0 = r.invert(x) + s0.e;
-      b.nodes.push_back({x, y1, r.invert(x) + y1, false});
+      b.nodes.push_back({x, y_end, r.invert(x) + y_end, false});
       ++b.steps;
+      if (x == x_end) return FreeEnd::end;
     }
   }
 
@@ -127,16 +146,19 @@ FreeEnd march_free(const PreparedReach& r, Branch& b, const Node& start, double 
   double h = std::fabs(x_end - x);
   if (std::isfinite(f_start) && f_start != 0.0) h = std::min(h, r.max_dy / std::fabs(f_start));
   int attempts = 0;
+  bool uniform = false;
   while (true) {
     const double remaining = std::fabs(x_end - x);
     if (remaining <= 1e-9 * r.length) return FreeEnd::end;
     if (b.steps >= r.max_steps || attempts > 20 * r.max_steps) return FreeEnd::cap;
     ++attempts;
     const double f0 = depth_slope(r, s0);
-    if (std::fabs(1.0 - s0.fr2) < 0.5 && std::isfinite(f0) && f0 != 0.0) {
+    // (Not where the normal depth is close: there the surface flattens and distance steps fit.)
+    const bool near_normal = r.has_normal && std::fabs(r.yn - s0.y) < dy_cap(s0.y);
+    if (std::fabs(1.0 - s0.fr2) < 0.5 && std::isfinite(f0) && f0 != 0.0 && !near_normal) {
       // Near critical depth the surface curves sharply in x but smoothly in y: step by depth.
       const double y_sign = f0 * dir_d > 0.0 ? 1.0 : -1.0;
-      double dy = 0.5 * r.max_dy;
+      double dy = 0.5 * dy_cap(s0.y);
       const double toward_yc = (r.yc - s0.y) * y_sign;
       if (toward_yc > 0.0) dy = std::min(dy, toward_yc);
       if (r.has_normal && (r.yn - s0.y) * y_sign > 0.0) dy = std::min(dy, 0.5 * (r.yn - s0.y) * y_sign);
@@ -184,7 +206,10 @@ FreeEnd march_free(const PreparedReach& r, Branch& b, const Node& start, double 
     const StepResult res = standard_step(r, x, head0, s0.sf, x1, b.side, predicted, width);
     if (res.outcome != StepOutcome::ok) {
       const double target = res.outcome == StepOutcome::crown ? r.rise : r.yc;
-      if (std::fabs(target - s0.y) > r.max_dy && step > min_step) {
+      // A normal depth between here and the target is an asymptote the surface cannot cross: the
+      // step was too long for the trapezoidal balance, not a real transition.
+      const bool behind_normal = r.has_normal && (r.yn - s0.y) * (target - r.yn) > 0.0;
+      if ((std::fabs(target - s0.y) > dy_cap(s0.y) || behind_normal) && step > min_step) {
         h = 0.5 * step;
         continue;
       }
@@ -197,14 +222,14 @@ FreeEnd march_free(const PreparedReach& r, Branch& b, const Node& start, double 
     }
     const State& s1 = res.state;
     const double dy = s1.y - s0.y;
-    if (std::fabs(dy) > r.max_dy && step > min_step) {
-      h = step * std::max(0.1, 0.9 * r.max_dy / std::fabs(dy));
+    if (std::fabs(dy) > dy_cap(s0.y) && step > min_step) {
+      h = step * std::max(0.1, 0.9 * dy_cap(s0.y) / std::fabs(dy));
       continue;
     }
     // A head error becomes a depth error through dE/dy = 1 - Fr^2.
     const double head1 = r.invert(x1) + s1.e;
     const double err = std::fabs(head1 - head_predicted) / divisor / std::max(std::fabs(1.0 - s1.fr2), 0.05);
-    if (err > r.step_tolerance && step > min_step) {
+    if (err > r.step_tolerance && step > min_step && !uniform) {
       h = step * std::max(0.2, 0.9 * std::cbrt(r.step_tolerance / err));
       continue;
     }
@@ -219,7 +244,13 @@ FreeEnd march_free(const PreparedReach& r, Branch& b, const Node& start, double 
     ++b.steps;
     if (stop && stop(b.nodes.back())) return FreeEnd::stopped;
     h = step * (err > 0.0 ? std::min(4.0, 0.9 * std::cbrt(r.step_tolerance / err)) : 4.0);
-    if (r.has_normal && std::fabs(s0.y - r.yn) <= 1e-7 * r.rise) h = std::fabs(x_end - x);  // uniform flow reached
+    // Uniform flow reached (within a tenth of the step tolerance): one step to the end. Shallow
+    // flow relaxes to normal depth over millimetres, where the trapezoidal rule would otherwise
+    // oscillate about it at every step.
+    if (r.has_normal && std::fabs(s0.y - r.yn) <= std::max(1e-7 * r.rise, 0.1 * r.step_tolerance)) {
+      uniform = true;
+      h = std::fabs(x_end - x);
+    }
   }
 }
 BranchEnd end_of(FreeEnd e) {

@@ -16,6 +16,9 @@ struct PreparedReach {
   double yc = 0.0;  // critical depth (rise when none below the rise)
   double yn = 0.0;  // normal depth; valid when has_normal
   bool has_normal = false;
+  // Normal depth within 1 % of critical: the varied-flow equation is 0/0 there, so no S2 curve is
+  // marched from the inlet and uniform flow closes a profile that reaches critical depth.
+  bool near_critical_slope = false;
   double area_full = 0.0, sf_full = 0.0;
   double step_tolerance = 1e-4, max_dy = 0.0, closure = 1e-10;
   int max_steps = 4000;

@@ -63,6 +63,7 @@ ProfilePoint point_of(const PreparedReach& r, const Node& n) {
 ConduitProfile summarise(const PreparedReach& r, std::vector<Node> nodes, std::size_t super_from, bool free_outlet) {
   ConduitProfile p;
   if (nodes.back().x < r.length) {  // an incomplete march: close the conduit at the last depth
+    if (super_from == nodes.size()) ++super_from;
     const Node& last = nodes.back();
     const double hgl = std::max(r.invert(r.length) + last.y, last.hgl);
     nodes.push_back({r.length, std::min(hgl - r.invert(r.length), r.rise), hgl, last.full});

@@ -72,7 +72,14 @@ Geometry free_surface_geometry(const Section& s, double y) {
   const double phi = lower ? 2.0 * half : std::numbers::pi - 2.0 * half;
   const double sin_phi = 2.0 * sh * std::sqrt(1.0 - sh * sh);
   const double cos_phi = lower ? 1.0 - 2.0 * sh * sh : -(1.0 - 2.0 * sh * sh);
-  const double area = d * d / 8.0 * (2.0 * phi - 2.0 * sin_phi * cos_phi);
+  // 2phi - sin 2phi cancels for shallow flow; its Taylor series keeps full precision there.
+  const double u = 2.0 * phi;
+  double lens = u - 2.0 * sin_phi * cos_phi;
+  if (u < 0.5) {
+    const double u2 = u * u;
+    lens = u * u2 / 6.0 * (1.0 - u2 / 20.0 * (1.0 - u2 / 42.0 * (1.0 - u2 / 72.0 * (1.0 - u2 / 110.0))));
+  }
+  const double area = d * d / 8.0 * lens;
   return finish(y, area, d * phi, 2.0 * std::sqrt(y * gap));
 }
 

@@ -7,7 +7,8 @@
 
 namespace rimline::hydraulics {
 
-// Root-finding tolerance for depths: 1e-7 m or 1e-9 of the rise, whichever is larger; at most 200 iterations.
+// Root-finding tolerance for depths: 1e-10 of the rise (Brent's method, absolute); at most 200
+// iterations.
 struct DepthSolve {
   bool exists = false;   // false: no free-surface solution (see note)
   double depth_m = 0.0;
