@@ -1,4 +1,5 @@
 // write_drawings: the profile SVGs, the PDF set and the HTML report, staged for one commit.
+#include <cmath>
 #include <filesystem>
 #include <fstream>
 #include <set>
@@ -52,8 +53,20 @@ void write_drawings(const run::CheckRun& run, StagedFiles& files, const DrawingO
     const ProfileScene scene = build_scene(run, sheet.path, sheet.case_index, sheet.number);
     std::string stem = file_stem(scene.name());
     while (!stems.insert(stem).second) stem += "_";  // two ids that sanitise alike
-    RenderedProfile r{stem, scene.head_id + " to outfall " + scene.outfall_id + ", " + scene.case_label,
-                      scene_svg(scene, run.project.name)};
+    RenderedProfile r;
+    r.name = stem;
+    r.caption = scene.head_id + " to outfall " + scene.outfall_id + ", " + scene.case_label;
+    r.svg = scene_svg(scene, run.project.name);
+    r.length = scene.x_max;
+    r.structures = scene.structures.size();
+    r.findings = scene.markers.size();
+    for (const auto& st : scene.structures) {
+      const double fb = st.rim - st.hgl;
+      if (std::isfinite(fb) && !(fb >= r.least_freeboard)) {
+        r.least_freeboard = fb;
+        r.least_freeboard_at = st.id;
+      }
+    }
     write_file(files.path_for("profiles/" + stem + ".svg"), "<?xml version=\"1.0\" encoding=\"UTF-8\"?>\n" + r.svg);
     rendered.push_back(std::move(r));
   }

@@ -198,12 +198,34 @@ std::string data_findings_section(const run::CheckRun& run, const Findings& data
   return h + findings_table(run, data, "data-table", false) + "</section>\n";
 }
 
-std::string profiles_section(const std::vector<RenderedProfile>& profiles, bool pdf_written) {
+std::string fixed3(double v) {
+  if (!std::isfinite(v)) return "";
+  char buf[48];
+  std::snprintf(buf, sizeof buf, "%.3f", v);
+  return buf;
+}
+
+// One row per drawing, so a reviewer sees where the tightest freeboard of each path is.
+std::string profile_index(const std::vector<RenderedProfile>& profiles, const std::string& u) {
+  std::string h = "<table class=\"grid\" id=\"profile-index\">\n";
+  h += row({"Profile", "Path and case", "Length (" + u + ")", "Structures", "Least freeboard (" + u + ")", "At",
+            "Findings marked"},
+           "th");
+  for (const auto& p : profiles) {
+    h += row({"<a href=\"#figure-" + esc(p.name) + "\">" + esc(p.name) + "</a>", esc(p.caption), fixed3(p.length),
+              std::to_string(p.structures), fixed3(p.least_freeboard), esc(p.least_freeboard_at),
+              std::to_string(p.findings)});
+  }
+  return h + "</table>\n";
+}
+
+std::string profiles_section(const std::vector<RenderedProfile>& profiles, bool pdf_written, const std::string& u) {
   std::string h = "<section id=\"profiles\"><h2>Profiles</h2>\n<p>Station 0 at the outfall, increasing upstream. ";
   h += pdf_written ? "Every profile is also a sheet of <a href=\"profiles.pdf\">profiles.pdf</a> (A3 landscape)."
                    : "No PDF was written.";
   h += "</p>\n";
   if (profiles.empty()) h += "<p>No path with a pipe was found: no profile drawn.</p>\n";
+  else h += profile_index(profiles, u);
   for (const auto& p : profiles) {
     h += "<figure class=\"profile-figure\" id=\"figure-" + esc(p.name) + "\">\n" + p.svg + "<figcaption>Profile " +
          esc(p.name) + ": " + esc(p.caption) + " (<a href=\"profiles/" + esc(p.name) + ".svg\">SVG</a>)</figcaption>\n</figure>\n";
@@ -233,7 +255,7 @@ std::string report_html(const run::CheckRun& run, const std::vector<RenderedProf
   h += "<section id=\"exceptions\"><h2>Exception list</h2>\n<p>Design criteria not met, worst case over the "
        "tailwater cases, by severity. A structure finding opens to its energy budget down to the outfall.</p>\n";
   h += findings_table(run, criteria, "exception-table", true) + "</section>\n";
-  h += profiles_section(profiles, pdf_written);
+  h += profiles_section(profiles, pdf_written, unit(Dimension::length, run.report_units));
   h += data_findings_section(run, data);
   h += "</main>\n<footer><p class=\"caution\" id=\"caution\">" + esc(caution) + "</p></footer>\n</body>\n</html>\n";
   return h;

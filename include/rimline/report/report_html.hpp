@@ -4,6 +4,7 @@
 // methods and criteria with their sources, the exception list by severity with the energy
 // budget of each structure finding, the profiles, the data findings, and the caution.
 // Everything but the date is a function of the run, so two runs of one input differ only there.
+#include <limits>
 #include <string>
 #include <vector>
 
@@ -17,6 +18,12 @@ struct RenderedProfile {
   std::string name;     // <outfall-id>-<n>
   std::string caption;  // "T-20 to outfall OF-1, tailwater 3.200 m"
   std::string svg;      // the <svg> element (no XML declaration)
+  // For the index of profiles, in report units:
+  double length = 0.0;            // plan length of the path
+  std::size_t structures = 0;
+  double least_freeboard = std::numeric_limits<double>::quiet_NaN();  // rim - HGL, lowest on the path
+  std::string least_freeboard_at;  // structure id
+  std::size_t findings = 0;        // findings marked on the drawing
 };
 
 std::string report_html(const run::CheckRun& run, const std::vector<RenderedProfile>& profiles,

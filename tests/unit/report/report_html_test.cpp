@@ -28,7 +28,11 @@ std::string html_of(const run::CheckRun& run) {
   const auto path = report::path_from(run.read.network, run.topology, 3);
   std::string svg = report::profile_svg(run, path, 0, 1);
   svg = svg.substr(svg.find("<svg"));
-  return report::report_html(run, {{"S0-1", "S3 to outfall S0", svg}}, "2026-01-02", true);
+  report::RenderedProfile r;
+  r.name = "S0-1";
+  r.caption = "S3 to outfall S0";
+  r.svg = svg;
+  return report::report_html(run, {r}, "2026-01-02", true);
 }
 
 }  // namespace

@@ -37,6 +37,12 @@ TEST_CASE("write_drawings stages one SVG per profile, the PDF and the report", "
     svgs += e.path().extension() == ".svg" ? 1 : 0;
   }
   CHECK(svgs == 2);
+  // The index row of S0-1: path S3 -> S1 -> S0, 220 m; freeboards (rim - HGL) S0 2.000,
+  // S1 2.200, S3 2.500 m in the fixture, so the least is 2.000 m at S0.
+  std::ifstream in(dir / "report.html");
+  const std::string html((std::istreambuf_iterator<char>(in)), std::istreambuf_iterator<char>());
+  CHECK(html.find("id=\"profile-index\"") != std::string::npos);
+  CHECK(html.find("<td>220.000</td><td>3</td><td>2.000</td><td>S0</td>") != std::string::npos);
   fs::remove_all(dir);
 }
 
