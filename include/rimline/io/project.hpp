@@ -14,7 +14,10 @@
 //   [pipes.fields]  id, from, to, shape, material, manning_n, split, force_main   -> "FIELD"
 //                   diameter, width, height, ks, invert_up, invert_down, length, flow
 //                                                           -> { field = "FIELD", unit = "mm" }
-//   [pipes.defaults] shape, manning_n, ks, diameter...; [pipes.defaults.manning_n_by_material] RC = 0.013
+//   [pipes.defaults] shape, manning_n, ks = "1.5 mm", diameter = "300 mm"
+//   [pipes.defaults.manning_n_by_material] RC = 0.013; [pipes.defaults.ks_by_material] RC = "1.5 mm"
+//               (a pipe's n / ks: its field, else its material's row, else the default; each default
+//                use is counted in ReadResult::defaults_used)
 //   [pipes.shapes]   circular = ["CIRC", "C"], box = ["BOX", "RECT"]      (source values -> shape)
 //   [structures] source, layer; [structures.fields] id, type, loss_k -> "FIELD";
 //                rim, invert, diameter, inflow, tailwater -> { field, unit }

@@ -6,7 +6,17 @@
 // Geometry is kept as digitised (topology orients it); a pipe whose geometry or section is
 // unusable is still listed, with Conduit::usable = false, so outputs can show it. A structure
 // without a usable point is left out (its finding says so).
-// Codes: DATA_MISSING, DATA_IMPLAUSIBLE, DATA_GEOMETRY, DATA_DUPLICATE_ID, DATA_SOURCE (a GDAL warning).
+// Codes (messages name the source field and its value as read; computed figures are q() tokens):
+//   DATA_MISSING      a mapped value is null/blank: the value is unknown, or the default is used (info)
+//   DATA_IMPLAUSIBLE  text or non-finite where a number belongs; inverts/rims exactly 0 or outside
+//                     [plausibility] (sentinels); sizes <= 0 or outside diameter_min..max, with the unit
+//                     the value looks like; n outside 0.008..0.05, ks outside 0..0.1 m; mapped length off
+//                     the geometry by more than length_tolerance; negative flows; unlisted shape/type values
+//   DATA_GEOMETRY     no geometry, not a line / point, zero length, multi-part with a gap (error), or
+//                     multi-part merged into one line (info)
+//   DATA_DUPLICATE_ID an id an earlier feature of the layer already has
+//   DATA_SOURCE       a message GDAL raised while reading the feature
+// Severity error = the pipe is unusable (Conduit::usable = false) or the structure left out.
 #include "rimline/finding.hpp"
 #include "rimline/io/project.hpp"
 #include "rimline/model/network.hpp"
@@ -18,7 +28,7 @@ namespace rimline::io {
 struct DefaultNote {
   LayerRole layer = LayerRole::conduits;
   std::string role;                      // "manning_n", "diameter", "shape", "loss_k", ...
-  std::string text;                      // what was used and from where
+  std::string text;                      // what was used and from where (plain text, SI figures)
   std::size_t count = 0;                 // features it was used for
   std::vector<std::string> example_ids;  // the first few feature ids (at most 5)
 };
