@@ -346,3 +346,76 @@ TEST_CASE("GDAL's own complaints while reading become findings, not stderr", "[i
   CHECK(f.count("b") == 0);
   CHECK(r.network.conduits[1].usable);
 }
+
+TEST_CASE("Darcy-Weisbach runs read ks in its unit and fall back by material, then default", "[io][read]") {
+  const auto dir = test::fresh_dir("darcy");
+  test::write_layer(dir / "p.gpkg", "GPKG", "p", 32755, wkbLineString,
+                    {{"ID", OFTString}, {"KS_MM", OFTReal}, {"MAT", OFTString}},
+                    {{"LINESTRING (0 0,10 0)", {"a", "0.6", "RC"}},
+                     {"LINESTRING (10 0,20 0)", {"b", "200", "RC"}},
+                     {"LINESTRING (20 0,30 0)", {"c", std::nullopt, "PVC"}},
+                     {"LINESTRING (30 0,40 0)", {"d", std::nullopt, "VC"}}});
+  const io::ReadResult r = io::read_network(io::parse_project(R"(
+[pipes]
+source = "p.gpkg"
+[pipes.fields]
+id = "ID"
+material = "MAT"
+ks = { field = "KS_MM", unit = "mm" }
+[pipes.defaults]
+diameter = "300 mm"
+ks = "1.5 mm"
+[pipes.defaults.ks_by_material]
+PVC = "0.0015 mm"
+[methods]
+friction = "darcy_weisbach"
+)",
+                                                              (dir / "run.toml").string()));
+  REQUIRE(r.network.conduits.size() == 4);
+  CHECK(r.network.conduits[0].roughness.law == hydraulics::FrictionLaw::darcy_weisbach);
+  CHECK(r.network.conduits[0].roughness.ks_m == Approx(0.0006).epsilon(1e-15));
+  CHECK(r.network.conduits[1].roughness.ks_m == Approx(0.0015).epsilon(1e-15));
+  CHECK(r.network.conduits[2].roughness.ks_m == Approx(1.5e-6).epsilon(1e-15));
+  CHECK(r.network.conduits[3].roughness.ks_m == Approx(0.0015).epsilon(1e-15));
+  for (const auto& c : r.network.conduits) CHECK(c.usable);
+  const auto f = by_feature(r.findings);
+  using V = std::vector<std::string>;
+  CHECK(f.at("b") == V{"DATA_IMPLAUSIBLE KS_MM 200 mm is outside the plausible 0 m to 0.1 m; ks = 0.0015 m from "
+                       "[pipes.defaults] ks is used."});
+  CHECK(f.at("c") ==
+        V{"DATA_MISSING KS_MM is empty; ks = 1.5e-06 m from [pipes.defaults.ks_by_material] PVC is used."});
+  CHECK(f.at("d") == V{"DATA_MISSING KS_MM is empty; ks = 0.0015 m from [pipes.defaults] ks is used."});
+  CHECK(r.findings.size() == 3);
+}
+
+TEST_CASE("the same layer reads the same through shapefile, FileGDB, GeoJSON and GPKG", "[io][read]") {
+  const auto dir = test::fresh_dir("drivers");
+  const std::vector<FieldSpec> fields{{"ID", OFTString}, {"DIA", OFTReal}};
+  const std::vector<Row> rows{
+      {"LINESTRING (320000 5810000,320030 5810040)", {"a", "450"}},
+      {"MULTILINESTRING ((320030 5810040,320060 5810040),(320060 5810040,320090 5810080))", {"b", "525"}}};
+  const std::string project_tail =
+      "\"\n[pipes.fields]\nid = \"ID\"\ndiameter = { field = \"DIA\", unit = \"mm\" }\n[pipes.defaults]\n"
+      "manning_n = 0.013\n";
+  struct Case {
+    const char* driver;
+    const char* file;
+    std::size_t files;  // files GDAL lists behind the dataset
+    OGRwkbGeometryType layer_type;
+  };
+  for (const Case& k :
+       {Case{"ESRI Shapefile", "p.shp", 4, wkbMultiLineString}, Case{"OpenFileGDB", "p.gdb", 0, wkbMultiLineString},
+        Case{"GeoJSON", "p.geojson", 1, wkbUnknown}, Case{"GPKG", "p.gpkg", 1, wkbUnknown}}) {
+    INFO(k.driver);
+    test::write_layer(dir / k.file, k.driver, "p", 28355, k.layer_type, fields, rows);
+    const io::ReadResult r = io::read_network(
+        io::parse_project("[pipes]\nsource = \"" + std::string(k.file) + project_tail, (dir / "run.toml").string()));
+    REQUIRE(r.network.conduits.size() == 2);
+    CHECK(r.network.conduits[0].id == "a");
+    CHECK(r.network.conduits[0].geometry_length_m == Approx(50.0).epsilon(1e-12));  // a 30-40-50 triangle
+    CHECK(r.network.conduits[1].geometry_length_m == Approx(80.0).epsilon(1e-12));
+    CHECK(r.network.conduits[1].section.diameter_m == Approx(0.525).epsilon(1e-15));
+    CHECK(r.network.crs_description == "GDA94 / MGA zone 55");
+    if (k.files) CHECK(r.input_files.size() == k.files);
+  }
+}
