@@ -107,6 +107,16 @@ OpenLayer open_layer(const LayerSource& src, const std::string& role) {
   return out;
 }
 
+void require_geometry_and_features(const OpenLayer& l, const std::string& role) {
+  const ErrorContext where{l.source, l.layer_name, "", ""};
+  if (l.layer->GetGeomType() == wkbNone)
+    throw Error(ErrorKind::bad_input, where,
+                "the " + role + " layer has no geometry column (a CSV needs a WKT column, or X/Y columns named in "
+                "open_options)");
+  if (l.layer->GetFeatureCount(FALSE) == 0)
+    throw Error(ErrorKind::bad_input, where, "the " + role + " layer has no features");
+}
+
 int field_index(const OpenLayer& l, const std::string& field, const std::string& role_key) {
   if (field.empty()) return -1;
   const int idx = l.layer->GetLayerDefn()->GetFieldIndex(field.c_str());

@@ -54,6 +54,9 @@ GDALDatasetUniquePtr open_dataset(const LayerSource& src, const std::string& rol
 // Throws Error(bad_input) when the source cannot be opened, Error(bad_config) for an unknown layer.
 OpenLayer open_layer(const LayerSource& src, const std::string& role);
 
+// Throws Error(bad_input) when the layer has no geometry column or (when cheap to know) no features.
+void require_geometry_and_features(const OpenLayer& l, const std::string& role);
+
 // Index of a mapped field in the layer, -1 when not mapped. A mapped field absent from the layer
 // throws Error(bad_config) with "did you mean ...?" over the layer's field names.
 int field_index(const OpenLayer& l, const std::string& field, const std::string& role_key);

@@ -34,6 +34,7 @@ ReadResult read_network(const Project& project) {
   DefaultTally defaults;
 
   OpenLayer pipes = open_layer(project.pipes, "pipes");
+  require_geometry_and_features(pipes, "pipes");
   check_pipe_mapping(project, pipes);
   RunCrs crs = plan_run_crs(pipes, project.crs_override);
   result.input_files = pipes.files;
@@ -49,6 +50,7 @@ ReadResult read_network(const Project& project) {
 
   if (!project.structures.source.empty()) {
     OpenLayer structures = open_layer(project.structures, "structures");
+    require_geometry_and_features(structures, "structures");
     check_structure_mapping(project, structures);
     const TransformPtr to_run = transform_into_run(structures, crs, project.crs_override);
     LayerRead structure_read{project, structures, Placement{to_run.get(), crs.metres_per_unit, crs.z_metres_per_unit},

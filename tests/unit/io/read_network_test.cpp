@@ -419,3 +419,17 @@ TEST_CASE("the same layer reads the same through shapefile, FileGDB, GeoJSON and
     if (k.files) CHECK(r.input_files.size() == k.files);
   }
 }
+
+TEST_CASE("a layer without geometry or without features stops the run", "[io][read]") {
+  const auto dir = test::fresh_dir("no_geometry");
+  std::ofstream(dir / "table.csv") << "ID,DIA\na,300\n";
+  test::write_layer(dir / "empty.geojson", "GeoJSON", "empty", 4326, wkbLineString, {{"ID", OFTString}}, {});
+  const std::string tail = "\"\n[pipes.defaults]\ndiameter = \"300 mm\"\nmanning_n = 0.013\n";
+  const auto run = (dir / "run.toml").string();
+  CHECK_THROWS_WITH(io::read_network(io::parse_project("[pipes]\nsource = \"table.csv" + tail, run)),
+                    (dir / "table.csv").string() +
+                        ":table: the pipes layer has no geometry column (a CSV needs a WKT column, or X/Y columns "
+                        "named in open_options)");
+  CHECK_THROWS_WITH(io::read_network(io::parse_project("[pipes]\nsource = \"empty.geojson" + tail, run)),
+                    (dir / "empty.geojson").string() + ":empty: the pipes layer has no features");
+}
