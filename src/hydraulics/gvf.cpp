@@ -209,15 +209,25 @@ Joined join(const PreparedReach& r, const Branch& sub, const Branch* sup) {
     take_super_above(-1.0);
     return j;
   }
-  const Node sub_at = detail::branch_at(r, sub, *jump), sup_at = detail::branch_at(r, *sup, *jump);
+  const Node sub_at = detail::branch_at(r, sub, *jump);
+  Node sup_at = detail::branch_at(r, *sup, *jump);
   take_sub_below(*jump);
   j.nodes.push_back(sub_at);
   j.super_from = j.nodes.size();
   j.has_super = true;
-  // A jump loses energy. Where round-off (conjugate depths within a hair of critical) would make
-  // the supercritical side's energy the lower one, its sections are dropped until the energy
-  // line rises again, so the EGL never climbs in the flow direction.
+  // A jump loses energy. Conjugate depths within a hair of critical can put the supercritical
+  // side's energy below the subcritical one's by round-off (third order in the distance from
+  // critical); the supercritical depth is then taken where the two energies are equal.
   const double head_sub = detail::total_head(r, sub_at);
+  if (detail::total_head(r, sup_at) < head_sub && !sub_at.full) {
+    const double spec = head_sub - r.invert(*jump);
+    auto excess = [&](double y) { return specific_energy_m(r.section, r.flow, y) - spec; };
+    const double lo_y = 1e-9 * r.rise;
+    sup_at.y = detail::brent_root(excess, lo_y, r.yc, excess(lo_y), excess(r.yc), r.closure * r.yc, 200).x;
+    sup_at.hgl = r.invert(*jump) + sup_at.y;
+  }
+  // Should that still fail, supercritical sections are dropped until the energy line rises
+  // again, so the EGL never climbs in the flow direction.
   std::vector<Node> upstream{sup_at};
   for (auto it = sup->nodes.rbegin(); it != sup->nodes.rend(); ++it)
     if (it->x > *jump) upstream.push_back(*it);
@@ -225,7 +235,7 @@ Joined join(const PreparedReach& r, const Branch& sub, const Branch* sup) {
   while (first < upstream.size() && detail::total_head(r, upstream[first]) < head_sub) ++first;
   j.nodes.insert(j.nodes.end(), upstream.begin() + static_cast<std::ptrdiff_t>(first), upstream.end());
   j.jump_x = *jump;
-  if (first == 0) j.jump_loss = detail::total_head(r, sup_at) - head_sub;
+  if (first == 0) j.jump_loss = std::max(0.0, detail::total_head(r, sup_at) - head_sub);
   return j;
 }
 }  // namespace
@@ -272,7 +282,14 @@ ConduitProfile compute_profile(const ConduitReach& reach, double downstream_leve
     if (std::isfinite(given) && given > 0.0 && given < r.yc - band) {
       sup = detail::march_supercritical(r, {r.length, given, r.invert(r.length) + given, false});
       has_sup = true;
-    } else if (r.has_normal && r.yn < r.yc && !r.near_critical_slope) {  // steep: critical depth at the inlet
+    } else if (r.has_normal && r.yn < r.yc && r.near_critical_slope) {
+      // Barely steep: the S2 drop from critical to normal depth is within 1 % of the depth and
+      // ill-conditioned to march; the supercritical branch is uniform flow at normal depth.
+      sup.side = detail::Side::super;
+      sup.nodes = {{r.length, r.yn, r.invert(r.length) + r.yn, false}, {0.0, r.yn, r.invert(0.0) + r.yn, false}};
+      has_sup = true;
+      note = "near-critical slope: the supercritical reach is taken at normal depth";
+    } else if (r.has_normal && r.yn < r.yc) {  // steep: critical depth at the inlet
       sup = detail::march_supercritical(r, {r.length, r.yc, r.invert(r.length) + r.yc, false});
       has_sup = true;
     }
@@ -288,15 +305,13 @@ ConduitProfile compute_profile(const ConduitReach& reach, double downstream_leve
     // An S3/M3 curve met critical depth on its way to a normal depth barely off it: uniform flow
     // is taken from there to the outlet.
     note = "near-critical slope: uniform flow assumed downstream of station " + std::to_string(sup.far_x()) + " m";
-    sup.nodes.push_back({0.0, r.yn, r.invert(0.0) + r.yn, false});
-    sup.end = detail::BranchEnd::reached_end;
+    detail::close_with_uniform_flow(r, sup, 0.0);
   }
   Branch sub = over_capacity ? Branch{} : detail::march_subcritical(r, start, below_super);
-  if (sub.end == detail::BranchEnd::critical && r.has_normal && (r.yn >= r.yc || r.near_critical_slope) && !has_sup) {
+  if (sub.end == detail::BranchEnd::critical && r.has_normal && r.yn >= r.yc && !has_sup) {
     // Likewise an M1/C1 curve that met critical depth on its way to a normal depth barely above it.
     note = "near-critical slope: uniform flow assumed upstream of station " + std::to_string(sub.far_x()) + " m";
-    sub.nodes.push_back({r.length, r.yn, r.invert(r.length) + r.yn, false});
-    sub.end = detail::BranchEnd::reached_end;
+    detail::close_with_uniform_flow(r, sub, r.length);
   }
   if (over_capacity) {
     sub.nodes = {start, {r.length, r.rise, start.hgl + r.sf_full * r.length, true}};

@@ -53,7 +53,8 @@ StepResult standard_step(const PreparedReach& r, double x0, double head0, double
     const State s = free_state(r, y);
     return z1 + s.e - head0 - 0.5 * dx * (sf0 + s.sf);
   };
-  const double tol = r.closure * r.rise;
+  // Closure relative to the depth: in very shallow, fast flow E changes by 2E/y per metre of depth.
+  const double tol = r.closure * std::clamp(guess > 0.0 ? guess : r.yc, 1e-6 * r.rise, r.rise);
   // Residual rises with y on the subcritical limb (dE/dy = 1 - Fr^2 > 0, Sf falls with y) and
   // falls with y on the supercritical limb.
   const double lo_limit = side == Side::sub ? r.yc : 1e-9 * r.rise, hi_limit = side == Side::sub ? r.rise : r.yc;
@@ -248,8 +249,21 @@ FreeEnd march_free(const PreparedReach& r, Branch& b, const Node& start, double 
     // flow relaxes to normal depth over millimetres, where the trapezoidal rule would otherwise
     // oscillate about it at every step.
     if (r.has_normal && std::fabs(s0.y - r.yn) <= std::max(1e-7 * r.rise, 0.1 * r.step_tolerance)) {
+      // A direct step onto normal depth itself, then exact uniform flow (Sf = S0) to the end.
+      const double to_end = std::fabs(x_end - x);
+      const double dx_snap = s0.y == r.yn ? 0.0 : direct_step(r, x, head0, s0.sf, r.yn);
+      if (dx_snap * dir_d >= 0.0 && std::fabs(dx_snap) < to_end) {
+        if (dx_snap != 0.0) {
+          x += dx_snap;
+          b.nodes.push_back({x, r.yn, r.invert(x) + r.yn, false});
+          ++b.steps;
+        }
+        b.nodes.push_back({x_end, r.yn, r.invert(x_end) + r.yn, false});
+        ++b.steps;
+        return FreeEnd::end;
+      }
       uniform = true;
-      h = std::fabs(x_end - x);
+      h = to_end;
     }
   }
 }
@@ -264,6 +278,16 @@ BranchEnd end_of(FreeEnd e) {
   return BranchEnd::step_cap;
 }
 }  // namespace
+
+void close_with_uniform_flow(const PreparedReach& r, Branch& b, double x_end) {
+  const Node last = b.nodes.back();
+  const State s = free_state(r, last.y);
+  const double dx = direct_step(r, last.x, r.invert(last.x) + s.e, s.sf, r.yn);
+  const double span = x_end - last.x;
+  if (dx * span > 0.0 && std::fabs(dx) < std::fabs(span)) b.nodes.push_back({last.x + dx, r.yn, r.invert(last.x + dx) + r.yn, false});
+  b.nodes.push_back({x_end, r.yn, r.invert(x_end) + r.yn, false});
+  b.end = BranchEnd::reached_end;
+}
 
 double velocity_at(const PreparedReach& r, const Node& n) {
   if (r.flow == 0.0) return 0.0;  // still water, also where dry
@@ -352,10 +376,11 @@ Node branch_at(const PreparedReach& r, const Branch& b, double x) {
   if (a.x == x || i + 1 == n.size()) return {x, a.y, a.hgl + (a.full ? 0.0 : r.slope * (x - a.x)), a.full};
   const Node& c = n[i + 1];
   if (a.full && c.full) return {x, r.rise, a.hgl + (c.hgl - a.hgl) * (x - a.x) / (c.x - a.x), true};
-  const State s0 = free_state(r, a.y);
   const double guess = a.y + (c.y - a.y) * (x - a.x) / (c.x - a.x);  // seeds the solver
+  const State s0 = free_state(r, a.y);
   const StepResult res = standard_step(r, a.x, r.invert(a.x) + s0.e, s0.sf, x, b.side, guess, std::fabs(c.y - a.y) + 1e-3 * r.rise);
-  double y = res.outcome == StepOutcome::ok ? res.state.y : res.outcome == StepOutcome::crown ? r.rise : r.yc;
+  // A step inside a computed interval has a root; should round-off lose it, interpolate.
+  const double y = res.outcome == StepOutcome::ok ? res.state.y : guess;
   return {x, y, r.invert(x) + y, false};
 }
 

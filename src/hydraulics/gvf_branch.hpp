@@ -52,6 +52,10 @@ struct Branch {
 Branch march_subcritical(const PreparedReach& r, const Node& start, const StopRule& stop = {});
 Branch march_supercritical(const PreparedReach& r, const Node& start);
 
+// Closes a branch that stopped at critical depth with uniform flow at normal depth up to x_end:
+// a direct step onto normal depth where the energy equation allows one, then Sf = S0 exactly.
+void close_with_uniform_flow(const PreparedReach& r, Branch& b, double x_end);
+
 double velocity_at(const PreparedReach& r, const Node& n);
 double total_head(const PreparedReach& r, const Node& n);      // EGL
 double specific_force_at(const PreparedReach& r, const Node& n);
