@@ -26,8 +26,20 @@ void read_pipes(LayerRead& in, std::vector<model::Conduit>& out);
 void check_structure_mapping(const Project& project, const OpenLayer& source);
 void read_structures(LayerRead& in, std::vector<model::Structure>& out);
 
-// GDAL's warnings while reading one feature -> DATA_SOURCE findings (at most `cap` per layer).
-void report_gdal_messages(GdalErrorCapture& capture, LayerRole layer, const std::string& feature_id, Findings& findings,
-                          std::size_t& reported, std::size_t cap = 100);
+// GDAL's messages while reading a layer -> DATA_SOURCE findings naming the feature being read;
+// after `cap` of them, one closing finding counts the rest.
+class GdalMessageSink {
+ public:
+  GdalMessageSink(LayerRole layer, Findings& findings, std::size_t cap = 100)
+      : layer_(layer), findings_(findings), cap_(cap) {}
+  void take(GdalErrorCapture& capture, const std::string& feature_id);
+  void finish(GdalErrorCapture& capture);
+
+ private:
+  LayerRole layer_;
+  Findings& findings_;
+  std::size_t cap_;
+  std::size_t seen_ = 0;
+};
 
 }  // namespace rimline::io::detail

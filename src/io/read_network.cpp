@@ -8,22 +8,29 @@
 namespace rimline::io {
 namespace detail {
 
-void report_gdal_messages(GdalErrorCapture& capture, LayerRole layer, const std::string& feature_id, Findings& findings,
-                          std::size_t& reported, std::size_t cap) {
+void GdalMessageSink::take(GdalErrorCapture& capture, const std::string& feature_id) {
   for (const auto& m : capture.messages()) {
-    ++reported;
-    if (reported > cap) continue;
+    if (++seen_ > cap_) continue;
     Finding f;
     f.code = "DATA_SOURCE";
     f.severity = Severity::warning;
-    f.layer = layer;
+    f.layer = layer_;
     f.feature_id = feature_id;
-    f.message = (reported == cap ? "GDAL reported (further GDAL messages for this layer are not listed): "
-                                 : "GDAL reported: ") +
-                m.text;
-    findings.push_back(std::move(f));
+    f.message = "GDAL reported: " + m.text;
+    findings_.push_back(std::move(f));
   }
   capture.clear();
+}
+
+void GdalMessageSink::finish(GdalErrorCapture& capture) {
+  take(capture, "");
+  if (seen_ <= cap_) return;
+  Finding f;
+  f.code = "DATA_SOURCE";
+  f.severity = Severity::warning;
+  f.layer = layer_;
+  f.message = "GDAL reported " + std::to_string(seen_ - cap_) + " more messages for this layer; they are not listed.";
+  findings_.push_back(std::move(f));
 }
 
 }  // namespace detail

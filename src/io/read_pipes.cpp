@@ -247,16 +247,16 @@ void read_pipes(LayerRead& in, std::vector<model::Conduit>& out) {
   PipeReader reader(in);
   const std::size_t first = out.size();
   GdalErrorCapture capture;
-  std::size_t gdal_reported = 0;
+  GdalMessageSink gdal(LayerRole::conduits, in.findings);
   layer.ResetReading();
   for (;;) {
     OGRFeatureUniquePtr feature(layer.GetNextFeature());
     if (!feature) break;
     model::Conduit& c = out.emplace_back();
     reader.read(*feature, c);
-    report_gdal_messages(capture, LayerRole::conduits, c.id, in.findings, gdal_reported);
+    gdal.take(capture, c.id);
   }
-  report_gdal_messages(capture, LayerRole::conduits, "", in.findings, gdal_reported);
+  gdal.finish(capture);
   std::vector<IdRef> ids;
   ids.reserve(out.size() - first);
   for (std::size_t i = first; i < out.size(); ++i) ids.push_back({out[i].id, out[i].fid});

@@ -201,17 +201,17 @@ void read_structures(LayerRead& in, std::vector<model::Structure>& out) {
   StructureReader reader(in);
   const std::size_t first = out.size();
   GdalErrorCapture capture;
-  std::size_t gdal_reported = 0;
+  GdalMessageSink gdal(LayerRole::structures, in.findings);
   layer.ResetReading();
   for (;;) {
     OGRFeatureUniquePtr feature(layer.GetNextFeature());
     if (!feature) break;
     model::Structure& s = out.emplace_back();
     const bool kept = reader.read(*feature, s);
-    report_gdal_messages(capture, LayerRole::structures, s.id, in.findings, gdal_reported);
+    gdal.take(capture, s.id);
     if (!kept) out.pop_back();
   }
-  report_gdal_messages(capture, LayerRole::structures, "", in.findings, gdal_reported);
+  gdal.finish(capture);
   std::vector<IdRef> ids;
   ids.reserve(out.size() - first);
   for (std::size_t i = first; i < out.size(); ++i) ids.push_back({out[i].id, out[i].fid});
