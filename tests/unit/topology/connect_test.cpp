@@ -229,3 +229,19 @@ TEST_CASE("a pipe end without coordinates stays unconnected and out of the march
   REQUIRE(t.trees.size() == 1);
   CHECK(t.trees[0].conduits == std::vector<std::size_t>{0});
 }
+
+TEST_CASE("a pipe with only its from-id mapped links that end by id and snaps the other") {
+  model::Network n;
+  n.structures = {structure("S1", 0, 0), structure("S2", 10, 0)};
+  n.conduits = {pipe("P1", {{10.2, 0}, {0, 0}}, "S1", "")};  // digitised from S2's end to S1
+  Findings fs;
+  const auto t = topology::build_topology(n, {}, fs);
+  CHECK(n.conduits[0].from == 0);
+  CHECK(n.conduits[0].to == 1);
+  CHECK(n.conduits[0].to_id == "S2");
+  CHECK(n.conduits[0].reversed);
+  CHECK(n.conduits[0].up_point.x == 0.0);
+  REQUIRE(with_code(fs, "TOPOLOGY_REVERSED_GEOMETRY").size() == 1);
+  CHECK(fs.size() == 1);
+  CHECK(t.nodes[1].outfall);
+}
