@@ -19,7 +19,7 @@ std::optional<Shape> PipeReader::read_shape(OGRFeature& feature, const FeatureRe
             [s] { return "shape " + std::string(hydraulics::shape_name(s)) + " from [pipes.defaults] shape"; });
       return s;
     }
-    const auto it = p_.shape_values.find(*text);
+    const auto it = find_value(p_.shape_values, *text);
     if (it != p_.shape_values.end()) return it->second;
     who.add("DATA_IMPLAUSIBLE", Severity::error, f_.shape,
             f_.shape + " \"" + *text + "\" is not listed in [pipes.shapes]; " + left_out + ".");
@@ -131,16 +131,16 @@ std::optional<double> PipeReader::roughness(OGRFeature& feature, int col, const 
   auto shown = [&](double si) { return is_ks ? format_si(si, Dimension::length) : format_number(si); };
   // What the project offers when the field does not.
   std::optional<double> alt;
-  bool alt_by_material = false;
-  if (const auto it = by_material.find(material); !material.empty() && it != by_material.end()) {
+  const std::string* table_key = nullptr;  // the material table's own spelling of the value
+  if (const auto it = find_value(by_material, material); !material.empty() && it != by_material.end()) {
     alt = it->second;
-    alt_by_material = true;
+    table_key = &it->first;
   } else if (fallback) {
     alt = fallback;
   }
   auto alt_from = [&] {
-    return alt_by_material ? "[pipes.defaults." + std::string(role) + "_by_material] " + material
-                           : "[pipes.defaults] " + std::string(role);
+    return table_key ? "[pipes.defaults." + std::string(role) + "_by_material] " + *table_key
+                     : "[pipes.defaults] " + std::string(role);
   };
   auto use_alt = [&] {
     return alt ? std::string(name) + " = " + shown(*alt) + " from " + alt_from() + " is used"
@@ -169,7 +169,7 @@ std::optional<double> PipeReader::roughness(OGRFeature& feature, int col, const 
                                    std::string(role) + "_by_material] and " + no_default);
   }
   if (alt && needed)
-    tally(role, alt_by_material ? std::string_view(material) : std::string_view("default"), who.id,
+    tally(role, table_key ? std::string_view(*table_key) : std::string_view("default"), who.id,
           [&] { return std::string(name) + " = " + shown(*alt) + " from " + alt_from(); });
   return alt;
 }

@@ -159,8 +159,8 @@ void PipeReader::read_links(OGRFeature& feature, model::Conduit& c, const Featur
   link(col_.to, f_.to, "downstream", c.to_id);
   if (col_.force_main >= 0)
     if (const auto v = read_text(feature, col_.force_main))
-      c.force_main =
-          std::find(p_.force_main_values.begin(), p_.force_main_values.end(), *v) != p_.force_main_values.end();
+      c.force_main = std::any_of(p_.force_main_values.begin(), p_.force_main_values.end(),
+                                 [&v](const std::string& x) { return same_ignoring_case(x, *v); });
 }
 
 void PipeReader::read_flow(OGRFeature& feature, model::Conduit& c, const FeatureRef& who) {

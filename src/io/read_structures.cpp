@@ -108,7 +108,7 @@ class StructureReader {
       return;
     }
     s.type_text = *text;
-    const auto it = p_.structure_type_values.find(*text);
+    const auto it = find_value(p_.structure_type_values, *text);
     if (it == p_.structure_type_values.end()) {
       who.add("DATA_IMPLAUSIBLE", Severity::warning, f_.type,
               f_.type + " \"" + *text + "\" is not listed in [structures.types]; the structure is taken as a manhole.");

@@ -43,6 +43,13 @@ std::optional<units::Unit> likely_unit(double raw, units::Unit given, bool too_s
 
 }  // namespace
 
+bool same_ignoring_case(std::string_view a, std::string_view b) {
+  if (a.size() != b.size()) return false;
+  for (std::size_t i = 0; i < a.size(); ++i)
+    if (std::toupper(static_cast<unsigned char>(a[i])) != std::toupper(static_cast<unsigned char>(b[i]))) return false;
+  return true;
+}
+
 RawNumber read_number(OGRFeature& f, int idx) {
   RawNumber r;
   if (idx < 0 || !f.IsFieldSetAndNotNull(idx)) return r;

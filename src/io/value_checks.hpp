@@ -56,6 +56,17 @@ std::optional<double> checked_size(const RawNumber& raw, const FieldRef& ref, co
 std::optional<double> checked_number(const RawNumber& raw, const std::string& field, std::string_view consequence,
                                      const FeatureRef& who, Severity severity = Severity::warning);
 
+// Exports disagree on case ("RC", "rc", "Rc"): an exact match first, then one ignoring case.
+bool same_ignoring_case(std::string_view a, std::string_view b);
+template <typename Map>
+typename Map::const_iterator find_value(const Map& map, const std::string& text) {
+  auto it = map.find(text);
+  if (it != map.end()) return it;
+  for (it = map.begin(); it != map.end(); ++it)
+    if (same_ignoring_case(it->first, text)) return it;
+  return map.end();
+}
+
 // checked_number with the consequence built only when there is something to report, so the
 // common case (a good number) allocates nothing.
 template <typename MakeConsequence>

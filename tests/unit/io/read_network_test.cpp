@@ -182,12 +182,13 @@ TEST_CASE("US customary fields are converted to SI once, on reading", "[io][read
   const std::vector<FieldSpec> fields{{"ID", OFTString},   {"DIA_IN", OFTReal}, {"US_FT", OFTReal}, {"DS_FT", OFTReal},
                                       {"LEN_FT", OFTReal}, {"Q_CFS", OFTReal},  {"MAT", OFTString}, {"UP", OFTString},
                                       {"DN", OFTString},   {"KIND", OFTString}};
-  // 30.48 m = 100 ft exactly (NIST SP 811, 2008 ed., B.8).
+  // 30.48 m = 100 ft exactly (NIST SP 811, 2008 ed., B.8). "rm" and "pvc" match the project's
+  // "RM" and "PVC" ignoring case.
   test::write_layer(
       dir / "p.gpkg", "GPKG", "p", 32755, wkbUnknown, fields,
-      {{"LINESTRING Z (0 0 5,30.48 0 4)", {"P1", "12", "100", "99.5", "100", "10", "RC", "MH1", "MH2", "RM"}},
+      {{"LINESTRING Z (0 0 5,30.48 0 4)", {"P1", "12", "100", "99.5", "100", "10", "RC", "MH1", "MH2", "rm"}},
        {"LINESTRING (0 10,30.48 10)",
-        {"P2", "18", "100", "99", "100", std::nullopt, "PVC", std::nullopt, "MH3", "G"}}});
+        {"P2", "18", "100", "99", "100", std::nullopt, "pvc", std::nullopt, "MH3", "G"}}});
   const io::Project project = io::parse_project(R"(
 [pipes]
 source = "p.gpkg"
