@@ -78,17 +78,20 @@ void add_value(Accumulator& a, OGRFeature& f, int idx, double line_m) {
     return;
   }
   const detail::RawNumber raw = detail::read_number(f, idx);
-  const char* text = f.GetFieldAsString(idx);
   if (raw.state == detail::RawNumber::State::null) {  // blank text
     ++a.s.null_count;
     return;
   }
   ++a.s.value_count;
-  if (a.s.samples.size() < 3 && std::find(a.s.samples.begin(), a.s.samples.end(), text) == a.s.samples.end())
-    a.s.samples.emplace_back(text);
-  if (a.track_unique && a.s.unique.value_or(true) && a.seen.size() < unique_limit) {
-    if (!a.seen.emplace(text).second) a.s.unique = false;
+  const bool want_sample = a.s.samples.size() < 3;
+  const bool want_unique = a.track_unique && a.s.unique.value_or(true) && a.seen.size() < unique_limit;
+  if (want_sample || want_unique) {  // formatting numbers as text is the costly part; skip it when not needed
+    const char* text = f.GetFieldAsString(idx);
+    if (want_sample && std::find(a.s.samples.begin(), a.s.samples.end(), text) == a.s.samples.end())
+      a.s.samples.emplace_back(text);
+    if (want_unique && !a.seen.emplace(text).second) a.s.unique = false;
   }
+  if (raw.state == detail::RawNumber::State::not_finite) return;  // NaN / inf: no place in min, max, median
   if (raw.state != detail::RawNumber::State::number) {
     a.text_all_numeric = false;
     return;
