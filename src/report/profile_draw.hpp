@@ -2,6 +2,15 @@
 // Draws one profile scene into a panel of a sheet: legend and scale line, the profile plot
 // (ground, freeboard line, pipes, structures, HGL, EGL, finding markers), the data band
 // (rim, invert, HGL at each structure; size and slope of each pipe) and the finding list.
+//
+// Line language (weight and dash carry the meaning, colour only helps, so a greyscale copy reads):
+//   ground / rim       heavy solid          required freeboard  thin dotted, below the rim
+//   pipe crown         thin solid           pipe invert         medium solid; pipe bore shaded
+//   HGL                medium long dash     EGL                 thin dash-dot
+//   structure          white box invert..rim; dashed box: rim unknown (a stub above the crown)
+//   findings           error: solid triangle; warning: hollow triangle; info: hollow circle,
+//                      numbered in station order and listed under the band
+// Labels that would collide are thinned: the outfall, the head and flagged structures first.
 #include "report/canvas.hpp"
 #include "report/drawing_scale.hpp"
 #include "report/profile_scene.hpp"
