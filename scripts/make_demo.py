@@ -62,13 +62,13 @@ def build():
 
     branch("B", trunk[4], 8, 250.0, [900, 825, 750, 675, 600, 525, 450, 375],
            [0.0030, 0.0035, 0.0040, 0.0045, 0.0050, 0.0060, 0.0070, 0.0100],
-           [140, 130, 120, 120, 110, 100, 90, 80])
+           [110, 105, 95, 95, 90, 80, 70, 65])
     branch("C", trunk[9], 7, 95.0, [750, 675, 600, 525, 450, 450, 375],
-           [0.0040, 0.0045, 0.0050, 0.0060, 0.0800, 0.0080, 0.0100],
-           [120, 110, 100, 90, 140, 80, 70])
+           [0.0040, 0.0045, 0.0050, 0.0060, 0.1200, 0.0080, 0.0100],
+           [95, 90, 80, 70, 110, 65, 55])
     branch("D", trunk[13], 6, 215.0, [600, 525, 450, 375, 375, 300],
            [0.0045, 0.0050, 0.0060, 0.0070, 0.0008, 0.0100],
-           [100, 90, 80, 70, 10, 60])
+           [80, 70, 65, 55, 10, 50])
     # The trunk head collects the upland inflow.
     for n in nodes:
         if n["id"] == "T-20": n["inflow"] = 240.0
@@ -184,11 +184,11 @@ def main():
                 json.dump(obj, f, indent=1); f.write("\n")
         if units == "si":
             text = PROJECT.format(label="metric", units="si", snap="0.5 m", dia_unit="mm", elev_unit="m",
-                                  flow_unit="L/s", levels='"3.20 m", "4.00 m"', freeboard="0.3 m",
+                                  flow_unit="L/s", levels='"3.20 m", "3.90 m"', freeboard="0.3 m",
                                   vmin="0.9 m/s", vmax="4.6 m/s")
         else:
             text = PROJECT.format(label="US customary", units="us", snap="1.5 ft", dia_unit="in", elev_unit="ft",
-                                  flow_unit="cfs", levels='"10.50 ft", "13.12 ft"', freeboard="1 ft",
+                                  flow_unit="cfs", levels='"10.50 ft", "12.80 ft"', freeboard="1 ft",
                                   vmin="3 ft/s", vmax="15 ft/s")
         with open(os.path.join(d, "project.toml"), "w") as f:
             f.write(text)

@@ -39,6 +39,7 @@ int main(int argc, char** argv) {
   std::function<int()> to_run;
   for (const auto& c : commands) {
     CLI::App* sub = app.add_subcommand(c.name, c.description);
+    sub->fallthrough();  // --quiet / --verbose also after the subcommand
     auto fn = c.setup(*sub, global);
     sub->callback([&to_run, fn] { to_run = fn; });
   }

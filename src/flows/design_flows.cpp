@@ -88,7 +88,7 @@ DesignFlows design_flows(const model::Network& network, const topology::Topology
     const auto& node = topo.nodes[s];
     double q = nan;
     if (options.mode == Mode::structure_inflows) {
-      const double local = network.structures[s].inflow_m3_s.value_or(0.0);
+      const double local = network.structures[s].inflow_m3_s.value_or(options.default_inflow_m3_s);
       const auto shares = outflow_shares(network, node.outflows, options.split);
       for (std::size_t k = 0; k < node.outflows.size(); ++k)
         if (node.outflows[k] == ci) q = (arriving[s] + local) * shares[k];

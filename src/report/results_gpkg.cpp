@@ -69,6 +69,11 @@ class Writer {
     return l;
   }
 
+  void add(OGRLayer* l, OGRFeature& f) {
+    if (l->CreateFeature(&f) != OGRERR_NONE)
+      throw Error(ErrorKind::bad_config, ErrorContext{path_, l->GetName(), "", ""}, "a feature cannot be written");
+  }
+
   static void field(OGRLayer* l, const char* name, OGRFieldType t) {
     OGRFieldDefn d(name, t);
     l->CreateField(&d);
@@ -112,12 +117,12 @@ class Writer {
       place(x, y);
       OGRPoint pt(x, y);
       f.SetGeometry(&pt);
-      l->CreateFeature(&f);
+      add(l, f);
     }
   }
 
-  void write_conduits() {
-    OGRLayer* l = layer("conduits", wkbLineString);
+  OGRLayer* conduit_layer(const char* name) {
+    OGRLayer* l = layer(name, wkbLineString);
     for (const char* n : {"id", "from_id", "to_id", "shape", "regime", "governs", "profile_class", "note", "tailwater_case"})
       field(l, n, OFTString);
     for (const char* n : {"rise", "width", "length", "slope", "flow", "capacity", "capacity_ratio", "velocity_up",
@@ -125,9 +130,20 @@ class Writer {
                           "normal_depth", "critical_depth", "surcharged_length", "invert_up", "invert_down"})
       field(l, n, OFTReal);
     field(l, "reversed", OFTInteger);
+    return l;
+  }
+
+  // Pipes that could not be solved go to their own layer with the reason, so that every row of
+  // `conduits` carries a full set of figures.
+  void write_conduits() {
+    OGRLayer* solved_layer = conduit_layer("conduits");
+    OGRLayer* unsolved_layer = conduit_layer("conduits_not_checked");
     const auto& net = run_.read.network;
     for (std::size_t ci = 0; ci < net.conduits.size(); ++ci) {
       const auto& c = net.conduits[ci];
+      const bool solved =
+          !run_.cases.empty() && run_.cases[run_.envelope_conduit_case[ci]].march.conduits[ci].solved;
+      OGRLayer* l = solved ? solved_layer : unsolved_layer;
       OGRFeature f(l->GetLayerDefn());
       f.SetField("id", c.id.c_str());
       if (c.from != model::no_index) f.SetField("from_id", net.structures[c.from].id.c_str());
@@ -174,7 +190,7 @@ class Writer {
         line.addPoint(x, y);
       }
       if (line.getNumPoints() >= 2) f.SetGeometry(&line);
-      l->CreateFeature(&f);
+      add(l, f);
     }
   }
 
@@ -193,7 +209,7 @@ class Writer {
         set(f, "hgl", r.solved ? r.hgl_m : NAN, Dimension::length);
         const auto& rim = net.structures[s].rim_m;
         set(f, "freeboard", r.solved && rim ? *rim - r.hgl_m : NAN, Dimension::length);
-        l->CreateFeature(&f);
+        add(l, f);
       }
     }
   }

@@ -25,7 +25,12 @@ StagedFiles::~StagedFiles() {
 }
 
 std::string StagedFiles::path_for(const std::string& name) {
-  const std::string tmp = (fs::path(dir_) / ("." + name + ".partial-" + std::to_string(::getpid()))).string();
+  // Hidden, with the pid, and with the final extension kept (GDAL drivers look at it).
+  const fs::path final_path(name);
+  const std::string tmp =
+      (fs::path(dir_) / ("." + final_path.stem().string() + ".partial-" + std::to_string(::getpid()) +
+                         final_path.extension().string()))
+          .string();
   std::error_code ec;
   fs::remove_all(tmp, ec);
   staged_.emplace_back(tmp, (fs::path(dir_) / name).string());

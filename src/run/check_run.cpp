@@ -87,6 +87,7 @@ CheckRun run_check(const io::Project& project, const RunOptions& options) {
   flow_opt.mode = project.flow_mode == io::FlowMode::pipe_field ? flows::Mode::pipe_field : flows::Mode::structure_inflows;
   flow_opt.split = project.split_rule == io::SplitRule::field ? flows::Split::field : flows::Split::capacity;
   flow_opt.friction = project.methods.friction;
+  flow_opt.default_inflow_m3_s = project.default_inflow_m3_s.value_or(0.0);
   run.flows = flows::design_flows(run.read.network, run.topology, flow_opt, run.data_findings);
 
   std::vector<double> levels = options.tailwater_levels_m.empty() ? project.tailwater_levels_m : options.tailwater_levels_m;

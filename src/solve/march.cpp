@@ -54,7 +54,7 @@ class Marcher {
         solve_conduit(ci);
         if (--pending[c.from] == 0) ready.push_back(c.from);
       }
-      if (out_.structures[s].outfall) settle_outfall(s);
+      if (out_.structures[s].outfall || out_.structures[s].pumped) settle_outfall(s);
     }
     report_unsolved();
     return std::move(out_);
@@ -77,8 +77,21 @@ class Marcher {
     const auto& st = net_.structures[s];
     const auto& node = topo_.nodes[s];
     std::vector<std::size_t> outs;
-    for (std::size_t ci : node.outflows)
-      if (in_march(net_.conduits[ci]) && net_.conduits[ci].from == s) outs.push_back(ci);
+    bool pumped = false;
+    for (std::size_t ci : node.outflows) {
+      const auto& c = net_.conduits[ci];
+      if (!in_march(c) || c.from != s) continue;
+      // A force main leaving a structure means a pump: its HGL is the pump's discharge head, not
+      // the wet-well level, so it does not back water up into the gravity pipes arriving there.
+      if (c.force_main) pumped = true;
+      else outs.push_back(ci);
+    }
+    if (outs.empty() && pumped) {
+      r.pumped = true;
+      r.solved = true;
+      r.hgl_m = r.egl_m = free_level_m;  // the inflows discharge freely into the wet well
+      return;
+    }
     if (outs.empty()) {
       r.outfall = true;
       r.solved = true;
@@ -162,14 +175,23 @@ class Marcher {
       r.note = "not checked: the level downstream is unknown";
       return;
     }
-    const auto& up_st = net_.structures[c.from];
-    const auto& down_st = net_.structures[c.to];
-    const auto inv_up = c.invert_up_m ? c.invert_up_m : up_st.invert_m;
-    const auto inv_down = c.invert_down_m ? c.invert_down_m : down_st.invert_m;
+    std::string up_source, down_source;
+    auto inv_up = c.invert_up_m ? c.invert_up_m : estimate_invert(ci, c.from, true, up_source);
+    auto inv_down = c.invert_down_m ? c.invert_down_m : estimate_invert(ci, c.to, false, down_source);
+    // One end known, nothing around the other: take the pipe as level so the march goes on.
+    if (inv_up && !inv_down) inv_down = inv_up, down_source = "the upstream invert (level pipe assumed)";
+    if (inv_down && !inv_up) inv_up = inv_down, up_source = "the downstream invert (level pipe assumed)";
     if (!inv_up || !inv_down) {
-      r.note = "not checked: no invert at the " + std::string(!inv_up ? "upstream" : "downstream") + " end";
+      r.note = "not checked: no invert at either end and none at its structures";
       blocked_at(ci, r.note);
       return;
+    }
+    for (const auto& [end, from] : {std::pair{"upstream", up_source}, std::pair{"downstream", down_source}}) {
+      if (from.empty()) continue;
+      out_.findings.push_back({"INVERT_ESTIMATED", Severity::warning, LayerRole::conduits, c.id, "", nan, nan,
+                               units::Dimension::length,
+                               "pipe " + c.id + " has no usable " + end + " invert; " + from +
+                                   " stands in for it, so its figures and those upstream rest on an estimate."});
     }
     if (!std::isfinite(r.flow_m3_s)) {
       r.note = "not checked: no design flow";
@@ -198,12 +220,46 @@ class Marcher {
                                    "); its figures are approximate."});
   }
 
+  // A stand-in for a pipe's missing invert at a structure: the structure's own invert, else the
+  // pipes meeting it there (the outflows' inlet inverts for an arriving pipe, the inflows' outlet
+  // inverts for a leaving one). Empty when nothing is known.
+  std::optional<double> estimate_invert(std::size_t self, std::size_t s, bool leaving, std::string& source) const {
+    const auto& st = net_.structures[s];
+    if (st.invert_m) {
+      source = "the invert of structure " + st.id;
+      return st.invert_m;
+    }
+    std::optional<double> best;
+    std::string via;
+    auto consider = [&](const std::vector<std::size_t>& list, bool use_up, bool highest) {
+      for (std::size_t ci : list) {
+        if (ci == self) continue;
+        auto v = use_up ? net_.conduits[ci].invert_up_m : net_.conduits[ci].invert_down_m;
+        // A pipe already marched (downstream of this one) offers the invert it was solved with,
+        // itself perhaps an estimate: estimates chain upstream through a run of missing inverts.
+        const auto& solved = out_.conduits[ci];
+        if (!v && solved.solved) v = use_up ? solved.invert_up_m : solved.invert_down_m;
+        if (!v) continue;
+        if (!best || (highest ? *v > *best : *v < *best)) best = v, via = net_.conduits[ci].id;
+      }
+    };
+    const auto& node = topo_.nodes[s];
+    if (leaving) consider(node.inflows, false, false);   // lowest arriving outlet
+    else consider(node.outflows, true, true);            // highest leaving inlet
+    if (!best) {
+      if (leaving) consider(node.outflows, true, false);
+      else consider(node.inflows, false, false);
+    }
+    if (best) source = "the invert of pipe " + via + " at structure " + st.id;
+    return best;
+  }
+
   // An outfall's reported level is the tailwater, or the free-outlet level of its pipes if
   // that is higher (modes free and higher).
   void settle_outfall(std::size_t s) {
     auto& r = out_.structures[s];
     double level = r.hgl_m;
-    if (opt_.tailwater_mode != TailwaterMode::fixed || !std::isfinite(r.tailwater_m)) {
+    if (r.pumped || opt_.tailwater_mode != TailwaterMode::fixed || !std::isfinite(r.tailwater_m)) {
       for (std::size_t ci : topo_.nodes[s].inflows)
         if (out_.conduits[ci].solved && net_.conduits[ci].to == s)
           level = std::max(level, out_.conduits[ci].profile.outlet().hgl_m);
@@ -253,8 +309,8 @@ std::vector<BudgetItem> loss_budget(const model::Network& network, const MarchRe
   for (std::size_t guard = 0; guard <= network.conduits.size(); ++guard) {
     const auto& r = result.structures[s];
     if (!r.solved) return {};
-    if (r.outfall) {
-      items.push_back({"tailwater", network.structures[s].id, r.hgl_m});
+    if (r.outfall || r.pumped) {
+      items.push_back({r.pumped ? "wet_well" : "tailwater", network.structures[s].id, r.hgl_m});
       break;
     }
     const std::size_t ci = r.governing_outflow;

@@ -16,6 +16,7 @@ struct FlowOptions {
   Mode mode = Mode::pipe_field;
   Split split = Split::capacity;
   hydraulics::FrictionLaw friction = hydraulics::FrictionLaw::manning;
+  double default_inflow_m3_s = 0.0;  // structures without an inflow value (structure_inflows mode)
 };
 
 struct DesignFlows {

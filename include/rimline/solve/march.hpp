@@ -44,6 +44,7 @@ struct ConduitResult {
 struct StructureResult {
   bool solved = false;
   bool outfall = false;
+  bool pumped = false;                  // a pump wet well: only force mains leave it
   double hgl_m = std::numeric_limits<double>::quiet_NaN();  // still pool: hgl == egl
   double egl_m = std::numeric_limits<double>::quiet_NaN();
   double tailwater_m = std::numeric_limits<double>::quiet_NaN();  // outfalls
@@ -65,7 +66,7 @@ MarchResult march(const model::Network& network, const topology::Topology& topo,
 // The energy budget from a structure down to its outfall along the governing outflows: each
 // item adds to the tailwater so that the sum equals the structure's HGL (EGL) exactly.
 struct BudgetItem {
-  std::string kind;   // "tailwater", "exit", "friction", "structure"
+  std::string kind;   // "tailwater" or "wet_well" (the start), "exit", "conduit", "structure"
   std::string feature_id;
   double head_m = 0.0;
 };

@@ -126,7 +126,7 @@ TEST_CASE("march: energy invariants along every pipe and across every structure"
   }
 }
 
-TEST_CASE("march: a pipe without inverts blocks the structures upstream and says so") {
+TEST_CASE("march: a missing invert is estimated from the structure or the neighbouring pipes, and said so") {
   auto c = chain(0.25);
   c.net.conduits[0].invert_up_m.reset();
   c.net.conduits[0].invert_down_m.reset();
@@ -134,13 +134,34 @@ TEST_CASE("march: a pipe without inverts blocks the structures upstream and says
   solve::MarchOptions opt;
   opt.tailwater_m = 11.0;
   const auto r = solve::march(c.net, c.topo, {0.25, 0.25}, opt);
+  REQUIRE(r.conduits[0].solved);
+  // Downstream end: the outfall's own invert (10.0); upstream end: P2's outlet invert at MH-1 (10.25).
+  CHECK(r.conduits[0].invert_down_m == Approx(10.0));
+  CHECK(r.conduits[0].invert_up_m == Approx(10.25));
+  CHECK(r.conduits[1].solved);
+  int estimated = 0;
+  for (const auto& f : r.findings)
+    if (f.code == "INVERT_ESTIMATED" && f.feature_id == "P1") ++estimated;
+  CHECK(estimated == 2);
+}
+
+TEST_CASE("march: a pipe with no invert anywhere near it blocks what lies upstream, and says so") {
+  auto c = chain(0.25);
+  for (auto& p : c.net.conduits) p.invert_up_m.reset(), p.invert_down_m.reset();
+  for (auto& s : c.net.structures) s.invert_m.reset();
+  solve::MarchOptions opt;
+  opt.tailwater_m = 11.0;
+  const auto r = solve::march(c.net, c.topo, {0.25, 0.25}, opt);
   CHECK_FALSE(r.conduits[0].solved);
   CHECK_FALSE(r.structures[1].solved);
   CHECK_FALSE(r.conduits[1].solved);
-  bool blocked = false;
-  for (const auto& f : r.findings)
+  bool blocked = false, structure_reported = false;
+  for (const auto& f : r.findings) {
     if (f.code == "NOT_CHECKED" && f.feature_id == "P1") blocked = true;
+    if (f.code == "NOT_CHECKED" && f.feature_id == "MH-2") structure_reported = true;
+  }
   CHECK(blocked);
+  CHECK(structure_reported);
 }
 
 TEST_CASE("flows: structure inflows accumulate downstream and split at a diversion by capacity") {

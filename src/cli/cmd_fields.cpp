@@ -1,0 +1,104 @@
+// `rimline fields SOURCE`: what a GIS source holds, and a proposed project file.
+#include <filesystem>
+#include <fstream>
+#include <iomanip>
+#include <iostream>
+
+#include "cli/commands.hpp"
+#include "rimline/error.hpp"
+#include "rimline/io/inspect.hpp"
+
+namespace rimline::cli {
+namespace {
+
+struct FieldsArgs {
+  std::string source;
+  std::string structures;
+  std::string write_project;
+};
+
+void print_layer(const io::LayerSummary& l, std::ostream& os) {
+  os << "layer " << l.name << ": " << l.feature_count << " features, " << l.declared_geometry;
+  for (const auto& [type, n] : l.geometry_counts) os << " [" << type << " " << n << "]";
+  os << "\n  crs: " << (l.crs_name.empty() ? "(none)" : l.crs_name) << (l.crs_id.empty() ? "" : " (" + l.crs_id + ")")
+     << (l.crs_geographic ? ", geographic: lengths need a reprojection (rimline does it)" : "")
+     << (l.crs_linear_unit.empty() ? "" : ", unit " + l.crs_linear_unit) << "\n";
+  for (const auto& f : l.fields) {
+    os << "  " << std::left << std::setw(24) << f.name << std::setw(10) << f.type << " nulls " << std::setw(6)
+       << f.null_count;
+    if (f.numeric()) os << " min " << *f.min << " max " << *f.max;
+    if (!f.samples.empty()) {
+      os << "  e.g.";
+      for (const auto& s : f.samples) os << " '" << s << "'";
+    }
+    os << "\n";
+  }
+  const auto proposal = io::propose_mapping(l);
+  if (!proposal.fields.empty()) {
+    os << "  proposed mapping (" << (proposal.kind == io::LayerKind::pipes ? "pipes" : "structures") << "):\n";
+    for (const auto& p : proposal.fields)
+      os << "    " << std::setw(12) << p.role << " = " << p.field
+         << (p.unit ? " [" + std::string(units::unit_symbol(*p.unit)) + "]" : "") << "  (" << p.reason << ")\n";
+  }
+}
+
+const io::LayerSummary* first_of(const io::SourceSummary& s, bool lines) {
+  for (const auto& l : s.layers)
+    if (lines ? l.lines() : l.points()) return &l;
+  return nullptr;
+}
+
+int run_fields(const FieldsArgs& a, const GlobalOptions& g) {
+  const auto pipes = io::inspect_source(a.source);
+  std::optional<io::SourceSummary> structures;
+  if (!a.structures.empty()) structures = io::inspect_source(a.structures);
+  if (!g.quiet) {
+    std::cout << pipes.source << " (" << pipes.driver << ")\n";
+    for (const auto& l : pipes.layers) print_layer(l, std::cout);
+    if (structures) {
+      std::cout << structures->source << " (" << structures->driver << ")\n";
+      for (const auto& l : structures->layers) print_layer(l, std::cout);
+    }
+  }
+  if (a.write_project.empty()) return exit_ok;
+  namespace fs = std::filesystem;
+  const fs::path project_dir = fs::absolute(a.write_project).parent_path();
+  auto relative = [&](const std::string& src) {
+    std::error_code ec;
+    const auto rel = fs::relative(fs::absolute(src), project_dir, ec);
+    return ec || rel.empty() ? src : rel.string();
+  };
+  io::StarterLayer sp{relative(a.source), first_of(pipes, true)};
+  io::StarterLayer ss;
+  if (structures) ss = {relative(a.structures), first_of(*structures, false)};
+  else if (const auto* pts = first_of(pipes, false)) ss = {relative(a.source), pts};
+  if (!sp.layer) throw Error(ErrorKind::bad_input, ErrorContext{a.source, "", "", ""}, "holds no line layer for pipes");
+  if (fs::exists(a.write_project))
+    throw Error(ErrorKind::bad_config, ErrorContext{a.write_project, "", "", ""},
+                "exists already; rimline does not overwrite a project file");
+  const std::string text = io::starter_project_toml(sp, ss);
+  const std::string tmp = a.write_project + ".partial";
+  {
+    std::ofstream out(tmp, std::ios::binary);
+    out << text;
+    if (!out) throw Error(ErrorKind::bad_config, ErrorContext{tmp, "", "", ""}, "cannot be written");
+  }
+  fs::rename(tmp, a.write_project);
+  if (!g.quiet) std::cout << "wrote " << a.write_project << ": review every mapping and unit before a run\n";
+  return exit_ok;
+}
+
+}  // namespace
+
+std::function<int()> setup_fields(CLI::App& app, const GlobalOptions& global) {
+  auto a = std::make_shared<FieldsArgs>();
+  app.add_option("source", a->source, "GIS source: a file (GPKG, SHP, GeoJSON, GDB, CSV) or a connection string")
+      ->required();
+  app.add_option("--structures", a->structures, "A second source holding the structure points");
+  app.add_option("--write-project", a->write_project, "Write a starter project file (TOML) to edit");
+  app.footer("Example:\n  rimline fields data/demo/metric/pipes.geojson --structures data/demo/metric/structures.geojson\n"
+             "  rimline fields export.gpkg --write-project project.toml");
+  return [a, &global] { return run_fields(*a, global); };
+}
+
+}  // namespace rimline::cli
