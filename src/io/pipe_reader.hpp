@@ -12,11 +12,6 @@
 namespace rimline::io::detail {
 
 inline constexpr const char* left_out = "the pipe is left out of the analysis";
-// Manning n outside this range is a data error: smooth plastics ~0.009, rough brick / corrugated
-// metal ~0.025-0.03 (Chow, Open-Channel Hydraulics, 1959, Table 5-6, from memory); 0.05 leaves room.
-inline constexpr double manning_n_min = 0.008, manning_n_max = 0.05;
-// Equivalent sand roughness above 0.1 m is beyond any pipe wall (common practice, no source).
-inline constexpr double ks_max_m = 0.1;
 // A line shorter than 1 mm has no usable direction or slope (common practice, no source).
 inline constexpr double zero_length_m = 1e-3;
 

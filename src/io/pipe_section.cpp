@@ -110,13 +110,14 @@ void PipeReader::read_roughness(OGRFeature& feature, model::Conduit& c, const Fe
   c.roughness.law = p_.methods.friction;
   const bool manning = p_.methods.friction == hydraulics::FrictionLaw::manning;
   const FieldRef n_ref{f_.manning_n, units::Unit::one};
-  if (auto n = roughness(feature, col_.manning_n, n_ref, "manning_n", "n", manning_n_min, manning_n_max,
-                         p_.pipe_defaults.manning_n_by_material, p_.pipe_defaults.manning_n, c.material, manning, who))
+  if (auto n = roughness(feature, col_.manning_n, n_ref, "manning_n", "n", p_.plausibility.manning_n_min,
+                         p_.plausibility.manning_n_max, p_.pipe_defaults.manning_n_by_material,
+                         p_.pipe_defaults.manning_n, c.material, manning, who))
     c.roughness.manning_n = *n;
   else if (manning)
     c.usable = false;
-  if (auto ks = roughness(feature, col_.ks, f_.ks, "ks", "ks", 0.0, ks_max_m, p_.pipe_defaults.ks_m_by_material,
-                          p_.pipe_defaults.ks_m, c.material, !manning, who))
+  if (auto ks = roughness(feature, col_.ks, f_.ks, "ks", "ks", 0.0, p_.plausibility.ks_max_m,
+                          p_.pipe_defaults.ks_m_by_material, p_.pipe_defaults.ks_m, c.material, !manning, who))
     c.roughness.ks_m = *ks;
   else if (!manning)
     c.usable = false;

@@ -5,6 +5,7 @@
 #include <cctype>
 #include <filesystem>
 #include <fstream>
+#include <functional>
 #include <sstream>
 
 #include "io/toml_section.hpp"
@@ -58,24 +59,47 @@ hydraulics::Shape shape_choice(TomlSection& s, std::string_view key, hydraulics:
       .value_or(fallback);
 }
 
-std::map<std::string, double> number_table(TomlSection s) {
+// A plausible range for a project value, named by the [plausibility] keys that set it.
+struct Range {
+  double lo, hi;
+  const char* keys;
+  bool holds(double v) const { return v >= lo && v <= hi; }
+  std::string text(const std::function<std::string(double)>& show) const {
+    return "outside the plausible " + show(lo) + " to " + show(hi) + " (" + keys + ")";
+  }
+};
+
+std::string plain(double v) {
+  std::ostringstream o;
+  o << v;
+  return o.str();
+}
+std::string metres(double v) { return plain(v) + " m"; }
+
+std::map<std::string, double> number_table(TomlSection s, const Range* range = nullptr) {
   std::map<std::string, double> out;
   for (const auto& [key, node] : s.entries()) {
+    double v = 0.0;
     if (node->is_floating_point())
-      out[key] = node->as_floating_point()->get();
+      v = node->as_floating_point()->get();
     else if (node->is_integer())
-      out[key] = static_cast<double>(node->as_integer()->get());
+      v = static_cast<double>(node->as_integer()->get());
     else
       s.fail_at(node, key, "expected a number");
+    if (range && !range->holds(v)) s.fail_at(node, key, plain(v) + " is " + range->text(plain));
+    out[key] = v;
   }
   return out;
 }
 
-std::map<std::string, double> quantity_table(TomlSection s, Dimension d, const std::string& file) {
+std::map<std::string, double> quantity_table(TomlSection s, Dimension d, const std::string& file,
+                                             const Range* range = nullptr) {
   std::map<std::string, double> out;
   for (const auto& [key, node] : s.entries()) {
     if (!node->is_string()) s.fail_at(node, key, "expected a quantity string \"<number> <unit>\"");
-    out[key] = parse_quantity(std::string(node->as_string()->get()), d, file + ": " + s.where(node, key));
+    const double v = parse_quantity(std::string(node->as_string()->get()), d, file + ": " + s.where(node, key));
+    if (range && !range->holds(v)) s.fail_at(node, key, metres(v) + " is " + range->text(metres));
+    out[key] = v;
   }
   return out;
 }
@@ -120,11 +144,17 @@ void read_pipes(TomlSection s, Project& p) {
   TomlSection d = s.table("defaults");
   PipeDefaults& pd = p.pipe_defaults;
   pd.shape = shape_choice(d, "shape", pd.shape);
+  const Plausibility& q = p.plausibility;
+  const Range n_range{q.manning_n_min, q.manning_n_max, "[plausibility] manning_n_min, manning_n_max"};
+  const Range ks_range{0.0, q.ks_max_m, "[plausibility] ks_max"};
   pd.manning_n = d.number("manning_n");
+  if (pd.manning_n && !n_range.holds(*pd.manning_n))
+    d.fail("manning_n", plain(*pd.manning_n) + " is " + n_range.text(plain));
   pd.ks_m = d.quantity("ks", Dimension::length);
+  if (pd.ks_m && !ks_range.holds(*pd.ks_m)) d.fail("ks", metres(*pd.ks_m) + " is " + ks_range.text(metres));
   pd.diameter_m = d.quantity("diameter", Dimension::length);
-  pd.manning_n_by_material = number_table(d.table("manning_n_by_material"));
-  pd.ks_m_by_material = quantity_table(d.table("ks_by_material"), Dimension::length, p.file);
+  pd.manning_n_by_material = number_table(d.table("manning_n_by_material"), &n_range);
+  pd.ks_m_by_material = quantity_table(d.table("ks_by_material"), Dimension::length, p.file, &ks_range);
   d.finish();
 
   TomlSection shapes = s.table("shapes");
@@ -229,6 +259,11 @@ void read_plausibility(TomlSection s, Project& p) {
   if (!(q.diameter_min_m > 0.0 && q.diameter_min_m < q.diameter_max_m))
     s.fail("diameter_max", "needs 0 < diameter_min < diameter_max");
   q.length_tolerance = positive_number(s, "length_tolerance", q.length_tolerance);
+  q.manning_n_min = positive_number(s, "manning_n_min", q.manning_n_min);
+  q.manning_n_max = positive_number(s, "manning_n_max", q.manning_n_max);
+  if (!(q.manning_n_min < q.manning_n_max)) s.fail("manning_n_max", "must be greater than manning_n_min");
+  q.ks_max_m = s.quantity("ks_max", Dimension::length).value_or(q.ks_max_m);
+  if (!(q.ks_max_m > 0.0)) s.fail("ks_max", "must be greater than 0");
   s.finish();
 }
 
@@ -282,11 +317,11 @@ Project parse_project(const std::string& toml_text, const std::string& path_for_
   p.crs_override = proj.string("crs").value_or("");
   proj.finish();
 
+  read_plausibility(plausibility, p);  // first: the pipe defaults are checked against it
   read_pipes(pipes, p);
   read_structures(structures, p);
   read_flows_and_tailwater(flows, tailwater, p);
   read_methods(methods, p);
-  read_plausibility(plausibility, p);
   read_criteria(criteria, p);
   return p;
 }

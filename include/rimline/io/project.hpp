@@ -30,7 +30,8 @@
 //               water_temperature = "15 C", benching = "flat"|"half"|"full"
 //   [methods.k_by_type] manhole = 0.5, inlet = 0.5, junction = 0.6
 //   [plausibility] invert_min = "-500 m", invert_max = "900 m" (inverts and rims outside are sentinels),
-//               diameter_min = "30 mm", diameter_max = "10 m", length_tolerance = 0.2 (mapped vs geometry)
+//               diameter_min = "30 mm", diameter_max = "10 m", length_tolerance = 0.2 (mapped vs geometry),
+//               manning_n_min = 0.008, manning_n_max = 0.05, ks_max = "0.1 m" (fields and project defaults)
 //   [criteria]  freeboard = "0.3 m", velocity_min = "0.9 m/s", velocity_max = "4.6 m/s" (or "off"),
 //               capacity_ratio_max = 1.0, cover_min = "0.6 m"
 #include <map>
@@ -93,6 +94,11 @@ struct Plausibility {
   double diameter_min_m = 0.03;   // smaller than any sewer or drain main; common practice, no source
   double diameter_max_m = 10.0;   // larger than any sewer tunnel bore; common practice, no source
   double length_tolerance = 0.2;  // mapped length accepted within +-20 % of the geometry length
+  // Manning n outside this range is a data error: smooth plastics ~0.009, rough brick / corrugated
+  // metal ~0.025-0.03 (Chow, Open-Channel Hydraulics, 1959, Table 5-6, from memory); 0.05 leaves room.
+  double manning_n_min = 0.008;
+  double manning_n_max = 0.05;
+  double ks_max_m = 0.1;          // equivalent sand roughness beyond any pipe wall; common practice, no source
 };
 
 struct Criteria {

@@ -206,3 +206,19 @@ TEST_CASE("load_project reads a file and names it when missing", "[io][project]"
   CHECK_THROWS_WITH(io::load_project((dir / "none.toml").string()),
                     (dir / "none.toml").string() + ": cannot open the project file");
 }
+
+TEST_CASE("project roughness values are held to the plausible ranges", "[io][project]") {
+  CHECK(error_of("[pipes]\nsource = \"p.shp\"\n[pipes.defaults]\nmanning_n = 0.13\n") ==
+        "/proj/run.toml: line 4: key pipes.defaults.manning_n: 0.13 is outside the plausible 0.008 to 0.05 "
+        "([plausibility] manning_n_min, manning_n_max)");
+  CHECK(error_of("[pipes]\nsource = \"p.shp\"\n[pipes.defaults.ks_by_material]\nRC = \"200 mm\"\n") ==
+        "/proj/run.toml: line 4: key pipes.defaults.ks_by_material.RC: 0.2 m is outside the plausible 0 m to 0.1 m "
+        "([plausibility] ks_max)");
+  // A wider range is the user's explicit choice.
+  const io::Project p = parse_project(
+      "[plausibility]\nmanning_n_max = 0.07\n[pipes]\nsource = \"p.shp\"\n[pipes.defaults.manning_n_by_material]\n"
+      "CMP = 0.06\n",
+      "/proj/run.toml");
+  CHECK(p.pipe_defaults.manning_n_by_material.at("CMP") == 0.06);
+  CHECK(p.plausibility.manning_n_max == 0.07);
+}
