@@ -139,7 +139,7 @@ std::optional<double> checked_number(const RawNumber& raw, const std::string& fi
 }
 
 std::optional<double> checked_level(const RawNumber& raw, const FieldRef& ref, std::string_view what,
-                                    const Plausibility& limits, const FeatureRef& who, bool zero_is_placeholder) {
+                                    const Plausibility& limits, const FeatureRef& who, bool zero_means_missing) {
   auto unknown_text = [what] { return "the " + std::string(what) + " is unknown"; };
   if (raw.state == RawNumber::State::null) {
     who.add("DATA_MISSING", Severity::warning, ref.field, ref.field + " is empty; " + unknown_text() + ".");
@@ -148,13 +148,13 @@ std::optional<double> checked_level(const RawNumber& raw, const FieldRef& ref, s
   const auto v = checked_number_lazy(raw, ref.field, unknown_text, who);
   if (!v) return std::nullopt;
   const double si = units::to_si(*v, ref.unit);
-  const bool good = !(*v == 0.0 && zero_is_placeholder) && si < limits.invert_max_m && si >= limits.invert_min_m;
+  const bool good = !(*v == 0.0 && zero_means_missing) && si < limits.invert_max_m && si >= limits.invert_min_m;
   if (good) return si;
   const std::string unknown = unknown_text();
   const auto L = units::Dimension::length;
-  if (*v == 0.0 && zero_is_placeholder) {
+  if (*v == 0.0 && zero_means_missing) {
     who.add("DATA_IMPLAUSIBLE", Severity::warning, ref.field,
-            ref.field + " is exactly 0, a common placeholder for a missing level; " + unknown + ".", si, 0.0, L);
+            ref.field + " is exactly 0, a common stand-in for a missing level; " + unknown + ".", si, 0.0, L);
     return std::nullopt;
   }
   if (si >= limits.invert_max_m) {

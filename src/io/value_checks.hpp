@@ -42,9 +42,9 @@ struct FeatureRef {
 };
 
 // An elevation (invert, rim, tailwater): null -> DATA_MISSING; text, non-finite, exactly 0 (when
-// zero_is_placeholder), or outside [invert_min, invert_max) -> DATA_IMPLAUSIBLE. `what` names it.
+// zero_means_missing), or outside [invert_min, invert_max) -> DATA_IMPLAUSIBLE. `what` names it.
 std::optional<double> checked_level(const RawNumber& raw, const FieldRef& ref, std::string_view what,
-                                    const Plausibility& limits, const FeatureRef& who, bool zero_is_placeholder = true);
+                                    const Plausibility& limits, const FeatureRef& who, bool zero_means_missing = true);
 
 // A section size (diameter, width, height): a non-positive value or one outside the plausible
 // range (limits.diameter_min_m..diameter_max_m) -> DATA_IMPLAUSIBLE of `severity`, naming the unit

@@ -101,7 +101,7 @@ TEST_CASE("each data problem of a pipe becomes one finding with a fixed message"
   CHECK(f.count("box") == 0);
   CHECK(f.at("sentinel") ==
         V{"DATA_IMPLAUSIBLE US_IL 999.5 m is at or above 900 m, a no-data sentinel; the upstream invert is unknown."});
-  CHECK(f.at("zero_invert") == V{"DATA_IMPLAUSIBLE DS_IL is exactly 0, a common placeholder for a missing level; the "
+  CHECK(f.at("zero_invert") == V{"DATA_IMPLAUSIBLE DS_IL is exactly 0, a common stand-in for a missing level; the "
                                  "downstream invert is unknown."});
   CHECK(f.at("null_invert") == V{"DATA_MISSING US_IL is empty; the upstream invert is unknown."});
   CHECK(f.at("inches") == V{"DATA_IMPLAUSIBLE DIA_MM 12 mm is smaller than the plausible 30 mm (it looks like a value "

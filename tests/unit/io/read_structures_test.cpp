@@ -67,7 +67,7 @@ loss_k = 0.5
   CHECK(s[1].kind == model::StructureKind::outfall);
   CHECK(s[1].type_text == "OF");
   CHECK(s[1].location.x == 100.0);
-  CHECK(*s[1].tailwater_m == 0.0);  // a tailwater of 0 is a real level, not a placeholder
+  CHECK(*s[1].tailwater_m == 0.0);  // a tailwater of 0 is a real level, not a missing one
   CHECK(*s[4].diameter_m == 1.2);
   CHECK(*s[5].loss_k == 0.5);
   CHECK_FALSE(s[6].inflow_m3_s.has_value());
