@@ -152,6 +152,10 @@ double full_capacity_m3_s(const Roughness& r, const Section& s, double slope) {
   return uniform_flow_m3_s(r, s, rise_m(s), slope);
 }
 
+double full_velocity_m_s(const Roughness& r, const Section& s, double slope) {
+  return full_capacity_m3_s(r, s, slope) / full_geometry(s).area_m2;
+}
+
 double uniform_flow_m3_s(const Roughness& r, const Section& s, double depth_m, double slope) {
   validate(r);
   require_positive(slope, "slope (for a uniform-flow discharge)");

@@ -34,6 +34,7 @@ double full_friction_slope(const Roughness& r, const Section& s, double flow_m3_
 
 // Full-flow capacity [m^3/s] at slope S (> 0) and full-flow velocity [m/s].
 double full_capacity_m3_s(const Roughness& r, const Section& s, double slope);
+double full_velocity_m_s(const Roughness& r, const Section& s, double slope);
 // Discharge at depth y and slope S under uniform flow (conveyance * sqrt(S)).
 double uniform_flow_m3_s(const Roughness& r, const Section& s, double depth_m, double slope);
 

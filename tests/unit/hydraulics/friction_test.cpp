@@ -53,6 +53,8 @@ TEST_CASE("uniform flow is the inverse of the friction slope, for every law", "[
     }
   }
   CHECK(full_capacity_m3_s(Roughness{}, circle, 0.003) == uniform_flow_m3_s(Roughness{}, circle, 0.6, 0.003));
+  // Full-flow velocity: Manning with R = D/4.
+  CHECK(full_velocity_m_s(Roughness{}, circle, 0.003) == Approx(std::pow(0.15, 2.0 / 3.0) * std::sqrt(0.003) / 0.013).epsilon(1e-12));
 }
 
 TEST_CASE("Darcy-Weisbach: laminar 64/Re, transition continuous, laminar friction slope exact", "[friction]") {

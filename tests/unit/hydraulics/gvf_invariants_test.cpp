@@ -216,6 +216,9 @@ TEST_CASE("supercritical inflow at the inlet: M3 into a jump, S3 on a steep pipe
   CHECK(m.inlet().depth_m == Approx(0.15));
   const ConduitProfile s = compute_profile(reach(0.02, 0.8), 9.0, opt);
   CHECK(s.profile_class == "S3");
+  CHECK(compute_profile(reach(0.0, 0.5), 10.8, opt).profile_class.rfind("H3-jump-", 0) == 0);
+  CHECK(compute_profile(reach(-0.001, 0.5), 10.5, opt).profile_class.rfind("A3-jump-", 0) == 0);
+  CHECK(compute_profile(reach(-0.001, 0.5), 10.8, opt).profile_class == "A2");  // a deep tailwater drowns the jump
   CHECK(s.outlet().depth_m > 0.15);
   CHECK(s.outlet().depth_m < s.normal_depth_m);
 }
