@@ -155,18 +155,18 @@ ConduitProfile compute_profile(const ConduitReach& reach, double downstream_leve
       has_sup = true;
     }
   }
-  detail::StopRule below_super;
-  if (has_sup) {
-    const double sup_bottom = sup.end == detail::BranchEnd::reached_end ? 0.0 : sup.far_x();
-    below_super = [&](const Node& n) {
-      return n.x > sup_bottom && n.x < r.length && detail::specific_force_at(r, n) < detail::specific_force_at(r, detail::interpolated(sup, n.x));
-    };
-  }
   if (has_sup && sup.end == detail::BranchEnd::critical && r.near_critical_slope) {
     // An S3/M3 curve met critical depth on its way to a normal depth barely off it: uniform flow
     // is taken from there to the outlet.
     note = "near-critical slope: uniform flow assumed downstream of station " + std::to_string(sup.far_x()) + " m";
     detail::close_with_uniform_flow(r, sup, 0.0);
+  }
+  detail::StopRule below_super;
+  if (has_sup) {
+    const double sup_bottom = sup.end == detail::BranchEnd::reached_end ? 0.0 : sup.far_x();
+    below_super = [&r, &sup, sup_bottom](const Node& n) {
+      return n.x > sup_bottom && n.x < r.length && detail::specific_force_at(r, n) < detail::specific_force_at(r, detail::interpolated(sup, n.x));
+    };
   }
   Branch sub = over_capacity ? Branch{} : detail::march_subcritical(r, start, below_super);
   if (sub.end == detail::BranchEnd::critical && r.has_normal && r.yn >= r.yc && !has_sup) {
