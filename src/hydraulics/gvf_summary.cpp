@@ -6,6 +6,7 @@
 #include <string>
 
 #include "hydraulics/gvf_summary.hpp"
+#include "hydraulics/kernels.hpp"
 #include "rimline/units.hpp"
 
 namespace rimline::hydraulics::detail {
@@ -56,6 +57,15 @@ ProfilePoint point_of(const PreparedReach& r, const Node& n) {
   p.hgl_m = n.hgl;
   p.velocity_m_s = velocity_at(r, n);
   p.egl_m = p.hgl_m + p.velocity_m_s * p.velocity_m_s / (2.0 * g);
+  if (n.full) {
+    p.regime = Regime::pressurized;
+  } else if (n.y <= 0.0) {
+    p.regime = Regime::dry;
+  } else {
+    const Geometry geo = free_surface_geometry(r.section, n.y);
+    if (geo.top_width_m > 0.0) p.froude = p.velocity_m_s / std::sqrt(g * geo.area_m2 / geo.top_width_m);
+    p.regime = p.froude > 1.0 + 1e-9 ? Regime::supercritical : Regime::subcritical;
+  }
   return p;
 }
 }  // namespace

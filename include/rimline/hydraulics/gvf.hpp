@@ -41,6 +41,8 @@ struct ProfilePoint {
   double egl_m = 0.0;      // hgl + V^2/2g
   double velocity_m_s = 0.0;
   bool full = false;
+  double froude = 0.0;     // 0 when full or still
+  Regime regime = Regime::subcritical;  // per point: dry, subcritical (Fr <= 1), supercritical, pressurized
 };
 
 struct GvfOptions {

@@ -143,6 +143,8 @@ TEST_CASE("surcharged outlet: pressure flow until the HGL meets the crown, then 
   const double sf = full_friction_slope(r.roughness, r.section, 0.5);
   const double x_meet = (11.04 - 11.0) / (0.001 - sf);  // HGL 11.04 + sf x meets crown 11.0 + 0.001 x
   CHECK(p.outlet().full);
+  CHECK(p.outlet().regime == Regime::pressurized);
+  CHECK(p.inlet().regime == Regime::subcritical);
   CHECK(p.outlet().hgl_m == 11.04);
   CHECK(p.surcharged_length_m == Approx(x_meet).epsilon(1e-12));
   CHECK(p.profile_class == "M1-full");
@@ -185,6 +187,12 @@ TEST_CASE("steep pipe with tailwater: jump where the specific forces balance", "
   CHECK(down.depth_m > p.critical_depth_m);
   CHECK(specific_force_m3(r.section, 0.8, down.depth_m) == Approx(specific_force_m3(r.section, 0.8, up.depth_m)).epsilon(1e-5));
   CHECK(p.jump_loss_m == Approx(up.egl_m - down.egl_m).margin(1e-12));
+  // Per-point regime: subcritical below the jump, supercritical above it, critical at the inlet.
+  for (std::size_t i = 0; i + 1 < p.points.size(); ++i) {
+    CHECK(p.points[i].regime == (i <= k ? Regime::subcritical : Regime::supercritical));
+    CHECK((p.points[i].froude > 1.0) == (i > k));
+  }
+  CHECK(p.inlet().froude == Approx(1.0).epsilon(1e-6));
   CHECK(p.jump_loss_m > 0.0);
   // A low tailwater cannot hold the jump: supercritical to the outlet.
   CHECK(compute_profile(r, 10.45).profile_class == "S2");
