@@ -111,3 +111,15 @@ TEST_CASE("xml_check itself rejects broken markup", "[report][svg]") {
   CHECK_FALSE(test::check_xml("<a>").error.empty());
   CHECK(test::check_xml("<a x=\"1\"><b/>&amp;</a>").error.empty());
 }
+
+TEST_CASE("an unsolved pipe breaks the HGL and EGL", "[report][scene]") {
+  auto run = test::fixture_run();
+  run.cases[0].march.conduits[1].solved = false;  // C1, between S1 (100 m) and S2 (180 m)
+  const auto s = report::build_scene(run, s4_path(run), 0, 1);
+  const auto& hgl = s.line(Stroke::hgl);
+  REQUIRE(hgl.parts.size() == 2);
+  CHECK(hgl.parts[0].back().x == Approx(100.0));
+  CHECK(hgl.parts[1].front().x == Approx(180.0));
+  CHECK(s.line(Stroke::egl).parts.size() == 2);
+  CHECK_FALSE(s.pipes[1].solved);
+}
