@@ -78,7 +78,7 @@ void write_drawings(const run::CheckRun& run, StagedFiles& files, const DrawingO
   const bool pdf = pdf_supported() && !sheets.empty();
   if (pdf) write_profiles_pdf(run, sheets, date, files.path_for("profiles.pdf"));
   else fs::remove(dir / "profiles.pdf", ec);
-  write_file(html_tmp, report_html(run, rendered, date, pdf));
+  write_file(html_tmp, report_html(run, rendered, date, pdf, selection_text(options, run.report_units)));
 }
 
 }  // namespace rimline::report

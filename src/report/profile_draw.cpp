@@ -200,6 +200,18 @@ void draw_markers(const ProfileScene& s, const PlotFrame& f, Canvas& c) {
   }
 }
 
+// A hydraulic jump: a short upright bar through the HGL, labelled, where the profile changes regime.
+void draw_jumps(const ProfileScene& s, const PlotFrame& f, Canvas& c) {
+  c.begin_group("jumps", "");
+  for (const auto& p : s.pipes) {
+    if (!std::isfinite(p.jump_station) || !std::isfinite(p.jump_elevation)) continue;
+    const double x = f.px(p.jump_station), y = f.py(p.jump_elevation);
+    c.polyline({{x, y + 2.5}, {x, y - 2.5}}, Pen{0.5, {}, pen_for(Stroke::hgl).color});
+    c.text({x, y - 3.2}, "jump", TextStyle{1.8, Anchor::middle, false, 0.0, black});
+  }
+  c.end_group();
+}
+
 void draw_band(const ProfileScene& s, const PlotFrame& f, const Panel& p, const std::vector<bool>& labelled,
                Canvas& c) {
   const double top = f.top_mm + f.height_mm + station_row_h;
@@ -322,6 +334,7 @@ PlotFrame draw_profile(const ProfileScene& scene, const Panel& panel, Canvas& ca
   draw_structures(scene, f, labelled, canvas);
   draw_line(scene.line(Stroke::egl), f, canvas, "egl");
   draw_line(scene.line(Stroke::hgl), f, canvas, "hgl");
+  draw_jumps(scene, f, canvas);
   draw_markers(scene, f, canvas);
   draw_band(scene, f, panel, labelled, canvas);
   draw_finding_list(scene, f, panel, canvas);

@@ -6,6 +6,7 @@
 #include <map>
 
 #include "rimline/error.hpp"
+#include "rimline/finding.hpp"
 
 namespace rimline::report {
 namespace {
@@ -101,6 +102,21 @@ std::vector<ProfilePath> trunk_paths(const model::Network& network, const topolo
     for (auto& p : in_this_tree) out.push_back(std::move(p));
   }
   return out;
+}
+
+std::string selection_text(const DrawingOptions& options, units::System system) {
+  switch (options.selection) {
+    case PathSelection::longest:
+      return "Each profile follows the longest path (by plan length) of one outfall tree, from its head down the "
+             "main outflows to the outfall.";
+    case PathSelection::from_structure:
+      return "The profile runs from structure " + options.from_structure_id + " down the main outflows to its outfall.";
+    case PathSelection::trunks:
+      return "One profile per trunk of pipes at least " +
+             render_message(q(options.min_rise_m, units::Dimension::length), system) +
+             " high, from where the trunk begins down to the outfall.";
+  }
+  return "";
 }
 
 std::vector<ProfileSheet> plan_sheets(const model::Network& network, const topology::Topology& topo,

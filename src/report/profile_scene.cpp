@@ -96,7 +96,7 @@ ProfileScene build_scene(const run::CheckRun& run, const ProfilePath& path, std:
     const auto& r = kase.march.conduits[ci];
     const auto [down, up] = pipe_inverts(net, r, ci);
     ScenePipe p{c.id, cv(path.station_m[i]), cv(path.station_m[i + 1]), cv(down), cv(up),
-                cv(hydraulics::rise_m(c.section)), size_text(c.section, s.system), "", r.solved};
+                cv(hydraulics::rise_m(c.section)), size_text(c.section, s.system), "", r.solved, nan, nan};
     if (c.length_m > 0.0 && std::isfinite(up - down)) {
       char buf[32];
       std::snprintf(buf, sizeof buf, "%.2f %%", 100.0 * (up - down) / (p.station_up - p.station_down));
@@ -160,6 +160,18 @@ ProfileScene build_scene(const run::CheckRun& run, const ProfilePath& path, std:
     const double drawn = s.pipes[i].station_up - s.pipes[i].station_down;
     const double marched = cv(r.profile.inlet().station_m);
     const double k = marched > 0.0 ? drawn / marched : 0.0;
+    auto& pipe = s.pipes[i];
+    if (r.profile.jump_station_m) {
+      pipe.jump_station = pipe.station_down + k * cv(*r.profile.jump_station_m);
+      double nearest = std::numeric_limits<double>::infinity();
+      for (const auto& pt : r.profile.points) {
+        const double d = std::fabs(pt.station_m - *r.profile.jump_station_m);
+        if (d < nearest) {
+          nearest = d;
+          pipe.jump_elevation = cv(pt.hgl_m);
+        }
+      }
+    }
     for (const auto& pt : r.profile.points) {
       const double x = s.pipes[i].station_down + k * cv(pt.station_m);
       hgl.add(x, cv(pt.hgl_m));

@@ -42,6 +42,8 @@ struct ScenePipe {
   std::string size_text;   // "1500 mm" / "60 in" / "1200 x 900 mm"
   std::string slope_text;  // "0.22 %"
   bool solved = false;
+  double jump_station = 0.0;    // hydraulic jump in the pipe; NaN when none
+  double jump_elevation = 0.0;  // HGL at the step point nearest the jump
 };
 
 struct SceneMarker {

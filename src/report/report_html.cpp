@@ -219,8 +219,10 @@ std::string profile_index(const std::vector<RenderedProfile>& profiles, const st
   return h + "</table>\n";
 }
 
-std::string profiles_section(const std::vector<RenderedProfile>& profiles, bool pdf_written, const std::string& u) {
-  std::string h = "<section id=\"profiles\"><h2>Profiles</h2>\n<p>Station 0 at the outfall, increasing upstream. ";
+std::string profiles_section(const std::vector<RenderedProfile>& profiles, bool pdf_written, const std::string& u,
+                             const std::string& selection) {
+  std::string h = "<section id=\"profiles\"><h2>Profiles</h2>\n<p>" + esc(selection) +
+                  (selection.empty() ? "" : " ") + "Station 0 at the outfall, increasing upstream. ";
   h += pdf_written ? "Every profile is also a sheet of <a href=\"profiles.pdf\">profiles.pdf</a> (A3 landscape)."
                    : "No PDF was written.";
   h += "</p>\n";
@@ -236,7 +238,7 @@ std::string profiles_section(const std::vector<RenderedProfile>& profiles, bool 
 }  // namespace
 
 std::string report_html(const run::CheckRun& run, const std::vector<RenderedProfile>& profiles,
-                        const std::string& date, bool pdf_written) {
+                        const std::string& date, bool pdf_written, const std::string& selection) {
   std::set<std::string> data_keys;
   for (const auto& f : run.data_findings) data_keys.insert(finding_key(f));
   Findings criteria, data;
@@ -255,7 +257,7 @@ std::string report_html(const run::CheckRun& run, const std::vector<RenderedProf
   h += "<section id=\"exceptions\"><h2>Exception list</h2>\n<p>Design criteria not met, worst case over the "
        "tailwater cases, by severity. A structure finding opens to its energy budget down to the outfall.</p>\n";
   h += findings_table(run, criteria, "exception-table", true) + "</section>\n";
-  h += profiles_section(profiles, pdf_written, unit(Dimension::length, run.report_units));
+  h += profiles_section(profiles, pdf_written, unit(Dimension::length, run.report_units), selection);
   h += data_findings_section(run, data);
   h += "</main>\n<footer><p class=\"caution\" id=\"caution\">" + esc(caution) + "</p></footer>\n</body>\n</html>\n";
   return h;

@@ -11,6 +11,7 @@
 
 #include "rimline/model/network.hpp"
 #include "rimline/topology/build.hpp"
+#include "rimline/units.hpp"
 
 namespace rimline::report {
 
@@ -58,6 +59,9 @@ struct DrawingOptions {
   std::string from_structure_id;  // for from_structure
   double min_rise_m = 0.0;        // for trunks
 };
+
+// One sentence saying which paths are drawn, for the report.
+std::string selection_text(const DrawingOptions& options, units::System system);
 
 // One drawn profile: a path in one tailwater case, named <outfall-id>-<number>.
 struct ProfileSheet {

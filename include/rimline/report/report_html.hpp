@@ -26,8 +26,9 @@ struct RenderedProfile {
   std::size_t findings = 0;        // findings marked on the drawing
 };
 
+// `selection` says which paths the profiles follow (selection_text).
 std::string report_html(const run::CheckRun& run, const std::vector<RenderedProfile>& profiles,
-                        const std::string& date, bool pdf_written);
+                        const std::string& date, bool pdf_written, const std::string& selection = "");
 
 // Stages DIR/profiles/<outfall-id>-<n>.svg, DIR/profiles.pdf (when built with cairo and there
 // is a profile) and DIR/report.html in `files`; the caller commits. Profile SVGs left in

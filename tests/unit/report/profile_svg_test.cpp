@@ -123,3 +123,15 @@ TEST_CASE("an unsolved pipe breaks the HGL and EGL", "[report][scene]") {
   CHECK(s.line(Stroke::egl).parts.size() == 2);
   CHECK_FALSE(s.pipes[1].solved);
 }
+
+TEST_CASE("a hydraulic jump is placed on the drawn pipe and marked", "[report][scene]") {
+  auto run = test::fixture_run();
+  run.cases[0].march.conduits[1].profile.jump_station_m = 40.0;  // mid C1: drawn at 100 + 40 m
+  const auto path = s4_path(run);
+  const auto s = report::build_scene(run, path, 0, 1);
+  CHECK(s.pipes[1].jump_station == Approx(140.0));
+  CHECK(s.pipes[1].jump_elevation == Approx(3.40));  // HGL of C1's step point at 40 m
+  CHECK(std::isnan(s.pipes[0].jump_station));
+  const std::string svg = report::profile_svg(run, path, 0, 1);
+  CHECK(svg.find(">jump</text>") != std::string::npos);
+}
