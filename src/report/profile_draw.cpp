@@ -160,7 +160,7 @@ void draw_structures(const ProfileScene& s, const PlotFrame& f, const std::vecto
     const double px = f.px(st.station);
     const double bottom = std::isfinite(st.bottom) ? st.bottom : f.y0;
     const bool rim_known = std::isfinite(st.rim);
-    // Without a rim the structure is drawn as a dashed stub above the highest crown it meets.
+    // Without a rim the structure is drawn as a short dashed box above the highest crown it meets.
     const double crown = std::isfinite(st.crown) ? st.crown : bottom;
     const double top_mm = rim_known ? f.py(st.rim) : f.py(crown) - 6.0;
     const double w = st.outfall ? 1.6 : 1.0;

@@ -7,7 +7,7 @@
 //   ground / rim       heavy solid          required freeboard  thin dotted, below the rim
 //   pipe crown         thin solid           pipe invert         medium solid; pipe bore shaded
 //   HGL                medium long dash     EGL                 thin dash-dot
-//   structure          white box invert..rim; dashed box: rim unknown (a stub above the crown)
+//   structure          white box invert..rim; dashed box: rim unknown (drawn a little above the crown)
 //   findings           error: solid triangle; warning: hollow triangle; info: hollow circle,
 //                      numbered in station order and listed under the band
 // Labels that would collide are thinned: the outfall, the head and flagged structures first.
