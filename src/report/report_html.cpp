@@ -176,7 +176,9 @@ std::string findings_table(const run::CheckRun& run, const Findings& list, const
       h += row({"<b>" + esc(f.code) + "</b>", esc(layer_role_name(f.layer)), esc(f.feature_id), esc(f.field),
                 value(f.value, f.dimension, sys), value(f.limit, f.dimension, sys),
                 has_value ? esc(unit(f.dimension, sys)) : "", esc(render_message(f.message, sys))});
-      if (!budgets || f.layer != LayerRole::structures) continue;
+      // Budgets answer "why is the HGL this high here": asked of warnings and errors, not of
+      // notes such as an unknown rim (thousands of them in a municipal export).
+      if (!budgets || f.layer != LayerRole::structures || f.severity == Severity::info) continue;
       const std::size_t s = model::find_structure(run.read.network, f.feature_id);
       if (s == model::no_index || run.cases.empty()) continue;
       const std::string b = budget(run, s);
@@ -255,7 +257,8 @@ std::string report_html(const run::CheckRun& run, const std::vector<RenderedProf
   h += inputs_section(run);
   h += methods_section(run);
   h += "<section id=\"exceptions\"><h2>Exception list</h2>\n<p>Design criteria not met, worst case over the "
-       "tailwater cases, by severity. A structure finding opens to its energy budget down to the outfall.</p>\n";
+       "tailwater cases, by severity. A structure warning or error opens to its energy budget down to the "
+       "outfall.</p>\n";
   h += findings_table(run, criteria, "exception-table", true) + "</section>\n";
   h += profiles_section(profiles, pdf_written, unit(Dimension::length, run.report_units), selection);
   h += data_findings_section(run, data);

@@ -97,3 +97,11 @@ TEST_CASE("the report is the same for the same run apart from the date", "[repor
   CHECK(a == b);
   CHECK(a.find("No path with a pipe was found") != std::string::npos);
 }
+
+TEST_CASE("an info finding at a structure carries no budget", "[report][html]") {
+  auto run = test::fixture_run();
+  for (auto& f : run.findings)
+    if (f.code == "FREEBOARD") f.severity = Severity::info;
+  const std::string h = html_of(run);
+  CHECK(h.find("Energy budget to the outfall") == std::string::npos);
+}
