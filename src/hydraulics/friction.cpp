@@ -31,14 +31,16 @@ void require_flow(double q) {
 }
 
 double colebrook(double re, double rel) {
-  // Start from Swamee-Jain (1976) and iterate the fixed point x = -2 log10(rel/3.7 + 2.51 x / Re),
-  // x = 1/sqrt f; it contracts strongly for Re > 4000 and converges in a few steps.
-  double x = -2.0 * std::log10(rel / 3.7 + 5.74 / std::pow(re, 0.9));
+  // Newton's method on g(x) = x + 2 log10(a + b x), x = 1/sqrt f, a = rel/3.7, b = 2.51/Re,
+  // from the Swamee-Jain (1976) estimate; g is increasing and concave, so Newton converges
+  // monotonically, in two or three steps to 1e-12.
+  const double a = rel / 3.7, b = 2.51 / re, k = 2.0 / std::log(10.0);
+  double x = -2.0 * std::log10(a + 5.74 / std::pow(re, 0.9));
   for (int i = 0; i < 50; ++i) {
-    const double next = -2.0 * std::log10(rel / 3.7 + 2.51 * x / re);
-    const bool done = std::fabs(next - x) <= 5e-11 * next;
-    x = next;
-    if (done) break;
+    const double inner = a + b * x;
+    const double step = (x + 2.0 * std::log10(inner)) / (1.0 + k * b / inner);
+    x -= step;
+    if (std::fabs(step) <= 1e-12 * x) break;
   }
   return 1.0 / (x * x);
 }
