@@ -93,9 +93,9 @@ double direct_step(const PreparedReach& r, double x0, double head0, double sf0, 
   return denom == 0.0 ? 0.0 : (t.e - spec0) / denom;
 }
 
-// Marches a free surface from `start` towards x_end (dir = +1 upstream, -1 downstream). Appends
-// accepted nodes to b. Returns how the march ended; BranchEnd::reached_end with the last node at
-// the crown means the surface met the soffit (sub side only).
+// Marches a free surface from `start` towards x_end (dir = +1 upstream, -1 downstream), appending
+// accepted nodes to b. Returns how the march ended: at x_end, at the crown (sub side only; the
+// last node sits at the soffit), at critical depth, at the step cap, or stopped by the rule.
 enum class FreeEnd { end, crown, critical, cap, stopped };
 
 FreeEnd march_free(const PreparedReach& r, Branch& b, const Node& start, double x_end, int dir, const StopRule& stop) {
