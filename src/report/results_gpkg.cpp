@@ -3,7 +3,11 @@
 #include <ogrsf_frmts.h>
 
 #include <cmath>
+#include <map>
 #include <memory>
+#include <string>
+#include <utility>
+#include <vector>
 
 #include "rimline/error.hpp"
 #include "rimline/hydraulics/section.hpp"
@@ -79,9 +83,27 @@ class Writer {
     l->CreateField(&d);
   }
 
-  void set(OGRFeature& f, const char* name, double si, Dimension d) const {
-    if (std::isfinite(si)) f.SetField(name, to_report(si, d, sys_));
-    else f.SetFieldNull(f.GetFieldIndex(name));
+  // Field index by name, looked up once per layer and name: OGRFeatureDefn::GetFieldIndex is a
+  // linear case-insensitive scan, a fifth of this writer's time at 1e5 pipes when done per value.
+  // Keyed by the name's address (the names are literals of this file); another address holding
+  // the same name is merely another cache entry.
+  int ix(OGRFeature& f, const char* name) {
+    const auto key = std::make_pair(f.GetDefnRef(), name);
+    const auto it = field_ix_.find(key);
+    if (it != field_ix_.end()) return it->second;
+    return field_ix_[key] = f.GetFieldIndex(name);
+  }
+
+  void set(OGRFeature& f, const char* name, double si, Dimension d) {
+    if (std::isfinite(si)) f.SetField(ix(f, name), to_report(si, d, sys_));
+    else f.SetFieldNull(ix(f, name));
+  }
+
+  // The case label as shown, rendered once per case rather than once per feature.
+  const std::string& case_label(std::size_t k) {
+    if (case_labels_.empty())
+      for (const auto& c : run_.cases) case_labels_.push_back(render_message(c.label, sys_));
+    return case_labels_[k];
   }
 
   void write_structures() {
@@ -93,24 +115,24 @@ class Writer {
     for (std::size_t s = 0; s < net.structures.size(); ++s) {
       const auto& st = net.structures[s];
       OGRFeature f(l->GetLayerDefn());
-      f.SetField("id", st.id.c_str());
-      f.SetField("kind", std::string(model::structure_kind_name(st.kind)).c_str());
-      f.SetField("status", run::envelope_status(run_, s).c_str());
+      f.SetField(ix(f, "id"), st.id.c_str());
+      f.SetField(ix(f, "kind"), std::string(model::structure_kind_name(st.kind)).c_str());
+      f.SetField(ix(f, "status"), run::envelope_status(run_, s).c_str());
       set(f, "rim", st.rim_m.value_or(NAN), Dimension::length);
       set(f, "invert", st.invert_m.value_or(NAN), Dimension::length);
       set(f, "required_freeboard", run_.criteria.freeboard_m, Dimension::length);
       if (!run_.cases.empty()) {
         const auto& c = run_.cases[run_.envelope_structure_case[s]];
         const auto& r = c.march.structures[s];
-        f.SetField("tailwater_case", render_message(c.label, sys_).c_str());
+        f.SetField(ix(f, "tailwater_case"), case_label(run_.envelope_structure_case[s]).c_str());
         if (r.solved) {
           set(f, "hgl", r.hgl_m, Dimension::length);
           set(f, "egl", r.egl_m, Dimension::length);
           set(f, "freeboard", st.rim_m ? *st.rim_m - r.hgl_m : NAN, Dimension::length);
           set(f, "structure_loss", r.loss_m, Dimension::length);
-          f.SetField("k_effective", r.k_effective);
+          f.SetField(ix(f, "k_effective"), r.k_effective);
           if (r.governing_outflow != model::no_index)
-            f.SetField("governing_outflow", net.conduits[r.governing_outflow].id.c_str());
+            f.SetField(ix(f, "governing_outflow"), net.conduits[r.governing_outflow].id.c_str());
         }
       }
       double x = st.location.x, y = st.location.y;
@@ -145,26 +167,26 @@ class Writer {
           !run_.cases.empty() && run_.cases[run_.envelope_conduit_case[ci]].march.conduits[ci].solved;
       OGRLayer* l = solved ? solved_layer : unsolved_layer;
       OGRFeature f(l->GetLayerDefn());
-      f.SetField("id", c.id.c_str());
-      if (c.from != model::no_index) f.SetField("from_id", net.structures[c.from].id.c_str());
-      if (c.to != model::no_index) f.SetField("to_id", net.structures[c.to].id.c_str());
-      f.SetField("shape", std::string(hydraulics::shape_name(c.section.shape)).c_str());
+      f.SetField(ix(f, "id"), c.id.c_str());
+      if (c.from != model::no_index) f.SetField(ix(f, "from_id"), net.structures[c.from].id.c_str());
+      if (c.to != model::no_index) f.SetField(ix(f, "to_id"), net.structures[c.to].id.c_str());
+      f.SetField(ix(f, "shape"), std::string(hydraulics::shape_name(c.section.shape)).c_str());
       set(f, "rise", c.section.shape == hydraulics::Shape::circular ? c.section.diameter_m : c.section.height_m,
           Dimension::length);
       set(f, "width", c.section.shape == hydraulics::Shape::box ? c.section.width_m : NAN, Dimension::length);
       set(f, "length", c.length_m, Dimension::length);
-      f.SetField("reversed", c.reversed ? 1 : 0);
+      f.SetField(ix(f, "reversed"), c.reversed ? 1 : 0);
       if (!run_.cases.empty()) {
         const auto& cs = run_.cases[run_.envelope_conduit_case[ci]];
         const auto& r = cs.march.conduits[ci];
-        f.SetField("tailwater_case", render_message(cs.label, sys_).c_str());
-        if (!r.note.empty()) f.SetField("note", r.note.c_str());
+        f.SetField(ix(f, "tailwater_case"), case_label(run_.envelope_conduit_case[ci]).c_str());
+        if (!r.note.empty()) f.SetField(ix(f, "note"), r.note.c_str());
         set(f, "flow", r.flow_m3_s, Dimension::flow);
         if (r.solved) {
           const auto& p = r.profile;
-          f.SetField("slope", r.slope);
+          f.SetField(ix(f, "slope"), r.slope);
           set(f, "capacity", r.capacity_m3_s, Dimension::flow);
-          if (std::isfinite(r.capacity_m3_s) && r.capacity_m3_s > 0) f.SetField("capacity_ratio", r.flow_m3_s / r.capacity_m3_s);
+          if (std::isfinite(r.capacity_m3_s) && r.capacity_m3_s > 0) f.SetField(ix(f, "capacity_ratio"), r.flow_m3_s / r.capacity_m3_s);
           set(f, "invert_up", r.invert_up_m, Dimension::length);
           set(f, "invert_down", r.invert_down_m, Dimension::length);
           set(f, "velocity_up", p.inlet().velocity_m_s, Dimension::velocity);
@@ -178,9 +200,9 @@ class Writer {
           set(f, "normal_depth", p.normal_depth_m, Dimension::length);
           set(f, "critical_depth", p.critical_depth_m, Dimension::length);
           set(f, "surcharged_length", p.surcharged_length_m, Dimension::length);
-          f.SetField("regime", std::string(hydraulics::regime_name(p.regime)).c_str());
-          f.SetField("governs", std::string(hydraulics::governs_name(p.governs)).c_str());
-          f.SetField("profile_class", p.profile_class.c_str());
+          f.SetField(ix(f, "regime"), std::string(hydraulics::regime_name(p.regime)).c_str());
+          f.SetField(ix(f, "governs"), std::string(hydraulics::governs_name(p.governs)).c_str());
+          f.SetField(ix(f, "profile_class"), p.profile_class.c_str());
         }
       }
       OGRLineString line;
@@ -199,12 +221,13 @@ class Writer {
     for (const char* n : {"id", "tailwater_case"}) field(l, n, OFTString);
     for (const char* n : {"tailwater", "hgl", "freeboard"}) field(l, n, OFTReal);
     const auto& net = run_.read.network;
-    for (const auto& c : run_.cases) {
+    for (std::size_t k = 0; k < run_.cases.size(); ++k) {
+      const auto& c = run_.cases[k];
       for (std::size_t s = 0; s < net.structures.size(); ++s) {
         const auto& r = c.march.structures[s];
         OGRFeature f(l->GetLayerDefn());
-        f.SetField("id", net.structures[s].id.c_str());
-        f.SetField("tailwater_case", render_message(c.label, sys_).c_str());
+        f.SetField(ix(f, "id"), net.structures[s].id.c_str());
+        f.SetField(ix(f, "tailwater_case"), case_label(k).c_str());
         set(f, "tailwater", c.tailwater_m, Dimension::length);
         set(f, "hgl", r.solved ? r.hgl_m : NAN, Dimension::length);
         const auto& rim = net.structures[s].rim_m;
@@ -221,18 +244,20 @@ class Writer {
   OGRSpatialReference out_srs_;
   OGRSpatialReference run_srs_;
   std::unique_ptr<OGRCoordinateTransformation> to_source_;
+  std::map<std::pair<const OGRFeatureDefn*, const char*>, int> field_ix_;
+  std::vector<std::string> case_labels_;
 };
 
 }  // namespace
 
 void write_results_gpkg(const run::CheckRun& run, const std::string& path) { Writer(run, path).write(); }
 
-void write_outputs(const run::CheckRun& run, const std::string& out_dir) {
+void write_outputs(const run::CheckRun& run, const std::string& out_dir, const OutputOptions& options) {
   StagedFiles files(out_dir);
   files.write_text("exceptions.csv", exceptions_csv(run));
   files.write_text("summary.json", summary_json(run));
   write_results_gpkg(run, files.path_for("results.gpkg"));
-  write_drawings(run, files);
+  if (options.drawings) write_drawings(run, files, options.profiles);
   files.commit();
 }
 

@@ -207,6 +207,9 @@ class Marcher {
     try {
       if (r.slope > 0.0) r.capacity_m3_s = hydraulics::full_capacity_m3_s(c.roughness, c.section, r.slope);
       r.profile = hydraulics::compute_profile(reach, down.hgl_m, opt_.gvf);
+      // The step points stay in the result for the whole run (drawings, outputs); growth by
+      // doubling left up to half of each vector's capacity unused, most of the march's memory.
+      r.profile.points.shrink_to_fit();
       r.solved = true;
     } catch (const Error& e) {
       r.note = std::string("not checked: ") + e.what();
