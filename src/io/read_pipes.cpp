@@ -3,6 +3,7 @@
 // (tests pin them); see read_network.hpp for the codes.
 #include <algorithm>
 #include <cmath>
+#include <limits>
 
 #include "io/duplicate_ids.hpp"
 #include "io/pipe_reader.hpp"
@@ -70,6 +71,9 @@ void PipeReader::read_geometry(OGRFeature& feature, model::Conduit& c, const Fea
   const LineOutcome g =
       read_line(feature.GetGeometryRef(), in_.placement, p_.snap_tolerance_m, c.vertices, c.vertex_z_m);
   const auto L = Dimension::length;
+  // Ends stay without coordinates until a line gives them: topology leaves such a pipe unconnected
+  // rather than snapping an end that defaulted to (0, 0).
+  c.up_point = c.down_point = {std::numeric_limits<double>::quiet_NaN(), std::numeric_limits<double>::quiet_NaN()};
   switch (g.status) {
     case LineStatus::missing:
       who.add("DATA_GEOMETRY", Severity::error, "", "The pipe has no geometry; it is left out of the analysis.");
@@ -111,6 +115,13 @@ void PipeReader::read_geometry(OGRFeature& feature, model::Conduit& c, const Fea
             c.geometry_length_m, zero_length_m, L);
     c.usable = false;
   }
+  // A line that crosses or runs back over itself (a digitising slip) overstates the plan length.
+  const OGRGeometry* geometry = feature.GetGeometryRef();
+  if (c.usable && geometry && OGRGeometryFactory::haveGEOS() && !geometry->IsSimple())
+    who.add("DATA_GEOMETRY", Severity::warning, "",
+            "The line crosses or runs back over itself; its plan length " + q(c.geometry_length_m, L) +
+                " may be overstated.",
+            c.geometry_length_m, std::numeric_limits<double>::quiet_NaN(), L);
 }
 
 void PipeReader::read_length(OGRFeature& feature, model::Conduit& c, const FeatureRef& who) {

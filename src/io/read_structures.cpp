@@ -64,6 +64,13 @@ class StructureReader {
     if (col_.rim >= 0) s.rim_m = checked_level(read_number(feature, col_.rim), f_.rim, "rim", p_.plausibility, who);
     if (col_.invert >= 0)
       s.invert_m = checked_level(read_number(feature, col_.invert), f_.invert, "invert", p_.plausibility, who);
+    if (s.rim_m && s.invert_m && *s.invert_m > *s.rim_m) {  // one of them is wrong; a flood there would be false
+      who.add("DATA_IMPLAUSIBLE", Severity::warning, f_.rim.field,
+              f_.rim.field + " " + q(*s.rim_m, Dimension::length) + " is below the invert " + f_.invert.field + " " +
+                  q(*s.invert_m, Dimension::length) + "; the rim is unknown.",
+              *s.rim_m, *s.invert_m, Dimension::length);
+      s.rim_m.reset();
+    }
     if (col_.tailwater >= 0) {  // a tailwater of exactly 0 is a real level at a sea outfall
       const RawNumber raw = read_number(feature, col_.tailwater);
       if (raw.state != RawNumber::State::null)

@@ -32,7 +32,14 @@ std::string label(const OGRSpatialReference& srs) {
 // The layer's CRS, or the project's crs when the layer has none.
 OGRSpatialReference layer_crs(const OpenLayer& l, const std::string& crs_override) {
   OGRSpatialReference srs;
-  if (const OGRSpatialReference* own = l.layer->GetSpatialRef()) {
+  const OGRSpatialReference* own = l.layer->GetSpatialRef();
+  // A GeoPackage layer without a CRS points at srs_id 0 or -1, which GDAL reads back as
+  // "Undefined geographic SRS" / "Undefined Cartesian SRS" (OGC GeoPackage 1.3, Requirement 11):
+  // no CRS at all, not a geographic one.
+  if (own && !own->GetAuthorityCode(nullptr) && own->GetName() &&
+      (std::string(own->GetName()) == "Undefined geographic SRS" || std::string(own->GetName()) == "Undefined Cartesian SRS"))
+    own = nullptr;
+  if (own) {
     srs = *own;
   } else if (!crs_override.empty()) {
     GdalErrorCapture capture;

@@ -64,6 +64,27 @@ std::string case_label(double tw) {
   return "tailwater " + q(tw, units::Dimension::length);
 }
 
+// TOPOLOGY_NO_OUTFALL: a tree that ends at a manhole, inlet or junction when the export types its
+// structures: it names no outfall there (a missing outfall, a pipe missing downstream, a cut loop).
+// Untyped layers (every structure a manhole by default) are left out: there the end is the only clue.
+void report_untyped_outfalls(const io::Project& project, const model::Network& net, const topology::Topology& topo,
+                             Findings& findings) {
+  if (project.structures.source.empty() || project.structure_fields.type.empty()) return;
+  using K = model::StructureKind;
+  for (const auto& tree : topo.trees) {
+    const auto& st = net.structures[tree.outfall];
+    if (st.kind != K::manhole && st.kind != K::inlet && st.kind != K::junction) continue;
+    Finding f;
+    f.code = "TOPOLOGY_NO_OUTFALL";
+    f.severity = Severity::warning;
+    f.layer = LayerRole::structures;
+    f.feature_id = st.id;
+    f.message = "structure " + st.id + " is a " + std::string(model::structure_kind_name(st.kind)) +
+                ", not an outfall, but no marched pipe leaves it; its tree is marched from it as if it were the outfall";
+    findings.push_back(std::move(f));
+  }
+}
+
 }  // namespace
 
 CheckRun run_check(const io::Project& project, const RunOptions& options) {
@@ -75,6 +96,7 @@ CheckRun run_check(const io::Project& project, const RunOptions& options) {
   topology::TopologyOptions topo_opt;
   topo_opt.snap_tolerance_m = project.snap_tolerance_m;
   run.topology = topology::build_topology(run.read.network, topo_opt, run.data_findings);
+  report_untyped_outfalls(project, run.read.network, run.topology, run.data_findings);
   run.criteria = criteria_from(project);
   run.march_options = march_options_from(project);
   if (options.dry_run) {

@@ -11,9 +11,10 @@
 //   DATA_IMPLAUSIBLE  text or non-finite where a number belongs; inverts/rims exactly 0 or outside
 //                     [plausibility] (sentinels); sizes <= 0 or outside diameter_min..max, with the unit
 //                     the value looks like; n outside 0.008..0.05, ks outside 0..0.1 m; mapped length off
-//                     the geometry by more than length_tolerance; negative flows; unlisted shape/type values
+//                     the geometry by more than length_tolerance; negative flows; unlisted shape/type values;
+//                     a structure rim below its invert (the rim is then unknown)
 //   DATA_GEOMETRY     no geometry, not a line / point, zero length, multi-part with a gap (error), or
-//                     multi-part merged into one line (info)
+//                     multi-part merged into one line (info), a line crossing or running back over itself (warning)
 //   DATA_DUPLICATE_ID an id an earlier feature of the layer already has
 //   DATA_SOURCE       a message GDAL raised while reading the feature
 // Severity error = the pipe is unusable (Conduit::usable = false) or the structure left out.

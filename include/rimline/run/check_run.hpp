@@ -1,5 +1,7 @@
 #pragma once
 // One whole check: read -> network -> topology -> flows -> march (per tailwater level) -> checks.
+// Adds TOPOLOGY_NO_OUTFALL (warning, structures): with a typed structure layer, a tree that ends at a
+// manhole, inlet or junction; it is marched from there as if that were the outfall.
 // No files are written here; report/ writes the outputs from a CheckRun.
 #include <optional>
 #include <vector>
