@@ -19,6 +19,9 @@ struct CheckArgs {
   std::string units;
   std::vector<std::string> tailwater;
   bool dry_run = false;
+  bool no_drawings = false;
+  std::string profile_from;
+  std::string profile_trunks;
 };
 
 Severity parse_severity(const std::string& s) {
@@ -65,9 +68,20 @@ int run_check_command(const CheckArgs& a, const GlobalOptions& g) {
     print_findings(result.findings, result.report_units, a.dry_run || g.verbose, std::cout);
   }
   if (!a.dry_run) {
-    report::write_outputs(result, a.out);
-    if (!g.quiet) std::cout << "wrote " << a.out << "/exceptions.csv, results.gpkg, summary.json\n"
-                            << report::caution << "\n";
+    report::OutputOptions out_opt;
+    out_opt.drawings = !a.no_drawings;
+    if (!a.profile_from.empty()) {
+      out_opt.profiles.selection = report::PathSelection::from_structure;
+      out_opt.profiles.from_structure_id = a.profile_from;
+    } else if (!a.profile_trunks.empty()) {
+      out_opt.profiles.selection = report::PathSelection::trunks;
+      out_opt.profiles.min_rise_m = io::parse_quantity(a.profile_trunks, units::Dimension::length, "--profile-trunks");
+    }
+    report::write_outputs(result, a.out, out_opt);
+    if (!g.quiet)
+      std::cout << "wrote " << a.out << "/exceptions.csv, results.gpkg, summary.json"
+                << (a.no_drawings ? "" : ", profiles.pdf, profiles/, report.html") << "\n"
+                << report::caution << "\n";
   }
   for (const auto& f : result.findings)
     if (f.severity >= fail_on) return exit_findings;
@@ -85,8 +99,12 @@ std::function<int()> setup_check(CLI::App& app, const GlobalOptions& global) {
   app.add_option("--units", a->units, "Report units: si or us (default: the project's)");
   app.add_option("--tailwater", a->tailwater, "Tailwater level(s), e.g. \"12.4 m\"; several run as a sweep");
   app.add_flag("--dry-run", a->dry_run, "Read and connect the network, print its summary and data findings, stop");
+  app.add_option("--profile-from", a->profile_from, "Draw the profile from this structure down to its outfall");
+  app.add_option("--profile-trunks", a->profile_trunks, "Draw every trunk of pipes at least this size, e.g. \"900 mm\"");
+  app.add_flag("--no-drawings", a->no_drawings, "Write the exception list, layers and summary only");
   app.footer("Example:\n  rimline check data/demo/metric/project.toml --out out/demo\n"
-             "  rimline check project.toml --tailwater \"12.4 m\" --tailwater \"13.1 m\" --out out/sweep");
+             "  rimline check project.toml --tailwater \"12.4 m\" --tailwater \"13.1 m\" --out out/sweep\n"
+             "  rimline check project.toml --out out/b8 --profile-from B-08");
   return [a, &global] { return run_check_command(*a, global); };
 }
 

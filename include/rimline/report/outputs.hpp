@@ -4,10 +4,13 @@
 //   DIR/results.gpkg    layers structures, conduits (input CRS; values in the run's unit system),
 //                       and the table structure_cases (one row per structure and tailwater level)
 //   DIR/summary.json    run metadata, inputs with SHA-256, units, criteria, methods, counts, worst freeboard
+//   DIR/profiles/*.svg  one profile drawing per path and tailwater level; DIR/profiles.pdf all of them
+//   DIR/report.html     the self-contained review report
 // Every file is written under a temporary name in DIR and renamed into place, so an interrupted
 // run leaves the previous file or the new one, never a partial one.
 #include <string>
 
+#include "rimline/report/profile_path.hpp"
 #include "rimline/run/check_run.hpp"
 
 namespace rimline::report {
@@ -17,7 +20,12 @@ inline constexpr const char* caution =
     "Results are for review by a licensed professional engineer. Local codes, standards and the "
     "approving authority govern; rimline does not replace engineering judgement.";
 
-void write_outputs(const run::CheckRun& run, const std::string& out_dir);
+struct OutputOptions {
+  bool drawings = true;        // profiles and report.html
+  DrawingOptions profiles;     // which paths are drawn
+};
+
+void write_outputs(const run::CheckRun& run, const std::string& out_dir, const OutputOptions& options = {});
 
 // Pieces, for tests and for other writers.
 std::string exceptions_csv(const run::CheckRun& run);
