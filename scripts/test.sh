@@ -9,6 +9,9 @@ cd "$here"
 "$here/scripts/check-layering.sh"
 (cd "$here/build" && ctest --output-on-failure -j2)
 
+echo "== the demo report in a real browser, the PDF and SVG profiles" >&2
+bash "$here/scripts/browser-test.sh" "$here/build/rimline"
+
 echo "== the suite again under AddressSanitizer + UBSan" >&2
 cmake -S "$here" -B "$here/build-asan" -DCMAKE_BUILD_TYPE=Debug -DRIMLINE_SANITIZE=ON -DRIMLINE_WERROR=ON >/dev/null
 cmake --build "$here/build-asan" -j"$(nproc)"
