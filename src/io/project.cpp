@@ -8,6 +8,7 @@
 #include <functional>
 #include <sstream>
 
+#include "io/toml_guard.hpp"
 #include "io/toml_section.hpp"
 #include "rimline/error.hpp"
 
@@ -298,6 +299,7 @@ Project parse_project(const std::string& toml_text, const std::string& path_for_
   p.directory = dir.empty() ? std::string(".") : dir.string();
 
   toml::table root;
+  detail::reject_unsafe_toml(toml_text, p.file);
   try {
     root = toml::parse(toml_text, path_for_messages);
   } catch (const toml::parse_error& e) {

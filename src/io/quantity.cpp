@@ -68,7 +68,10 @@ double parse_quantity(const std::string& text, units::Dimension expected, const 
     throw Error(ErrorKind::bad_config, where + ": \"" + text + "\" is " + std::string(dimension_noun(got)) +
                                            ", expected " + std::string(dimension_noun(expected)));
   }
-  return units::to_si(value, *unit);
+  const double si = units::to_si(value, *unit);
+  if (!std::isfinite(si))  // e.g. "1e308 ha": finite as written, beyond a double in SI
+    throw Error(ErrorKind::bad_config, where + ": \"" + text + "\" is out of range");
+  return si;
 }
 
 }  // namespace rimline::io

@@ -58,3 +58,12 @@ TEST_CASE("badinput project: NaN and infinity in the project are errors") {
   CHECK(parse_error(replace(base_project(), R"(levels = ["2.2 m"])", R"(levels = ["inf m"])")) ==
         R"(project.toml: line 37: key tailwater.levels: "inf m" is not a quantity "<number> <unit>")");
 }
+
+TEST_CASE("badinput project: non-ASCII text in quotes and comments is accepted, elsewhere it is an error") {
+  // "Schöneck" and "Ø" in UTF-8: fine in a string and in a comment (TOML 1.0 allows any Unicode there).
+  const auto ok =
+      replace(base_project(), R"(name = "bad-input fixture")", "name = \"Sch\xC3\xB6neck \xC3\x98st\" # \xC3\xB8st");
+  CHECK(io::parse_project(ok, "project.toml").name == "Sch\xC3\xB6neck \xC3\x98st");
+  CHECK(parse_error(replace(base_project(), "[flows]", "[flows]\n\xC3\xB8 = 1")) ==
+        R"(project.toml: line 33: a non-ASCII character outside a string or comment; TOML allows it only in quotes)");
+}
