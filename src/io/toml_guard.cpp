@@ -1,5 +1,9 @@
 #include "io/toml_guard.hpp"
 
+#include <toml++/toml.h>
+
+#include <algorithm>
+
 #include "rimline/error.hpp"
 
 namespace rimline::io::detail {
@@ -10,9 +14,37 @@ enum class State { normal, comment, basic, literal, multi_basic, multi_literal }
 bool starts(const std::string& t, std::size_t i, const char* s) { return t.compare(i, 3, s) == 0; }
 bool non_ascii(char c) { return static_cast<unsigned char>(c) >= 0x80; }
 
+constexpr const char* outside_quotes =
+    "a non-ASCII character outside a string or comment; TOML allows it only in quotes";
+
+// Parses an ASCII stand-in of the text: where it fails, toml++ would have met a non-ASCII
+// character outside a string (or the text is wrong anyway).
+void parse_ascii_copy(const std::string& text, const std::string& file) {
+  std::string ascii = text;
+  std::replace_if(ascii.begin(), ascii.end(), non_ascii, '`');
+  try {
+    (void)toml::parse(ascii, file);
+  } catch (const toml::parse_error& e) {
+    const std::size_t line = e.source().begin.line;
+    std::size_t begin = 0;
+    for (std::size_t l = 1; l < line && begin != std::string::npos; ++l) {
+      begin = text.find('\n', begin);
+      if (begin != std::string::npos) ++begin;
+    }
+    const std::string this_line =
+        begin == std::string::npos ? std::string() : text.substr(begin, text.find('\n', begin) - begin);
+    const bool has_non_ascii = std::any_of(this_line.begin(), this_line.end(), non_ascii);
+    throw Error(ErrorKind::bad_config, ErrorContext{file, "", "", ""},
+                "line " + std::to_string(line) + ": " +
+                    (has_non_ascii ? std::string(outside_quotes) : std::string(e.description())));
+  }
+}
+
 }  // namespace
 
 void reject_unsafe_toml(const std::string& text, const std::string& file) {
+  if (std::none_of(text.begin(), text.end(), non_ascii)) return;
+  parse_ascii_copy(text, file);
   State state = State::normal;
   std::size_t line = 1;
   auto fail = [&](const std::string& what) {
@@ -34,7 +66,7 @@ void reject_unsafe_toml(const std::string& text, const std::string& file) {
         else if (c == '\'')
           state = State::literal;
         else if (non_ascii(c))
-          fail("a non-ASCII character outside a string or comment; TOML allows it only in quotes");
+          fail(outside_quotes);
         break;
       case State::comment:
         if (c == '\n') state = State::normal;

@@ -7,7 +7,10 @@
 
 namespace rimline::io::detail {
 
-// Throws rimline::Error(bad_config) "file: line N: ..." at the first such character.
+// The text is first parsed with every non-ASCII byte replaced by '`' (valid in strings and
+// comments, nowhere else), which toml++ handles safely. Throws rimline::Error(bad_config)
+// "file: line N: ..." when that copy does not parse (naming a non-ASCII character when its line
+// has one) or when a non-ASCII character follows a line-ending backslash in a """ string.
 void reject_unsafe_toml(const std::string& text, const std::string& file);
 
 }  // namespace rimline::io::detail
