@@ -29,6 +29,10 @@ TEST_CASE("badinput sources: a geographic CRS (WGS 84) is reprojected and the ne
   INFO(dump(r));
   // Lengths survive the round trip to degrees and back through a local projection (50 m pipes).
   CHECK(r.read.network.conduits[conduit_index(r, "P1")].length_m == Approx(50.0).margin(0.05));
+  // The run says so (printed by `rimline check` and written to the summary).
+  CHECK(r.read.network.crs_note ==
+        "The pipe layer's CRS WGS 84 (EPSG:4326) is geographic; coordinates were reprojected to WGS 84 / UTM zone "
+        "31N (EPSG:32631), the UTM zone of the layer's extent centre, to measure lengths.");
   check_solved(r, {"OF", "M1", "M2", "M3", "M4"});
 }
 
