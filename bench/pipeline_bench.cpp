@@ -1,7 +1,7 @@
 // Stage timings of a whole check, for issue 8 (scale): where the time of a run goes.
 //
-//   RIMLINE_BENCH_PROJECT=/tmp/rimline-bench/n100000-s1/project.toml \
-//     build-bench/rimline_bench --benchmark_filter=check_stages
+//   RIMLINE_BENCH_PROJECT=/tmp/rimline-bench/n100000-s1/project.toml
+//   build-bench/rimline_bench --benchmark_filter=check_stages
 //
 // Runs the stages of run::run_check one by one (read, topology, flows, march, checks; one pass
 // per tailwater level, as run_check does) with a wall-clock timer and the peak RSS after each,
@@ -104,7 +104,7 @@ void BM_check_stages(benchmark::State& state) {
       }
       state.counters["4_march_s"] = march_s;
       state.counters["5_checks_s"] = checks_s;
-      state.counters["profile_points_per_pipe"] = solved ? static_cast<double>(points) / solved : 0.0;
+      state.counters["profile_points_per_pipe"] = solved ? static_cast<double>(points) / static_cast<double>(solved) : 0.0;
       state.counters["pipes"] = static_cast<double>(read.network.conduits.size());
     }
     clock.lap();

@@ -22,11 +22,6 @@ std::string fmt(double v, int decimals = 2) {
   return s.str();
 }
 
-double required_freeboard(const std::string& id, const Criteria& c, const CriteriaOverrides& o) {
-  for (const auto& [sid, f] : o.freeboard_m)
-    if (sid == id) return f;
-  return c.freeboard_m;
-}
 
 void check_structure(const model::Structure& s, const solve::StructureResult& r, double freeboard_m, Findings& out) {
   if (!r.solved) return;
@@ -118,12 +113,28 @@ void check_conduit(const model::Network& net, std::size_t ci, const solve::Condu
 Findings run_checks(const model::Network& network, const solve::MarchResult& result, const Criteria& criteria,
                     const CriteriaOverrides& overrides) {
   Findings out;
-  for (std::size_t s = 0; s < network.structures.size(); ++s)
+  for (std::size_t s = 0; s < network.structures.size(); ++s) {
+    const auto& id = network.structures[s].id;
     check_structure(network.structures[s], result.structures[s],
-                    required_freeboard(network.structures[s].id, criteria, overrides), out);
+                    criteria_for(criteria, overrides.structures, id).freeboard_m, out);
+  }
   for (std::size_t ci = 0; ci < network.conduits.size(); ++ci)
-    check_conduit(network, ci, result.conduits[ci], criteria, out);
+    check_conduit(network, ci, result.conduits[ci], criteria_for(criteria, overrides.conduits, network.conduits[ci].id),
+                  out);
   return out;
+}
+
+Criteria criteria_for(const Criteria& run, const std::map<std::string, Override>& overrides, const std::string& id) {
+  const auto it = overrides.find(id);
+  if (it == overrides.end()) return run;
+  Criteria c = run;
+  const Override& o = it->second;
+  if (o.freeboard_m) c.freeboard_m = *o.freeboard_m;
+  if (o.velocity_min_m_s) c.velocity_min_m_s = *o.velocity_min_m_s;
+  if (o.velocity_max_m_s) c.velocity_max_m_s = o.velocity_max_m_s;
+  if (o.capacity_ratio_max) c.capacity_ratio_max = *o.capacity_ratio_max;
+  if (o.cover_min_m) c.cover_min_m = o.cover_min_m;
+  return c;
 }
 
 std::string structure_status(const model::Structure& s, const solve::StructureResult& r, double freeboard_m) {

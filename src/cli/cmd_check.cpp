@@ -1,4 +1,7 @@
 // `rimline check PROJECT --out DIR`: the main job.
+#include <unistd.h>
+
+#include <chrono>
 #include <iostream>
 #include <map>
 
@@ -49,6 +52,30 @@ void print_findings(const Findings& findings, units::System sys, bool all, std::
        << (f.field.empty() ? "" : ":field " + f.field) << ": " << render_message(f.message, sys) << "\n";
 }
 
+// A one-line progress display on stderr, only when stderr is a terminal and only once a run has
+// taken more than a second (short runs stay quiet; logs and pipes get no control characters).
+class Progress {
+ public:
+  explicit Progress(bool enabled) : enabled_(enabled && ::isatty(STDERR_FILENO)) {}
+  ~Progress() { done(); }
+  // Clears the line before anything else is printed.
+  void done() {
+    if (shown_) std::cerr << "\r\033[K" << std::flush;
+    shown_ = false;
+  }
+  void operator()(const std::string& stage) {
+    if (!enabled_) return;
+    if (std::chrono::steady_clock::now() - start_ < std::chrono::seconds(1)) return;
+    shown_ = true;
+    std::cerr << "\r\033[Krimline: " << stage << " ..." << std::flush;
+  }
+
+ private:
+  bool enabled_;
+  bool shown_ = false;
+  std::chrono::steady_clock::time_point start_ = std::chrono::steady_clock::now();
+};
+
 int run_check_command(const CheckArgs& a, const GlobalOptions& g) {
   const Severity fail_on = parse_severity(a.fail_on);
   const io::Project project = io::load_project(a.project);
@@ -61,7 +88,10 @@ int run_check_command(const CheckArgs& a, const GlobalOptions& g) {
     opt.tailwater_levels_m.push_back(io::parse_quantity(t, units::Dimension::length, "--tailwater"));
   if (!a.dry_run && a.out.empty()) throw Error(ErrorKind::bad_config, "check needs --out DIR (or --dry-run)");
 
+  Progress progress(!g.quiet);
+  opt.progress = [&progress](const std::string& stage) { progress(stage); };
   const run::CheckRun result = run::run_check(project, opt);
+  progress.done();
   if (!g.quiet) {
     print_summary(result, std::cout);
     std::cout << (a.dry_run ? "data findings:\n" : "findings:\n");
@@ -77,7 +107,9 @@ int run_check_command(const CheckArgs& a, const GlobalOptions& g) {
       out_opt.profiles.selection = report::PathSelection::trunks;
       out_opt.profiles.min_rise_m = io::parse_quantity(a.profile_trunks, units::Dimension::length, "--profile-trunks");
     }
+    progress("writing the outputs");
     report::write_outputs(result, a.out, out_opt);
+    progress.done();
     if (!g.quiet)
       std::cout << "wrote " << a.out << "/exceptions.csv, results.gpkg, summary.json"
                 << (a.no_drawings ? "" : ", profiles.pdf, profiles/, report.html") << "\n"

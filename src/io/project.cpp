@@ -247,6 +247,26 @@ void read_criteria(TomlSection s, Project& p) {
   c.velocity_max_m_s = optional_quantity(s, "velocity_max", Dimension::velocity, c.velocity_max_m_s, p.file);
   c.capacity_ratio_max = positive_number(s, "capacity_ratio_max", c.capacity_ratio_max);
   c.cover_min_m = optional_quantity(s, "cover_min", Dimension::length, c.cover_min_m, p.file);
+  auto per_feature = [&](std::string_view key, bool structures) {
+    TomlSection group = s.table(key);
+    for (const auto& [id, node] : group.entries()) {
+      if (!node->is_table()) group.fail_at(node, id, "must be a table of limits for feature \"" + id + "\"");
+      TomlSection f(node->as_table(), group.name() + "." + id, p.file);
+      CriteriaOverride o;
+      if (structures) {
+        o.freeboard_m = f.quantity("freeboard", Dimension::length);
+      } else {
+        o.velocity_min_m_s = f.quantity("velocity_min", Dimension::velocity);
+        o.velocity_max_m_s = f.quantity("velocity_max", Dimension::velocity);
+        o.capacity_ratio_max = f.number("capacity_ratio_max");
+        o.cover_min_m = f.quantity("cover_min", Dimension::length);
+      }
+      f.finish();
+      (structures ? p.structure_criteria : p.conduit_criteria)[id] = o;
+    }
+  };
+  per_feature("structures", true);
+  per_feature("conduits", false);
   s.finish();
 }
 

@@ -120,7 +120,7 @@ class Writer {
       f.SetField(ix(f, "status"), run::envelope_status(run_, s).c_str());
       set(f, "rim", st.rim_m.value_or(NAN), Dimension::length);
       set(f, "invert", st.invert_m.value_or(NAN), Dimension::length);
-      set(f, "required_freeboard", run_.criteria.freeboard_m, Dimension::length);
+      set(f, "required_freeboard", run::required_freeboard_m(run_, s), Dimension::length);
       if (!run_.cases.empty()) {
         const auto& c = run_.cases[run_.envelope_structure_case[s]];
         const auto& r = c.march.structures[s];

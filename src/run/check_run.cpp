@@ -34,6 +34,16 @@ checks::Criteria criteria_from(const io::Project& p) {
   return c;
 }
 
+checks::CriteriaOverrides overrides_from(const io::Project& p) {
+  checks::CriteriaOverrides out;
+  auto convert = [](const io::CriteriaOverride& o) {
+    return checks::Override{o.freeboard_m, o.velocity_min_m_s, o.velocity_max_m_s, o.capacity_ratio_max, o.cover_min_m};
+  };
+  for (const auto& [id, o] : p.structure_criteria) out.structures[id] = convert(o);
+  for (const auto& [id, o] : p.conduit_criteria) out.conduits[id] = convert(o);
+  return out;
+}
+
 // How bad a criteria finding is, so the envelope keeps the worst over the cases:
 // lower freeboard / higher surcharge, velocity or ratio is worse.
 double badness(const Finding& f) {
@@ -91,13 +101,19 @@ CheckRun run_check(const io::Project& project, const RunOptions& options) {
   CheckRun run;
   run.project = project;
   run.report_units = options.report_units.value_or(project.report_units);
+  auto stage = [&options](const std::string& name) {
+    if (options.progress) options.progress(name);
+  };
+  stage("reading the layers");
   run.read = io::read_network(project);
+  stage("connecting the network");
   run.data_findings = run.read.findings;
   topology::TopologyOptions topo_opt;
   topo_opt.snap_tolerance_m = project.snap_tolerance_m;
   run.topology = topology::build_topology(run.read.network, topo_opt, run.data_findings);
   report_untyped_outfalls(project, run.read.network, run.topology, run.data_findings);
   run.criteria = criteria_from(project);
+  run.overrides = overrides_from(project);
   run.march_options = march_options_from(project);
   if (options.dry_run) {
     run.findings = run.data_findings;
@@ -110,18 +126,20 @@ CheckRun run_check(const io::Project& project, const RunOptions& options) {
   flow_opt.split = project.split_rule == io::SplitRule::field ? flows::Split::field : flows::Split::capacity;
   flow_opt.friction = project.methods.friction;
   flow_opt.default_inflow_m3_s = project.default_inflow_m3_s.value_or(0.0);
+  stage("design flows");
   run.flows = flows::design_flows(run.read.network, run.topology, flow_opt, run.data_findings);
 
   std::vector<double> levels = options.tailwater_levels_m.empty() ? project.tailwater_levels_m : options.tailwater_levels_m;
   if (levels.empty()) levels.push_back(nan);  // outfall fields or free outfalls decide
   for (double tw : levels) {
+    stage("march " + std::to_string(run.cases.size() + 1) + "/" + std::to_string(levels.size()));
     Case c;
     c.tailwater_m = tw;
     c.label = case_label(tw);
     auto opt = run.march_options;
     opt.tailwater_m = tw;
     c.march = solve::march(run.read.network, run.topology, run.flows.flow_m3_s, opt);
-    c.findings = checks::run_checks(run.read.network, c.march, run.criteria);
+    c.findings = checks::run_checks(run.read.network, c.march, run.criteria, run.overrides);
     run.cases.push_back(std::move(c));
   }
   // March problems (blocked, not converged) are the same in every case but the first is kept.
@@ -149,11 +167,16 @@ CheckRun run_check(const io::Project& project, const RunOptions& options) {
   return run;
 }
 
+double required_freeboard_m(const CheckRun& run, std::size_t structure) {
+  return checks::criteria_for(run.criteria, run.overrides.structures, run.read.network.structures[structure].id)
+      .freeboard_m;
+}
+
 std::string envelope_status(const CheckRun& run, std::size_t structure) {
   if (run.cases.empty()) return "not_checked";
   const auto& c = run.cases[run.envelope_structure_case[structure]];
   return checks::structure_status(run.read.network.structures[structure], c.march.structures[structure],
-                                  run.criteria.freeboard_m);
+                                  required_freeboard_m(run, structure));
 }
 
 }  // namespace rimline::run

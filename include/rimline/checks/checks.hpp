@@ -8,7 +8,9 @@
 //   VELOCITY_HIGH    warning  velocity above the maximum (scour, erosion protection)
 //   CAPACITY         warning  design flow above the allowed share of full-flow capacity
 //   COVER            warning  rim minus pipe crown below the minimum cover
+#include <map>
 #include <optional>
+#include <string>
 #include <vector>
 
 #include "rimline/finding.hpp"
@@ -28,10 +30,23 @@ struct Criteria {
   VelocityBasis velocity_basis = VelocityBasis::profile;
 };
 
+// Limits of one feature that differ from the run's; unset members keep the run's value.
+struct Override {
+  std::optional<double> freeboard_m;
+  std::optional<double> velocity_min_m_s;
+  std::optional<double> velocity_max_m_s;
+  std::optional<double> capacity_ratio_max;
+  std::optional<double> cover_min_m;
+};
+
 // Per-structure and per-conduit overrides (e.g. a stricter freeboard at one inlet), by id.
 struct CriteriaOverrides {
-  std::vector<std::pair<std::string, double>> freeboard_m;  // structure id -> required freeboard
+  std::map<std::string, Override> structures;
+  std::map<std::string, Override> conduits;
 };
+
+// The criteria that apply to one feature.
+Criteria criteria_for(const Criteria& run, const std::map<std::string, Override>& overrides, const std::string& id);
 
 Findings run_checks(const model::Network& network, const solve::MarchResult& result, const Criteria& criteria,
                     const CriteriaOverrides& overrides = {});

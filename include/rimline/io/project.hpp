@@ -34,6 +34,8 @@
 //               manning_n_min = 0.008, manning_n_max = 0.05, ks_max = "0.1 m" (fields and project defaults)
 //   [criteria]  freeboard = "0.3 m", velocity_min = "0.9 m/s", velocity_max = "4.6 m/s" (or "off"),
 //               capacity_ratio_max = 1.0, cover_min = "0.6 m"
+//   [criteria.structures."T-04"] freeboard = "0.5 m"          (per structure id)
+//   [criteria.conduits."D-05"]   velocity_min = "0.6 m/s", velocity_max, capacity_ratio_max, cover_min
 #include <map>
 #include <optional>
 #include <string>
@@ -109,6 +111,15 @@ struct Criteria {
   std::optional<double> cover_min_m; // off unless set
 };
 
+// Limits for one feature that differ from the run's (e.g. a stricter freeboard at one inlet).
+struct CriteriaOverride {
+  std::optional<double> freeboard_m;
+  std::optional<double> velocity_min_m_s;
+  std::optional<double> velocity_max_m_s;
+  std::optional<double> capacity_ratio_max;
+  std::optional<double> cover_min_m;
+};
+
 struct Methods {
   hydraulics::FrictionLaw friction = hydraulics::FrictionLaw::manning;
   hydraulics::StructureLossMethod structure_loss = hydraulics::StructureLossMethod::constant_k;
@@ -144,6 +155,8 @@ struct Project {
   Methods methods;
   Plausibility plausibility;
   Criteria criteria;
+  std::map<std::string, CriteriaOverride> structure_criteria;  // by structure id
+  std::map<std::string, CriteriaOverride> conduit_criteria;    // by pipe id
 };
 
 // Parses and validates a project file. Unknown keys and values of the wrong type are errors. Throws rimline::Error(bad_config) naming the file,

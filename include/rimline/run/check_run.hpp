@@ -3,7 +3,9 @@
 // Adds TOPOLOGY_NO_OUTFALL (warning, structures): with a typed structure layer, a tree that ends at a
 // manhole, inlet or junction; it is marched from there as if that were the outfall.
 // No files are written here; report/ writes the outputs from a CheckRun.
+#include <functional>
 #include <optional>
+#include <string>
 #include <vector>
 
 #include "rimline/checks/checks.hpp"
@@ -19,6 +21,8 @@ struct RunOptions {
   std::optional<units::System> report_units;          // overrides [project] units
   std::vector<double> tailwater_levels_m;             // overrides [tailwater] levels
   bool dry_run = false;                               // read and build the network only
+  // Told the name of each stage as it starts ("reading", "connecting", "march 1/2", ...).
+  std::function<void(const std::string& stage)> progress;
 };
 
 // One tailwater level of a sweep.
@@ -35,6 +39,7 @@ struct CheckRun {
   topology::Topology topology;
   flows::DesignFlows flows;
   checks::Criteria criteria;
+  checks::CriteriaOverrides overrides;  // per structure / pipe id
   solve::MarchOptions march_options;
   units::System report_units = units::System::si;
   std::vector<Case> cases;
@@ -45,6 +50,9 @@ struct CheckRun {
 };
 
 CheckRun run_check(const io::Project& project, const RunOptions& options);
+
+// The freeboard a structure must keep (the run's, or its own override).
+double required_freeboard_m(const CheckRun& run, std::size_t structure);
 
 // Status of each structure in the envelope, for the result layer.
 std::string envelope_status(const CheckRun& run, std::size_t structure);
