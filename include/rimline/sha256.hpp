@@ -1,5 +1,5 @@
 #pragma once
-// SHA-256 (FIPS 180-4) of a file's bytes, for recording inputs in the summary.
+// SHA-256 (FIPS 180-4) of a file's bytes, so the summary names each input exactly.
 #include <string>
 #include <string_view>
 
