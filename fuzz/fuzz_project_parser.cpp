@@ -1,0 +1,31 @@
+// libFuzzer harness: any byte string as a project file. The parser may only accept it or throw
+// rimline::Error (bad_config) with a message naming the file; any other exception, a crash or a
+// sanitizer report is a defect. An accepted project must hold finite SI figures.
+#include <cmath>
+#include <cstdint>
+#include <string>
+
+#include "rimline/error.hpp"
+#include "rimline/io/project.hpp"
+
+namespace {
+
+void require(bool ok) {
+  if (!ok) __builtin_trap();
+}
+
+}  // namespace
+
+extern "C" int LLVMFuzzerTestOneInput(const std::uint8_t* data, std::size_t size) {
+  const std::string text(reinterpret_cast<const char*>(data), size);
+  try {
+    const rimline::io::Project p = rimline::io::parse_project(text, "fuzz/project.toml");
+    require(std::isfinite(p.snap_tolerance_m));
+    for (double tw : p.tailwater_levels_m) require(std::isfinite(tw));
+    require(std::isfinite(p.criteria.freeboard_m));
+    require(std::isfinite(p.criteria.velocity_min_m_s));
+  } catch (const rimline::Error& e) {
+    require(std::string(e.what()).find("fuzz/project.toml") != std::string::npos);
+  }
+  return 0;
+}
