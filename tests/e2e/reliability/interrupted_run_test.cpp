@@ -42,7 +42,8 @@ TEST_CASE("reliability: an interrupted run leaves the old outputs or the new, ne
   REQUIRE(old_files.at("summary.json") != new_files.at("summary.json"));  // the two runs are told apart
 
   int saw_old = 0, saw_new = 0;
-  const double fractions[] = {0.05, 0.25, 0.5, 0.75, 0.9, 0.97};
+  // Dense near the end, where the renames happen (the full run time includes process start and exit).
+  const double fractions[] = {0.05, 0.3, 0.6, 0.8, 0.9, 0.95, 0.98, 1.0, 1.02};
   for (std::size_t k = 0; k < std::size(fractions); ++k) {
     const int sig = k % 2 ? SIGKILL : SIGTERM;
     fs::remove_all(out);
@@ -63,7 +64,7 @@ TEST_CASE("reliability: an interrupted run leaves the old outputs or the new, ne
     const bool all_new = now.at("summary.json") == new_files.at("summary.json");
     (all_new ? saw_new : saw_old)++;
   }
-  // The delays reached both sides of the commit at least once, so the check saw both states.
+  // The early kills left the old outputs (the late ones land on either side of the renames).
   CHECK(saw_old > 0);
   CHECK(saw_new + saw_old == static_cast<int>(std::size(fractions)));
 }
