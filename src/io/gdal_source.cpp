@@ -115,6 +115,12 @@ void require_geometry_and_features(const OpenLayer& l, const std::string& role) 
                 "open_options)");
   if (l.layer->GetFeatureCount(FALSE) == 0)
     throw Error(ErrorKind::bad_input, where, "the " + role + " layer has no features");
+  // A layer declared as points cannot hold one pipe: the structure layer named as the pipes.
+  const OGRwkbGeometryType type = wkbFlatten(l.layer->GetGeomType());
+  if (role == "pipes" && (type == wkbPoint || type == wkbMultiPoint))
+    throw Error(ErrorKind::bad_input, where,
+                "the pipes layer holds " + std::string(OGRGeometryTypeToName(type)) +
+                    " geometries, not lines; is it the structure layer?");
 }
 
 int field_index(const OpenLayer& l, const std::string& field, const std::string& role_key) {

@@ -71,11 +71,18 @@ TEST_CASE("badinput geometry: a multi-part line with a gap is unusable; touching
 
 TEST_CASE("badinput geometry: a point layer given as the pipe layer stops the run naming the layer") {
   Case c("points_as_pipes");
-  c.write_network(base_pipes(), base_structures(),
-                  replace(base_project(), R"(source = "pipes.geojson")", R"(source = "structures.geojson")"));
-  const std::string e = error_of([&] { c.run(); });
-  CHECK(e == c.path("structures.geojson") +
-                 R"(:structures:field PIPE_ID: the field mapped by pipes.fields.id is not in the layer)");
+  // The structure layer named as the pipes, with a mapping its fields satisfy.
+  auto p = replace(base_project(), R"(source = "pipes.geojson")", R"(source = "structures.geojson")");
+  p = replace(replace(p, R"(id = "PIPE_ID")", R"(id = "NODE_ID")"), R"(field = "SIZE")", R"(field = "RIM")");
+  p = replace(replace(p, R"(field = "US_INV")", R"(field = "SUMP")"), R"(field = "DS_INV")", R"(field = "SUMP")");
+  c.write_network(base_pipes(), base_structures(), p);
+  CHECK(error_of([&] { c.run(); }) == c.path("structures.geojson") +
+                                          ":structures: the pipes layer holds Point geometries, not lines; is it the "
+                                          "structure layer?");
+  // With the pipes' own field names too: the geometry type is checked before any field.
+  c.write("project.toml", replace(base_project(), R"(source = "pipes.geojson")", R"(source = "structures.geojson")"));
+  CHECK_THAT(error_of([&] { c.run(); }), Catch::EndsWith(":structures: the pipes layer holds Point geometries, not "
+                                                         "lines; is it the structure layer?"));
 }
 
 TEST_CASE("badinput geometry: a zero-length pipe is reported and left out, the rest is marched") {
