@@ -12,6 +12,9 @@ cd "$here"
 echo "== the demo report in a real browser, the PDF and SVG profiles" >&2
 bash "$here/scripts/browser-test.sh" "$here/build/rimline"
 
+echo "== the demo read from a PostGIS database, compared with the file-based run" >&2
+bash "$here/scripts/postgis-test.sh" "$here/build/rimline"
+
 echo "== the suite again under AddressSanitizer + UBSan" >&2
 cmake -S "$here" -B "$here/build-asan" -DCMAKE_BUILD_TYPE=Debug -DRIMLINE_SANITIZE=ON -DRIMLINE_WERROR=ON >/dev/null
 cmake --build "$here/build-asan" -j"$(nproc)"

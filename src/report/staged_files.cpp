@@ -1,6 +1,10 @@
 #include "rimline/report/staged_files.hpp"
 
+#include <signal.h>
 #include <unistd.h>
+
+#include <cerrno>
+#include <cstdlib>
 
 #include <filesystem>
 #include <fstream>
@@ -16,6 +20,22 @@ StagedFiles::StagedFiles(std::string out_dir) : dir_(std::move(out_dir)) {
   fs::create_directories(dir_, ec);
   if (ec || !fs::is_directory(dir_))
     throw Error(ErrorKind::bad_config, ErrorContext{dir_, "", "", ""}, "output directory cannot be created: " + ec.message());
+  remove_leftovers();
+}
+
+// Temporaries of an earlier run that was killed (".NAME.partial-PID.EXT" whose process is gone).
+void StagedFiles::remove_leftovers() {
+  std::error_code ec;
+  for (const auto& entry : fs::directory_iterator(dir_, ec)) {
+    const std::string name = entry.path().filename().string();
+    const auto at = name.find(".partial-");
+    if (name.empty() || name[0] != '.' || at == std::string::npos) continue;
+    const long pid = std::strtol(name.c_str() + at + 9, nullptr, 10);
+    if (pid <= 0 || pid == ::getpid()) continue;
+    if (::kill(static_cast<pid_t>(pid), 0) == 0 || errno != ESRCH) continue;  // still running
+    std::error_code rm;
+    fs::remove_all(entry.path(), rm);
+  }
 }
 
 StagedFiles::~StagedFiles() {

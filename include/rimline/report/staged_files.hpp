@@ -8,7 +8,8 @@ namespace rimline::report {
 
 class StagedFiles {
  public:
-  explicit StagedFiles(std::string out_dir);  // creates out_dir if needed; throws rimline::Error
+  // Creates out_dir if needed and removes the temporaries of killed earlier runs; throws rimline::Error.
+  explicit StagedFiles(std::string out_dir);
   ~StagedFiles();                              // removes temporaries not committed
   StagedFiles(const StagedFiles&) = delete;
   StagedFiles& operator=(const StagedFiles&) = delete;
@@ -20,6 +21,8 @@ class StagedFiles {
   void commit();
 
  private:
+  void remove_leftovers();
+
   std::string dir_;
   std::vector<std::pair<std::string, std::string>> staged_;  // temp, final
   bool committed_ = false;
