@@ -7,8 +7,10 @@
 #            --repeat R (best of R runs per size, default 1)  --profile N (perf profile of a run of N pipes)
 #            --no-micro (skip the Google Benchmark figures)  --results FILE (default bench/RESULTS.md;
 #            with --quick, WORK/RESULTS-quick.md)
-#            --stages N (stage timings and RSS of a run of N pipes, bench/pipeline_bench.cpp)
+#            --stages "N ..." (stage timings and RSS of a run of N pipes, bench/pipeline_bench.cpp)
 #            --timeout S (give up on a rimline run after S seconds; recorded as such)
+#            --keep-results (no build and no end-to-end runs: rewrite RESULTS from the timings and
+#            profile of the last run in WORK, adding --stages / --profile / micro figures)
 #
 # For each N it generates a synthetic network (scripts/make_network.py, cached per N and seed),
 # then, in the same run and on the same warm page cache, times
@@ -28,6 +30,7 @@ PROFILE_N=""
 MICRO=1
 RESULTS=""
 QUICK=0
+KEEP=0
 STAGES_N=""
 TIMEOUT=0
 
@@ -40,10 +43,11 @@ while [[ $# -gt 0 ]]; do
     --repeat) REPEAT="$2"; shift 2 ;;
     --profile) PROFILE_N="$2"; shift 2 ;;
     --no-micro) MICRO=0; shift ;;
+    --keep-results) KEEP=1; shift ;;
     --stages) STAGES_N="$2"; shift 2 ;;
     --timeout) TIMEOUT="$2"; shift 2 ;;
     --results) RESULTS="$2"; shift 2 ;;
-    -h|--help) sed -n '2,20p' "$0"; exit 0 ;;
+    -h|--help) sed -n '2,22p' "$0"; exit 0 ;;
     *) echo "benchmark.sh: unknown option $1 (see --help)" >&2; exit 2 ;;
   esac
 done
@@ -60,10 +64,14 @@ need_pkg() {  # Debian package $1 providing $2
 }
 need_pkg time /usr/bin/time
 need_pkg gdal-bin ogr2ogr
-need_pkg python3-gdal /usr/lib/python3/dist-packages/osgeo/ogr.py
+if ! /usr/bin/python3 -c "from osgeo import ogr" 2>/dev/null; then
+  sudo=""; [[ $(id -u) -ne 0 ]] && sudo="sudo"
+  $sudo apt-get update -qq && $sudo apt-get install -y -qq python3-gdal
+fi
 [[ -n "$PROFILE_N" ]] && need_pkg linux-perf perf
 
 mkdir -p "$WORK"
+if [[ $KEEP -eq 0 ]]; then
 echo "== build (Release, $BUILD)"
 cmake -S "$ROOT" -B "$BUILD" -DCMAKE_BUILD_TYPE=Release >/dev/null
 cmake --build "$BUILD" -j2 --target rimline >"$WORK/build.log" 2>&1 || { cat "$WORK/build.log" >&2; exit 1; }
@@ -75,8 +83,13 @@ cp "$BUILD/rimline" "$WORK/rimline"
 RIMLINE="$WORK/rimline"
 [[ $BENCH_OK -eq 1 ]] && cp "$BUILD/rimline_bench" "$WORK/rimline_bench"
 [[ $BENCH_OK -eq 1 ]] || MICRO=0
+fi
+RIMLINE="$WORK/rimline"
+BENCH_OK=0; [[ -x "$WORK/rimline_bench" ]] && BENCH_OK=1
+[[ $BENCH_OK -eq 1 ]] || MICRO=0
 TSV="$WORK/results.tsv"
-: > "$TSV"
+[[ $KEEP -eq 1 ]] && SIZES=""
+[[ $KEEP -eq 1 ]] || : > "$TSV"
 
 # /usr/bin/time -v report -> "wall_s rss_kib"
 parse_time() {
@@ -124,7 +137,7 @@ for n in $SIZES; do
 done
 
 PROFILE_TXT="$WORK/profile.txt"
-: > "$PROFILE_TXT"
+[[ $KEEP -eq 1 && -z "$PROFILE_N" ]] || : > "$PROFILE_TXT"
 if [[ -n "$PROFILE_N" ]]; then
   dir="$WORK/n$PROFILE_N-s$SEED"
   [[ -f "$dir/project.toml" ]] || /usr/bin/python3 "$ROOT/scripts/make_network.py" --pipes "$PROFILE_N" --seed "$SEED" --out "$dir"
@@ -146,7 +159,7 @@ if [[ -n "$PROFILE_N" ]]; then
     done
     echo "hottest functions (self %)"
     perf report -i "$WORK/perf.data" --no-children --stdio --sort symbol 2>/dev/null | c++filt |
-      grep -E '^ +[0-9]' | head -25 | cut -c1-160
+      grep -E '^ +[0-9]' | head -25 | cut -c1-160 || true  # head closes the pipe early
   } > "$PROFILE_TXT"
   cat "$PROFILE_TXT"
 fi
@@ -154,22 +167,26 @@ fi
 STAGES_TXT="$WORK/stages.txt"
 : > "$STAGES_TXT"
 if [[ -n "$STAGES_N" && $BENCH_OK -eq 1 ]]; then
-  echo "== stage timings, N=$STAGES_N (bench/pipeline_bench.cpp, drawings included)"
-  RIMLINE_BENCH_DRAWINGS=1 RIMLINE_BENCH_PROJECT="$WORK/n$STAGES_N-s$SEED/project.toml" \
-    "$WORK/rimline_bench" --benchmark_filter=check_stages --benchmark_format=json 2>/dev/null > "$WORK/stages.json" || true
-  /usr/bin/python3 - "$WORK/stages.json" > "$STAGES_TXT" <<'PY'
+  for sn in $STAGES_N; do
+    # Drawings are timed up to 1e5 pipes; beyond, that stage alone runs for tens of minutes (RESULTS.md).
+    draw=(); what="not timed"
+    [[ $sn -le 100000 ]] && draw=(env RIMLINE_BENCH_DRAWINGS=1) && what="included"
+    echo "== stage timings, N=$sn (bench/pipeline_bench.cpp, drawings $what)"
+    "${draw[@]}" env RIMLINE_BENCH_PROJECT="$WORK/n$sn-s$SEED/project.toml" \
+      "$WORK/rimline_bench" --benchmark_filter=check_stages --benchmark_format=json 2>/dev/null > "$WORK/stages.json" || true
+    /usr/bin/python3 - "$WORK/stages.json" "$sn" >> "$STAGES_TXT" <<'PY'
 import json, sys
 b = json.load(open(sys.argv[1]))["benchmarks"][0]
 skip = {"name", "run_name", "run_type", "repetitions", "repetition_index", "threads", "iterations", "real_time",
         "cpu_time", "time_unit", "family_index", "per_family_instance_index"}
-print("| figure | value |")
-print("|---|---:|")
+print("\nN = %s pipes\n\n| figure | value |\n|---|---:|" % sys.argv[2])
 for k in sorted(b):
     if k not in skip:
         print("| %s | %.3f |" % (k, b[k]))
 print("| whole harness wall s | %.1f |" % b["real_time"])
 print("| whole harness CPU s | %.1f |" % b["cpu_time"])
 PY
+  done
   cat "$STAGES_TXT"
 fi
 
@@ -220,8 +237,8 @@ if len(rows) >= 2:
 lines += ["", "Targets (issue 8): 10^6 pipes end to end <= 1.5 x baseline; peak RSS <= 1 GiB; exponent <= 1.05"
           " between 10^4 and 10^6; >= 10^6 partly full pipe solves per second per core."]
 if os.path.getsize(stages):
-    lines += ["", "## Stages of one run of %s pipes (bench/pipeline_bench.cpp; wall s, peak RSS MiB after each)" % stages_n,
-              "", open(stages).read().rstrip()]
+    lines += ["", "## Stages (bench/pipeline_bench.cpp; wall s per stage, peak RSS MiB after it)",
+              open(stages).read().rstrip()]
 if os.path.getsize(prof):
     lines += ["", "## Profile", "", "```", open(prof).read().rstrip(), "```"]
 if os.path.getsize(micro):
