@@ -154,12 +154,12 @@ if [[ -n "$PROFILE_N" ]]; then
              'rimline::solve::march' 'rimline::checks::run_checks' 'rimline::report::exceptions_csv' \
              'rimline::report::summary_json' 'rimline::report::write_results_gpkg' \
              'rimline::report::write_drawings' 'rimline::report::StagedFiles::commit'; do
-      line=$(grep -F "] $f(" "$WORK/perf.children.txt" | head -1 || true)
+      line=$(grep -E "\] $f(\(|\[abi)" "$WORK/perf.children.txt" | head -1 || true)
       printf "  %-40s %s\n" "$f" "$(echo "$line" | awk '{print $1}')"
     done
     echo "hottest functions (self %)"
     perf report -i "$WORK/perf.data" --no-children --stdio --sort symbol 2>/dev/null | c++filt |
-      grep -E '^ +[0-9]' | head -25 | cut -c1-160 || true  # head closes the pipe early
+      grep -E '^ +[0-9.]+%' | head -25 | cut -c1-160 | sed 's/ *$//' || true  # head closes the pipe early
   } > "$PROFILE_TXT"
   cat "$PROFILE_TXT"
 fi
