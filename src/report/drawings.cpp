@@ -49,8 +49,9 @@ void write_drawings(const run::CheckRun& run, StagedFiles& files, const DrawingO
   if (!sheets.empty()) fs::create_directories(dir / "profiles", ec);  // rename() needs the final folder
   std::vector<RenderedProfile> rendered;
   std::set<std::string> stems;
+  const FindingIndex index(run);  // once for every sheet
   for (const auto& sheet : sheets) {
-    const ProfileScene scene = build_scene(run, sheet.path, sheet.case_index, sheet.number);
+    const ProfileScene scene = build_scene(run, sheet.path, sheet.case_index, sheet.number, &index);
     std::string stem = file_stem(scene.name());
     while (!stems.insert(stem).second) stem += "_";  // two ids that sanitise alike
     RenderedProfile r;

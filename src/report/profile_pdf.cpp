@@ -110,8 +110,9 @@ void write_profiles_pdf(const run::CheckRun& run, const std::vector<ProfileSheet
   const Panel panel{m + 4.0, m + 4.0, sheet_width_mm - 2 * m - 8.0,
                     sheet_height_mm - 2 * m - title_block_h_mm - 8.0};
   int k = 0;
+  const FindingIndex index(run);  // once for every page
   for (const auto& sheet : sheets) {
-    const ProfileScene scene = build_scene(run, sheet.path, sheet.case_index, sheet.number);
+    const ProfileScene scene = build_scene(run, sheet.path, sheet.case_index, sheet.number, &index);
     const PlotFrame f = draw_profile(scene, panel, canvas);
     TitleInfo info{run.project.name,
                    "Profile " + scene.name() + ": " + scene.head_id + " to outfall " + scene.outfall_id,

@@ -4,6 +4,8 @@
 #include <cmath>
 #include <cstdio>
 #include <limits>
+#include <optional>
+#include <set>
 
 #include "rimline/report/outputs.hpp"
 
@@ -63,7 +65,77 @@ void extend(ProfileScene& s, double y) {
 
 }  // namespace
 
-ProfileScene build_scene(const run::CheckRun& run, const ProfilePath& path, std::size_t case_index, int number) {
+namespace {
+
+std::string feature_key(LayerRole layer, const std::string& id) {
+  return std::string(1, static_cast<char>('0' + static_cast<int>(layer))) + id;
+}
+
+// Where a finding is drawn: structures at their station, conduits mid-pipe. False when the
+// feature is not on the path.
+bool place(const ProfileScene& scene, const Finding& f, units::System system, SceneMarker& m) {
+  m = SceneMarker{0, nan, nan, f.severity, f.code, f.feature_id, ""};
+  if (f.layer == LayerRole::structures) {
+    const auto it = std::find_if(scene.structures.begin(), scene.structures.end(),
+                                 [&](const SceneStructure& s) { return s.id == f.feature_id; });
+    if (it == scene.structures.end()) return false;
+    m.station = it->station;
+    for (double v : {it->hgl, it->rim, it->crown, it->bottom}) {
+      if (std::isfinite(v)) {
+        m.elevation = v;
+        break;
+      }
+    }
+  } else if (f.layer == LayerRole::conduits || f.layer == LayerRole::force_mains) {
+    const auto it = std::find_if(scene.pipes.begin(), scene.pipes.end(),
+                                 [&](const ScenePipe& p) { return p.id == f.feature_id; });
+    if (it == scene.pipes.end()) return false;
+    m.station = 0.5 * (it->station_down + it->station_up);
+    m.elevation = 0.5 * (it->invert_down + it->invert_up) + it->rise;
+  } else {
+    return false;
+  }
+  if (!std::isfinite(m.elevation)) m.elevation = scene.y_min;
+  m.text = render_message(f.message, system);  // only for findings that are drawn
+  return true;
+}
+
+std::vector<SceneMarker> number_markers(std::vector<SceneMarker> out) {
+  std::stable_sort(out.begin(), out.end(), [](const SceneMarker& a, const SceneMarker& b) {
+    return a.station != b.station ? a.station < b.station : a.severity > b.severity;
+  });
+  for (std::size_t i = 0; i < out.size(); ++i) out[i].number = static_cast<int>(i + 1);
+  return out;
+}
+
+}  // namespace
+
+FindingIndex::FindingIndex(const run::CheckRun& run) {
+  for (std::size_t k = 0; k < run.cases.size(); ++k)
+    for (std::size_t i = 0; i < run.cases[k].findings.size(); ++i) {
+      const auto& f = run.cases[k].findings[i];
+      by_feature_[feature_key(f.layer, f.feature_id)].push_back({k, i, &f});
+    }
+  for (std::size_t i = 0; i < run.data_findings.size(); ++i) {
+    const auto& f = run.data_findings[i];
+    by_feature_[feature_key(f.layer, f.feature_id)].push_back({data_list, i, &f});
+  }
+}
+
+std::vector<const Finding*> FindingIndex::concerning(std::size_t case_index, LayerRole layer,
+                                                     const std::string& id) const {
+  std::vector<const Finding*> out;
+  const auto it = by_feature_.find(feature_key(layer, id));
+  if (it == by_feature_.end()) return out;
+  for (const auto& e : it->second)
+    if (e.list == case_index) out.push_back(e.finding);
+  for (const auto& e : it->second)
+    if (e.list == data_list) out.push_back(e.finding);
+  return out;
+}
+
+ProfileScene build_scene(const run::CheckRun& run, const ProfilePath& path, std::size_t case_index, int number,
+                         const FindingIndex* index) {
   const auto& net = run.read.network;
   const auto& kase = run.cases.at(case_index);
   const Converter cv{run.report_units};
@@ -188,44 +260,48 @@ ProfileScene build_scene(const run::CheckRun& run, const ProfilePath& path, std:
   s.x_min = 0.0;
   s.x_max = std::max(s.structures.back().station, 1e-3);
 
-  Findings concerned = kase.findings;
-  concerned.insert(concerned.end(), run.data_findings.begin(), run.data_findings.end());
-  s.markers = place_findings(s, concerned, s.system);
+  // The same order as placing the case's findings, then the run's data findings, one by one.
+  std::optional<FindingIndex> local;
+  if (!index) index = &local.emplace(run);
+  struct Hit {
+    bool data;
+    std::size_t position;
+    const Finding* finding;
+  };
+  std::vector<Hit> hits;
+  auto gather = [&](LayerRole layer, const std::string& id) {
+    for (const Finding* f : index->concerning(case_index, layer, id)) {
+      const bool data = f < kase.findings.data() || f >= kase.findings.data() + kase.findings.size();
+      hits.push_back({data, static_cast<std::size_t>(data ? f - run.data_findings.data() : f - kase.findings.data()), f});
+    }
+  };
+  std::set<std::string> seen;  // an id twice on a path (duplicate ids) is gathered once
+  for (const auto& st : s.structures)
+    if (seen.insert("s" + st.id).second) gather(LayerRole::structures, st.id);
+  for (const auto& p : s.pipes) {
+    if (!seen.insert("c" + p.id).second) continue;
+    gather(LayerRole::conduits, p.id);
+    gather(LayerRole::force_mains, p.id);
+  }
+  std::sort(hits.begin(), hits.end(), [](const Hit& a, const Hit& b) {
+    return a.data != b.data ? !a.data : a.position < b.position;
+  });
+  std::vector<SceneMarker> markers;
+  for (const auto& h : hits) {
+    SceneMarker m;
+    if (place(s, *h.finding, s.system, m)) markers.push_back(std::move(m));
+  }
+  s.markers = number_markers(std::move(markers));
   return s;
 }
 
 std::vector<SceneMarker> place_findings(const ProfileScene& scene, const Findings& findings, units::System system) {
   std::vector<SceneMarker> out;
   for (const auto& f : findings) {
-    SceneMarker m{0, nan, nan, f.severity, f.code, f.feature_id, render_message(f.message, system)};
-    if (f.layer == LayerRole::structures) {
-      const auto it = std::find_if(scene.structures.begin(), scene.structures.end(),
-                                   [&](const SceneStructure& s) { return s.id == f.feature_id; });
-      if (it == scene.structures.end()) continue;
-      m.station = it->station;
-      for (double v : {it->hgl, it->rim, it->crown, it->bottom}) {
-        if (std::isfinite(v)) {
-          m.elevation = v;
-          break;
-        }
-      }
-    } else if (f.layer == LayerRole::conduits || f.layer == LayerRole::force_mains) {
-      const auto it = std::find_if(scene.pipes.begin(), scene.pipes.end(),
-                                   [&](const ScenePipe& p) { return p.id == f.feature_id; });
-      if (it == scene.pipes.end()) continue;
-      m.station = 0.5 * (it->station_down + it->station_up);
-      m.elevation = 0.5 * (it->invert_down + it->invert_up) + it->rise;
-    } else {
-      continue;
-    }
-    if (!std::isfinite(m.elevation)) m.elevation = scene.y_min;
-    out.push_back(m);
+    SceneMarker m;
+    if (place(scene, f, system, m)) out.push_back(std::move(m));
   }
-  std::stable_sort(out.begin(), out.end(), [](const SceneMarker& a, const SceneMarker& b) {
-    return a.station != b.station ? a.station < b.station : a.severity > b.severity;
-  });
-  for (std::size_t i = 0; i < out.size(); ++i) out[i].number = static_cast<int>(i + 1);
-  return out;
+  return number_markers(std::move(out));
 }
 
 }  // namespace rimline::report

@@ -3,6 +3,7 @@
 // built once from a CheckRun, a path and a tailwater case, then drawn by either backend.
 #include <cstddef>
 #include <string>
+#include <unordered_map>
 #include <vector>
 
 #include "rimline/report/profile_path.hpp"
@@ -75,8 +76,28 @@ struct ProfileScene {
   const SceneLine& line(Stroke s) const { return lines[static_cast<std::size_t>(s)]; }
 };
 
-// The scene of `path` in run.cases[case_index].
-ProfileScene build_scene(const run::CheckRun& run, const ProfilePath& path, std::size_t case_index, int number);
+// The findings of a run looked up by the feature they concern, built once per drawing pass so a
+// scene costs what its path holds, not what the whole run holds (10^6-pipe exports).
+class FindingIndex {
+ public:
+  explicit FindingIndex(const run::CheckRun& run);
+  // Findings that concern (layer, id): the case's criteria findings first, then the data
+  // findings, each in its list order.
+  std::vector<const Finding*> concerning(std::size_t case_index, LayerRole layer, const std::string& id) const;
+
+ private:
+  struct Entry {
+    std::size_t list;  // case index, or data_list for the run's data findings
+    std::size_t position;
+    const Finding* finding;
+  };
+  static constexpr std::size_t data_list = static_cast<std::size_t>(-1);
+  std::unordered_map<std::string, std::vector<Entry>> by_feature_;  // key: layer letter + id
+};
+
+// The scene of `path` in run.cases[case_index]. Pass an index to share it between scenes.
+ProfileScene build_scene(const run::CheckRun& run, const ProfilePath& path, std::size_t case_index, int number,
+                         const FindingIndex* index = nullptr);
 
 // Findings of the case (criteria) and of the run (data) that concern a structure or conduit on
 // the path, placed at that feature: structures at their station, conduits mid-pipe.
