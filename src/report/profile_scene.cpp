@@ -122,15 +122,13 @@ FindingIndex::FindingIndex(const run::CheckRun& run) {
   }
 }
 
-std::vector<const Finding*> FindingIndex::concerning(std::size_t case_index, LayerRole layer,
-                                                     const std::string& id) const {
-  std::vector<const Finding*> out;
+std::vector<FindingIndex::Entry> FindingIndex::concerning(std::size_t case_index, LayerRole layer,
+                                                           const std::string& id) const {
+  std::vector<Entry> out;
   const auto it = by_feature_.find(feature_key(layer, id));
   if (it == by_feature_.end()) return out;
   for (const auto& e : it->second)
-    if (e.list == case_index) out.push_back(e.finding);
-  for (const auto& e : it->second)
-    if (e.list == data_list) out.push_back(e.finding);
+    if (e.list == case_index || e.list == data_list) out.push_back(e);
   return out;
 }
 
@@ -263,17 +261,9 @@ ProfileScene build_scene(const run::CheckRun& run, const ProfilePath& path, std:
   // The same order as placing the case's findings, then the run's data findings, one by one.
   std::optional<FindingIndex> local;
   if (!index) index = &local.emplace(run);
-  struct Hit {
-    bool data;
-    std::size_t position;
-    const Finding* finding;
-  };
-  std::vector<Hit> hits;
+  std::vector<FindingIndex::Entry> hits;
   auto gather = [&](LayerRole layer, const std::string& id) {
-    for (const Finding* f : index->concerning(case_index, layer, id)) {
-      const bool data = f < kase.findings.data() || f >= kase.findings.data() + kase.findings.size();
-      hits.push_back({data, static_cast<std::size_t>(data ? f - run.data_findings.data() : f - kase.findings.data()), f});
-    }
+    for (const auto& e : index->concerning(case_index, layer, id)) hits.push_back(e);
   };
   std::set<std::string> seen;  // an id twice on a path (duplicate ids) is gathered once
   for (const auto& st : s.structures)
@@ -283,8 +273,9 @@ ProfileScene build_scene(const run::CheckRun& run, const ProfilePath& path, std:
     gather(LayerRole::conduits, p.id);
     gather(LayerRole::force_mains, p.id);
   }
-  std::sort(hits.begin(), hits.end(), [](const Hit& a, const Hit& b) {
-    return a.data != b.data ? !a.data : a.position < b.position;
+  std::sort(hits.begin(), hits.end(), [](const FindingIndex::Entry& a, const FindingIndex::Entry& b) {
+    const bool a_data = a.list == FindingIndex::data_list, b_data = b.list == FindingIndex::data_list;
+    return a_data != b_data ? !a_data : a.position < b.position;
   });
   std::vector<SceneMarker> markers;
   for (const auto& h : hits) {

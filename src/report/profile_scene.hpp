@@ -81,17 +81,17 @@ struct ProfileScene {
 class FindingIndex {
  public:
   explicit FindingIndex(const run::CheckRun& run);
-  // Findings that concern (layer, id): the case's criteria findings first, then the data
-  // findings, each in its list order.
-  std::vector<const Finding*> concerning(std::size_t case_index, LayerRole layer, const std::string& id) const;
-
- private:
   struct Entry {
-    std::size_t list;  // case index, or data_list for the run's data findings
-    std::size_t position;
+    std::size_t list;      // case index, or data_list for the run's data findings
+    std::size_t position;  // in that list
     const Finding* finding;
   };
   static constexpr std::size_t data_list = static_cast<std::size_t>(-1);
+
+  // Findings that concern (layer, id) in one case: its criteria findings and the data findings.
+  std::vector<Entry> concerning(std::size_t case_index, LayerRole layer, const std::string& id) const;
+
+ private:
   std::unordered_map<std::string, std::vector<Entry>> by_feature_;  // key: layer letter + id
 };
 
