@@ -10,10 +10,6 @@ namespace {
 
 constexpr double nan = std::numeric_limits<double>::quiet_NaN();
 
-bool in_march(const model::Conduit& c) {
-  return c.usable && c.from != model::no_index && c.to != model::no_index;
-}
-
 // Share of each outflow at a diversion: given fractions, or in proportion to full capacity
 // (common practice, no source) when fractions are missing or the rule says so.
 std::vector<double> outflow_shares(const model::Network& net, const std::vector<std::size_t>& outs, Split split) {
@@ -54,7 +50,7 @@ std::vector<std::size_t> upstream_first_order(const model::Network& network, con
   const std::size_t ns = network.structures.size();
   std::vector<std::size_t> pending(ns, 0);
   for (const auto& c : network.conduits)
-    if (in_march(c)) ++pending[c.to];
+    if (model::marched(c)) ++pending[c.to];
   std::vector<std::size_t> ready;
   for (std::size_t s = 0; s < ns; ++s)
     if (pending[s] == 0) ready.push_back(s);
@@ -66,7 +62,7 @@ std::vector<std::size_t> upstream_first_order(const model::Network& network, con
     if (s >= topo.nodes.size()) continue;
     for (std::size_t ci : topo.nodes[s].outflows) {
       const auto& c = network.conduits[ci];
-      if (!in_march(c) || c.from != s) continue;
+      if (!model::marched(c) || c.from != s) continue;
       order.push_back(ci);
       if (--pending[c.to] == 0) ready.push_back(c.to);
     }

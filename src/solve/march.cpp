@@ -2,7 +2,6 @@
 
 #include <algorithm>
 #include <cmath>
-#include <sstream>
 
 #include "rimline/error.hpp"
 #include "rimline/hydraulics/depth.hpp"
@@ -14,18 +13,6 @@ namespace {
 constexpr double nan = std::numeric_limits<double>::quiet_NaN();
 // A level far below any invert: the pipe discharges freely into it.
 constexpr double free_level_m = -1.0e6;
-
-bool in_march(const model::Conduit& c) {
-  return c.usable && c.from != model::no_index && c.to != model::no_index;
-}
-
-std::string fmt(double v, int decimals = 3) {
-  std::ostringstream s;
-  s.setf(std::ios::fixed);
-  s.precision(decimals);
-  s << v;
-  return s.str();
-}
 
 class Marcher {
  public:
@@ -39,7 +26,7 @@ class Marcher {
     const std::size_t ns = net_.structures.size();
     std::vector<std::size_t> pending(ns, 0);  // usable outflows not yet solved
     for (const auto& c : net_.conduits)
-      if (in_march(c)) ++pending[c.from];
+      if (model::marched(c)) ++pending[c.from];
     std::vector<std::size_t> ready;
     for (std::size_t s = 0; s < ns; ++s)
       if (pending[s] == 0) ready.push_back(s);
@@ -50,7 +37,7 @@ class Marcher {
       solve_structure(s);
       for (std::size_t ci : topo_.nodes[s].inflows) {
         const auto& c = net_.conduits[ci];
-        if (!in_march(c) || c.to != s) continue;
+        if (!model::marched(c) || c.to != s) continue;
         solve_conduit(ci);
         if (--pending[c.from] == 0) ready.push_back(c.from);
       }
@@ -80,7 +67,7 @@ class Marcher {
     bool pumped = false;
     for (std::size_t ci : node.outflows) {
       const auto& c = net_.conduits[ci];
-      if (!in_march(c) || c.from != s) continue;
+      if (!model::marched(c) || c.from != s) continue;
       // A force main leaving a structure means a pump: its HGL is the pump's discharge head, not
       // the wet-well level, so it does not back water up into the gravity pipes arriving there.
       if (c.force_main) pumped = true;
@@ -138,7 +125,7 @@ class Marcher {
     in.benching = opt_.benching;
     for (std::size_t ci : topo_.nodes[s].inflows) {
       const auto& c = net_.conduits[ci];
-      if (!in_march(c) || c.to != s) continue;
+      if (!model::marched(c) || c.to != s) continue;
       hydraulics::StructureInflow f;
       f.flow_m3_s = std::isfinite(flow_[ci]) ? flow_[ci] : 0.0;
       f.diameter_m = hydraulics::rise_m(c.section);
@@ -161,7 +148,7 @@ class Marcher {
       out_.findings.push_back({"LOSS_FALLBACK", Severity::info, LayerRole::structures, st.id, "", nan, nan,
                                units::Dimension::dimensionless,
                                "structure " + st.id + ": the chosen loss method could not be applied (" + e.what() +
-                                   "); the constant K " + fmt(in.k_constant, 2) + " was used."});
+                                   "); the constant K " + q(in.k_constant, units::Dimension::dimensionless) + " was used."});
       return hydraulics::structure_loss(hydraulics::StructureLossMethod::constant_k, in);
     }
   }

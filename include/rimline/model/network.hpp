@@ -72,6 +72,9 @@ struct Network {
   double crs_metres_per_unit = 1.0;
 };
 
+// Whether a conduit takes part in the march: usable and connected at both ends.
+inline bool marched(const Conduit& c) { return c.usable && c.from != no_index && c.to != no_index; }
+
 // Index of a structure by id, or no_index. Linear; topology builds the hash map once.
 std::size_t find_structure(const Network& n, const std::string& id);
 
