@@ -88,6 +88,20 @@ int run_check_command(const CheckArgs& a, const GlobalOptions& g) {
     opt.tailwater_levels_m.push_back(io::parse_quantity(t, units::Dimension::length, "--tailwater"));
   if (!a.dry_run && a.out.empty()) throw Error(ErrorKind::bad_config, "check needs --out DIR (or --dry-run)");
 
+  report::OutputOptions out_opt;
+  out_opt.drawings = !a.no_drawings;
+  if (!a.profile_from.empty()) {
+    out_opt.profiles.selection = report::PathSelection::from_structure;
+    out_opt.profiles.from_structure_id = a.profile_from;
+  } else if (!a.profile_trunks.empty()) {
+    out_opt.profiles.selection = report::PathSelection::trunks;
+    out_opt.profiles.min_rise_m = io::parse_quantity(a.profile_trunks, units::Dimension::length, "--profile-trunks");
+  }
+  opt.detailed_conduits = [&out_opt](const model::Network& net, const topology::Topology& topo) {
+    return out_opt.drawings ? report::drawn_conduits(net, topo, out_opt.profiles)
+                            : std::vector<bool>(net.conduits.size(), false);
+  };
+
   Progress progress(!g.quiet);
   opt.progress = [&progress](const std::string& stage) { progress(stage); };
   const run::CheckRun result = run::run_check(project, opt);
@@ -98,15 +112,6 @@ int run_check_command(const CheckArgs& a, const GlobalOptions& g) {
     print_findings(result.findings, result.report_units, a.dry_run || g.verbose, std::cout);
   }
   if (!a.dry_run) {
-    report::OutputOptions out_opt;
-    out_opt.drawings = !a.no_drawings;
-    if (!a.profile_from.empty()) {
-      out_opt.profiles.selection = report::PathSelection::from_structure;
-      out_opt.profiles.from_structure_id = a.profile_from;
-    } else if (!a.profile_trunks.empty()) {
-      out_opt.profiles.selection = report::PathSelection::trunks;
-      out_opt.profiles.min_rise_m = io::parse_quantity(a.profile_trunks, units::Dimension::length, "--profile-trunks");
-    }
     progress("writing the outputs");
     report::write_outputs(result, a.out, out_opt);
     progress.done();

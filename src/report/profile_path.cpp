@@ -147,4 +147,12 @@ std::vector<ProfileSheet> plan_sheets(const model::Network& network, const topol
   return sheets;
 }
 
+std::vector<bool> drawn_conduits(const model::Network& network, const topology::Topology& topo,
+                                 const DrawingOptions& options) {
+  std::vector<bool> drawn(network.conduits.size(), false);
+  for (const auto& sheet : plan_sheets(network, topo, 1, options))
+    for (std::size_t ci : sheet.path.conduits) drawn[ci] = true;
+  return drawn;
+}
+
 }  // namespace rimline::report

@@ -1,9 +1,11 @@
 #include "rimline/report/report_html.hpp"
 
+#include <algorithm>
 #include <cmath>
 #include <cstdio>
 #include <map>
 #include <set>
+#include <unordered_map>
 
 #include "report/html_style.hpp"
 #include "report/sheet_text.hpp"
@@ -160,29 +162,60 @@ std::string budget(const run::CheckRun& run, std::size_t s) {
   return h + "</table></details>";
 }
 
+// A city-wide run can hold hundreds of thousands of findings; the report lists at most this many
+// per code and severity (the worst first) and exceptions.csv keeps them all. Common practice, no source.
+constexpr std::size_t rows_per_code = 200;
+// Past a city's first few dozen outfalls inline figures would make the page unwieldy; the rest are
+// linked from the profile index (each is its own SVG file and a PDF sheet).
+constexpr std::size_t max_inline_profiles = 40;
+
+std::string finding_row(const Finding& f, units::System sys) {
+  const bool has_value = std::isfinite(f.value) || std::isfinite(f.limit);
+  return row({"<b>" + esc(f.code) + "</b>", esc(layer_role_name(f.layer)), esc(f.feature_id), esc(f.field),
+              value(f.value, f.dimension, sys), value(f.limit, f.dimension, sys),
+              has_value ? esc(unit(f.dimension, sys)) : "", esc(render_message(f.message, sys))});
+}
+
 std::string findings_table(const run::CheckRun& run, const Findings& list, const std::string& id, bool budgets) {
   const auto sys = run.report_units;
+  std::unordered_map<std::string, std::size_t> structure_index;
+  if (budgets)
+    for (std::size_t s = 0; s < run.read.network.structures.size(); ++s)
+      structure_index.emplace(run.read.network.structures[s].id, s);
   std::string h = "<table class=\"findings\" id=\"" + id + "\">\n<thead>" +
                   row({"Code", "Layer", "Feature", "Field", "Value", "Limit", "Unit", "Message"}, "th") + "</thead>\n";
   for (Severity sev : {Severity::error, Severity::warning, Severity::info}) {
+    std::map<std::string, std::vector<const Finding*>> by_code;
     std::size_t n = 0;
-    for (const auto& f : list) n += f.severity == sev ? 1 : 0;
+    for (const auto& f : list)
+      if (f.severity == sev) {
+        by_code[f.code].push_back(&f);
+        ++n;
+      }
     const std::string name(severity_name(sev));
     h += "<tbody class=\"sev-" + name + "\"><tr class=\"group\"><th colspan=\"8\">" + name + " (" + std::to_string(n) +
          ")</th></tr>\n";
-    for (const auto& f : list) {
-      if (f.severity != sev) continue;
-      const bool has_value = std::isfinite(f.value) || std::isfinite(f.limit);
-      h += row({"<b>" + esc(f.code) + "</b>", esc(layer_role_name(f.layer)), esc(f.feature_id), esc(f.field),
-                value(f.value, f.dimension, sys), value(f.limit, f.dimension, sys),
-                has_value ? esc(unit(f.dimension, sys)) : "", esc(render_message(f.message, sys))});
-      // Budgets answer "why is the HGL this high here": asked of warnings and errors, not of
-      // notes such as an unknown rim (thousands of them in a municipal export).
-      if (!budgets || f.layer != LayerRole::structures || f.severity == Severity::info) continue;
-      const std::size_t s = model::find_structure(run.read.network, f.feature_id);
-      if (s == model::no_index || run.cases.empty()) continue;
-      const std::string b = budget(run, s);
-      if (!b.empty()) h += "<tr class=\"budget-row\"><td></td><td colspan=\"7\">" + b + "</td></tr>\n";
+    for (auto& [code, rows] : by_code) {
+      const std::size_t total = rows.size();
+      if (total > rows_per_code) {
+        std::stable_sort(rows.begin(), rows.end(),
+                         [](const Finding* a, const Finding* b) { return run::badness(*a) > run::badness(*b); });
+        rows.resize(rows_per_code);
+      }
+      for (const Finding* f : rows) {
+        h += finding_row(*f, sys);
+        // Budgets answer "why is the HGL this high here": asked of warnings and errors, not of
+        // notes such as an unknown rim (thousands of them in a municipal export).
+        if (!budgets || f->layer != LayerRole::structures || f->severity == Severity::info || run.cases.empty()) continue;
+        const auto it = structure_index.find(f->feature_id);
+        if (it == structure_index.end()) continue;
+        const std::string b = budget(run, it->second);
+        if (!b.empty()) h += "<tr class=\"budget-row\"><td></td><td colspan=\"7\">" + b + "</td></tr>\n";
+      }
+      if (total > rows_per_code)
+        h += "<tr class=\"more\"><td colspan=\"8\">" + std::to_string(rows_per_code) + " of " +
+             std::to_string(total) + " " + esc(code) + " " + name +
+             "s shown, the worst first; exceptions.csv lists all of them.</td></tr>\n";
     }
     h += "</tbody>\n";
   }
@@ -213,8 +246,10 @@ std::string profile_index(const std::vector<RenderedProfile>& profiles, const st
   h += row({"Profile", "Path and case", "Length (" + u + ")", "Structures", "Least freeboard (" + u + ")", "At",
             "Findings marked"},
            "th");
-  for (const auto& p : profiles) {
-    h += row({"<a href=\"#figure-" + esc(p.name) + "\">" + esc(p.name) + "</a>", esc(p.caption), fixed3(p.length),
+  for (std::size_t k = 0; k < profiles.size(); ++k) {
+    const auto& p = profiles[k];
+    const std::string target = k < max_inline_profiles ? "#figure-" + esc(p.name) : "profiles/" + esc(p.name) + ".svg";
+    h += row({"<a href=\"" + target + "\">" + esc(p.name) + "</a>", esc(p.caption), fixed3(p.length),
               std::to_string(p.structures), fixed3(p.least_freeboard), esc(p.least_freeboard_at),
               std::to_string(p.findings)});
   }
@@ -228,9 +263,13 @@ std::string profiles_section(const std::vector<RenderedProfile>& profiles, bool 
   h += pdf_written ? "Every profile is also a sheet of <a href=\"profiles.pdf\">profiles.pdf</a> (A3 landscape)."
                    : "No PDF was written.";
   h += "</p>\n";
+  if (profiles.size() > max_inline_profiles)
+    h += "<p>The first " + std::to_string(max_inline_profiles) + " of " + std::to_string(profiles.size()) +
+         " profiles are shown below; every profile is linked from the index.</p>\n";
   if (profiles.empty()) h += "<p>No path with a pipe was found: no profile drawn.</p>\n";
   else h += profile_index(profiles, u);
-  for (const auto& p : profiles) {
+  for (std::size_t k = 0; k < profiles.size() && k < max_inline_profiles; ++k) {
+    const auto& p = profiles[k];
     h += "<figure class=\"profile-figure\" id=\"figure-" + esc(p.name) + "\">\n" + p.svg + "<figcaption>Profile " +
          esc(p.name) + ": " + esc(p.caption) + " (<a href=\"profiles/" + esc(p.name) + ".svg\">SVG</a>)</figcaption>\n</figure>\n";
   }

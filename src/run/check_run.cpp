@@ -44,13 +44,6 @@ checks::CriteriaOverrides overrides_from(const io::Project& p) {
   return out;
 }
 
-// How bad a criteria finding is, so the envelope keeps the worst over the cases:
-// lower freeboard / higher surcharge, velocity or ratio is worse.
-double badness(const Finding& f) {
-  if (f.code == "FREEBOARD" || f.code == "FLOODED" || f.code == "VELOCITY_LOW" || f.code == "COVER") return -f.value;
-  return std::isfinite(f.value) ? f.value : 0.0;
-}
-
 Findings worst_per_feature(const std::vector<Case>& cases) {
   std::map<std::tuple<std::string, int, std::string>, Finding> worst;
   for (const auto& c : cases) {
@@ -97,6 +90,11 @@ void report_untyped_outfalls(const io::Project& project, const model::Network& n
 
 }  // namespace
 
+double badness(const Finding& f) {
+  if (f.code == "FREEBOARD" || f.code == "FLOODED" || f.code == "VELOCITY_LOW" || f.code == "COVER") return -f.value;
+  return std::isfinite(f.value) ? f.value : 0.0;
+}
+
 CheckRun run_check(const io::Project& project, const RunOptions& options) {
   CheckRun run;
   run.project = project;
@@ -120,6 +118,9 @@ CheckRun run_check(const io::Project& project, const RunOptions& options) {
     sort_findings(run.findings);
     return run;
   }
+
+  if (options.detailed_conduits)
+    run.march_options.keep_step_points = options.detailed_conduits(run.read.network, run.topology);
 
   flows::FlowOptions flow_opt;
   flow_opt.mode = project.flow_mode == io::FlowMode::pipe_field ? flows::Mode::pipe_field : flows::Mode::structure_inflows;

@@ -2,6 +2,9 @@
 
 #include <algorithm>
 #include <cmath>
+#include <exception>
+#include <iterator>
+#include <thread>
 
 #include "rimline/error.hpp"
 #include "rimline/hydraulics/depth.hpp"
@@ -14,22 +17,17 @@ constexpr double nan = std::numeric_limits<double>::quiet_NaN();
 // A level far below any invert: the pipe discharges freely into it.
 constexpr double free_level_m = -1.0e6;
 
+// Marches the structures it is seeded with and everything upstream of them. Several marchers
+// run at once on disjoint connected components: each writes only the results of its own
+// structures and pipes, and its findings to its own list.
 class Marcher {
  public:
-  Marcher(const model::Network& n, const topology::Topology& t, const std::vector<double>& q, const MarchOptions& o)
-      : net_(n), topo_(t), flow_(q), opt_(o) {
-    out_.conduits.resize(n.conduits.size());
-    out_.structures.resize(n.structures.size());
-  }
+  Marcher(const model::Network& n, const topology::Topology& t, const std::vector<double>& q, const MarchOptions& o,
+          MarchResult& out, std::vector<std::size_t>& pending, Findings& findings)
+      : net_(n), topo_(t), flow_(q), opt_(o), out_(out), pending_(pending), findings_(findings) {}
 
-  MarchResult run() {
-    const std::size_t ns = net_.structures.size();
-    std::vector<std::size_t> pending(ns, 0);  // usable outflows not yet solved
-    for (const auto& c : net_.conduits)
-      if (model::marched(c)) ++pending[c.from];
-    std::vector<std::size_t> ready;
-    for (std::size_t s = 0; s < ns; ++s)
-      if (pending[s] == 0) ready.push_back(s);
+  // `ready`: structures of this marcher's components with no outflow left to solve.
+  void run(std::vector<std::size_t> ready) {
     // Downstream first: a structure is solved once all its outflows are, then its inflows.
     while (!ready.empty()) {
       const std::size_t s = ready.back();
@@ -39,12 +37,10 @@ class Marcher {
         const auto& c = net_.conduits[ci];
         if (!model::marched(c) || c.to != s) continue;
         solve_conduit(ci);
-        if (--pending[c.from] == 0) ready.push_back(c.from);
+        if (--pending_[c.from] == 0) ready.push_back(c.from);
       }
       if (out_.structures[s].outfall || out_.structures[s].pumped) settle_outfall(s);
     }
-    report_unsolved();
-    return std::move(out_);
   }
 
  private:
@@ -145,8 +141,8 @@ class Marcher {
       return hydraulics::structure_loss(opt_.loss_method, in);
     } catch (const Error& e) {
       // The chosen method cannot be applied here (e.g. no inflow for HEC-22): fall back to K.
-      out_.findings.push_back({"LOSS_FALLBACK", Severity::info, LayerRole::structures, st.id, "", nan, nan,
-                               units::Dimension::dimensionless,
+      findings_.push_back({"LOSS_FALLBACK", Severity::info, LayerRole::structures, st.id, "", nan, nan,
+                           units::Dimension::dimensionless,
                                "structure " + st.id + ": the chosen loss method could not be applied (" + e.what() +
                                    "); the constant K " + q(in.k_constant, units::Dimension::dimensionless) + " was used."});
       return hydraulics::structure_loss(hydraulics::StructureLossMethod::constant_k, in);
@@ -175,7 +171,7 @@ class Marcher {
     }
     for (const auto& [end, from] : {std::pair{"upstream", up_source}, std::pair{"downstream", down_source}}) {
       if (from.empty()) continue;
-      out_.findings.push_back({"INVERT_ESTIMATED", Severity::warning, LayerRole::conduits, c.id, "", nan, nan,
+      findings_.push_back({"INVERT_ESTIMATED", Severity::warning, LayerRole::conduits, c.id, "", nan, nan,
                                units::Dimension::length,
                                "pipe " + c.id + " has no usable " + end + " invert; " + from +
                                    " stands in for it, so its figures and those upstream rest on an estimate."});
@@ -194,9 +190,7 @@ class Marcher {
     try {
       if (r.slope > 0.0) r.capacity_m3_s = hydraulics::full_capacity_m3_s(c.roughness, c.section, r.slope);
       r.profile = hydraulics::compute_profile(reach, down.hgl_m, opt_.gvf);
-      // The step points stay in the result for the whole run (drawings, outputs); growth by
-      // doubling left up to half of each vector's capacity unused, most of the march's memory.
-      r.profile.points.shrink_to_fit();
+      keep_needed_points(ci, r.profile.points);
       r.solved = true;
     } catch (const Error& e) {
       r.note = std::string("not checked: ") + e.what();
@@ -204,10 +198,26 @@ class Marcher {
       return;
     }
     if (!r.profile.converged)
-      out_.findings.push_back({"NOT_CONVERGED", Severity::warning, LayerRole::conduits, c.id, "", nan, nan,
+      findings_.push_back({"NOT_CONVERGED", Severity::warning, LayerRole::conduits, c.id, "", nan, nan,
                                units::Dimension::dimensionless,
                                "pipe " + c.id + ": the water-surface profile did not converge (" + r.profile.note +
                                    "); its figures are approximate."});
+  }
+
+  // The step points stay in the result for the whole run. Only drawn pipes need them all; the
+  // others keep three (outlet, inlet, fastest point: what the checks and the result layers read)
+  // instead of ~24, which was most of a city-wide run's memory.
+  void keep_needed_points(std::size_t ci, std::vector<hydraulics::ProfilePoint>& points) const {
+    const auto& keep = opt_.keep_step_points;
+    if (keep.empty() || (ci < keep.size() && keep[ci]) || points.size() <= 3) {
+      points.shrink_to_fit();  // growth by doubling leaves up to half of the capacity unused
+      return;
+    }
+    std::size_t fastest = 1;
+    for (std::size_t k = 2; k + 1 < points.size(); ++k)
+      if (points[k].velocity_m_s > points[fastest].velocity_m_s) fastest = k;
+    std::vector<hydraulics::ProfilePoint> few{points.front(), points[fastest], points.back()};
+    points.swap(few);
   }
 
   // A stand-in for a pipe's missing invert at a structure: the structure's own invert, else the
@@ -261,36 +271,118 @@ class Marcher {
 
   void blocked_at(std::size_t ci, const std::string& why) {
     const auto& c = net_.conduits[ci];
-    out_.findings.push_back({"NOT_CHECKED", Severity::warning, LayerRole::conduits, c.id, "", nan, nan,
+    findings_.push_back({"NOT_CHECKED", Severity::warning, LayerRole::conduits, c.id, "", nan, nan,
                              units::Dimension::dimensionless,
                              "pipe " + c.id + " was " + why + "; the structures upstream of it were not checked."});
-  }
-
-  void report_unsolved() {
-    for (std::size_t s = 0; s < net_.structures.size(); ++s) {
-      const auto& r = out_.structures[s];
-      if (r.solved || (topo_.nodes[s].inflows.empty() && topo_.nodes[s].outflows.empty())) continue;
-      const auto& st = net_.structures[s];
-      out_.findings.push_back({"NOT_CHECKED", Severity::warning, LayerRole::structures, st.id, "", nan, nan,
-                               units::Dimension::dimensionless,
-                               "structure " + st.id + " was not checked: a pipe downstream of it could not be solved."});
-    }
   }
 
   const model::Network& net_;
   const topology::Topology& topo_;
   const std::vector<double>& flow_;
   const MarchOptions& opt_;
-  MarchResult out_;
+  MarchResult& out_;
+  std::vector<std::size_t>& pending_;
+  Findings& findings_;
 };
 
+void report_unsolved(const model::Network& net, const topology::Topology& topo, MarchResult& out) {
+  for (std::size_t s = 0; s < net.structures.size(); ++s) {
+    const auto& r = out.structures[s];
+    if (r.solved || (topo.nodes[s].inflows.empty() && topo.nodes[s].outflows.empty())) continue;
+    const auto& st = net.structures[s];
+    out.findings.push_back({"NOT_CHECKED", Severity::warning, LayerRole::structures, st.id, "", nan, nan,
+                            units::Dimension::dimensionless,
+                            "structure " + st.id + " was not checked: a pipe downstream of it could not be solved."});
+  }
+}
+
+// Connected components of the marched graph (union-find): each structure's lowest-index member.
+std::vector<std::size_t> components(const model::Network& net) {
+  std::vector<std::size_t> parent(net.structures.size());
+  for (std::size_t s = 0; s < parent.size(); ++s) parent[s] = s;
+  auto root = [&parent](std::size_t s) {
+    while (parent[s] != s) s = parent[s] = parent[parent[s]];
+    return s;
+  };
+  for (const auto& c : net.conduits) {
+    if (!model::marched(c)) continue;
+    const std::size_t a = root(c.from), b = root(c.to);
+    if (a != b) parent[std::max(a, b)] = std::min(a, b);
+  }
+  for (std::size_t s = 0; s < parent.size(); ++s) parent[s] = root(s);
+  return parent;
+}
+
+// Starting structures per worker. Components go whole to one worker (largest first, to the least
+// loaded), so no pipe's downstream level belongs to another thread; the split depends on the
+// network only, so the results and the order of the findings do not depend on timing.
+std::vector<std::vector<std::size_t>> seeds_per_worker(const model::Network& net,
+                                                       const std::vector<std::size_t>& pending, unsigned workers) {
+  const std::size_t ns = net.structures.size();
+  std::vector<std::vector<std::size_t>> seeds(workers);
+  if (workers == 1) {
+    for (std::size_t s = 0; s < ns; ++s)
+      if (pending[s] == 0) seeds[0].push_back(s);
+    return seeds;
+  }
+  const auto comp = components(net);
+  std::vector<std::size_t> size(ns, 0);
+  for (std::size_t s = 0; s < ns; ++s) ++size[comp[s]];
+  std::vector<std::size_t> roots;
+  for (std::size_t s = 0; s < ns; ++s)
+    if (comp[s] == s) roots.push_back(s);
+  std::stable_sort(roots.begin(), roots.end(), [&size](std::size_t a, std::size_t b) { return size[a] > size[b]; });
+  std::vector<std::size_t> load(workers, 0), owner(ns, 0);
+  for (std::size_t r : roots) {
+    const auto w = static_cast<std::size_t>(std::min_element(load.begin(), load.end()) - load.begin());
+    owner[r] = w;
+    load[w] += size[r];
+  }
+  for (std::size_t s = 0; s < ns; ++s)
+    if (pending[s] == 0) seeds[owner[comp[s]]].push_back(s);
+  return seeds;
+}
+
 }  // namespace
+
+unsigned march_threads(const MarchOptions& options, std::size_t conduits) {
+  if (conduits < 4000) return 1;  // below a few thousand pipes a thread costs more than it saves
+  const unsigned n = options.threads ? options.threads : std::max(1u, std::thread::hardware_concurrency());
+  return std::min(n, 64u);
+}
 
 MarchResult march(const model::Network& network, const topology::Topology& topo, const std::vector<double>& flow_m3_s,
                   const MarchOptions& options) {
   if (flow_m3_s.size() != network.conduits.size())
     throw Error(ErrorKind::internal, "march: one design flow per conduit is needed");
-  return Marcher(network, topo, flow_m3_s, options).run();
+  MarchResult out;
+  out.conduits.resize(network.conduits.size());
+  out.structures.resize(network.structures.size());
+  std::vector<std::size_t> pending(network.structures.size(), 0);  // marched outflows not yet solved
+  for (const auto& c : network.conduits)
+    if (model::marched(c)) ++pending[c.from];
+
+  const unsigned workers = march_threads(options, network.conduits.size());
+  auto seeds = seeds_per_worker(network, pending, workers);
+  std::vector<Findings> found(workers);
+  std::vector<std::exception_ptr> failed(workers);
+  auto work = [&](unsigned w) {
+    try {
+      Marcher(network, topo, flow_m3_s, options, out, pending, found[w]).run(std::move(seeds[w]));
+    } catch (...) {
+      failed[w] = std::current_exception();
+    }
+  };
+  std::vector<std::thread> threads;
+  for (unsigned w = 1; w < workers; ++w) threads.emplace_back(work, w);
+  work(0);
+  for (auto& t : threads) t.join();
+  for (const auto& e : failed)
+    if (e) std::rethrow_exception(e);
+  for (auto& f : found)
+    out.findings.insert(out.findings.end(), std::make_move_iterator(f.begin()), std::make_move_iterator(f.end()));
+  report_unsolved(network, topo, out);
+  return out;
 }
 
 std::vector<BudgetItem> loss_budget(const model::Network& network, const MarchResult& result, std::size_t structure) {

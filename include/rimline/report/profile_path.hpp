@@ -75,4 +75,9 @@ struct ProfileSheet {
 std::vector<ProfileSheet> plan_sheets(const model::Network& network, const topology::Topology& topo,
                                       std::size_t case_count, const DrawingOptions& options);
 
+// Which conduits the drawings of `options` follow (aligned with network.conduits), so the march
+// can keep every step point of those pipes and only the ends of the others.
+std::vector<bool> drawn_conduits(const model::Network& network, const topology::Topology& topo,
+                                 const DrawingOptions& options);
+
 }  // namespace rimline::report

@@ -21,6 +21,10 @@ struct RunOptions {
   std::optional<units::System> report_units;          // overrides [project] units
   std::vector<double> tailwater_levels_m;             // overrides [tailwater] levels
   bool dry_run = false;                               // read and build the network only
+  // The pipes whose every water-surface step point is kept (those that will be drawn), asked once
+  // the network is connected; the others keep only what the checks and result layers use.
+  // Unset: every pipe keeps all its points.
+  std::function<std::vector<bool>(const model::Network&, const topology::Topology&)> detailed_conduits;
   // Told the name of each stage as it starts ("reading", "connecting", "march 1/2", ...).
   std::function<void(const std::string& stage)> progress;
 };
@@ -50,6 +54,10 @@ struct CheckRun {
 };
 
 CheckRun run_check(const io::Project& project, const RunOptions& options);
+
+// How bad a criteria finding is, to keep the worst over the cases and list the worst first:
+// lower freeboard, velocity (minimum) or cover is worse, higher surcharge, velocity or ratio is worse.
+double badness(const Finding& f);
 
 // The freeboard a structure must keep (the run's, or its own override).
 double required_freeboard_m(const CheckRun& run, std::size_t structure);

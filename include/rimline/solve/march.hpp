@@ -27,7 +27,16 @@ struct MarchOptions {
   double default_k = 0.5;                   // common practice, no source
   double default_structure_diameter_m = 1.2;
   hydraulics::GvfOptions gvf;
+  // Worker threads over the network's connected components (0: one per core). Results do not
+  // depend on it; small networks run on one thread.
+  unsigned threads = 0;
+  // Pipes whose every step point is kept (the drawn ones); the others keep the outlet, the inlet
+  // and the point of highest velocity, all that the checks and the result layers use. Empty: all.
+  std::vector<bool> keep_step_points;
 };
+
+// The number of threads march() uses for a network of `conduits` pipes.
+unsigned march_threads(const MarchOptions& options, std::size_t conduits);
 
 struct ConduitResult {
   bool solved = false;
