@@ -3,9 +3,11 @@
 #include <ogrsf_frmts.h>
 
 #include <cmath>
+#include <exception>
 #include <map>
 #include <memory>
 #include <string>
+#include <thread>
 #include <utility>
 #include <vector>
 
@@ -254,10 +256,23 @@ void write_results_gpkg(const run::CheckRun& run, const std::string& path) { Wri
 
 void write_outputs(const run::CheckRun& run, const std::string& out_dir, const OutputOptions& options) {
   StagedFiles files(out_dir);
-  files.write_text("exceptions.csv", exceptions_csv(run));
-  files.write_text("summary.json", summary_json(run));
-  write_results_gpkg(run, files.path_for("results.gpkg"));
-  if (options.drawings) write_drawings(run, files, options.profiles);
+  const std::string gpkg = files.path_for("results.gpkg");
+  std::exception_ptr gpkg_failed;
+  {
+    // results.gpkg (SQLite inserts) is the longest writer of a city-wide run and shares nothing
+    // with the others but the finished run: it is written beside them, on another core.
+    std::jthread gpkg_writer([&] {
+      try {
+        write_results_gpkg(run, gpkg);
+      } catch (...) {
+        gpkg_failed = std::current_exception();
+      }
+    });
+    files.write_text("exceptions.csv", exceptions_csv(run));
+    files.write_text("summary.json", summary_json(run));
+    if (options.drawings) write_drawings(run, files, options.profiles);
+  }
+  if (gpkg_failed) std::rethrow_exception(gpkg_failed);
   files.commit();
 }
 
