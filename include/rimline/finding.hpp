@@ -38,5 +38,6 @@ std::string render_message(const std::string& message, units::System system);
 
 // Stable order for outputs: by severity (worst first), code, layer, feature id.
 void sort_findings(Findings& findings);
+bool finding_before(const Finding& a, const Finding& b);  // the order of sort_findings
 
 }  // namespace rimline

@@ -25,12 +25,11 @@ std::string_view layer_role_name(LayerRole r) {
   return "project";
 }
 
-void sort_findings(Findings& findings) {
-  std::stable_sort(findings.begin(), findings.end(), [](const Finding& a, const Finding& b) {
-    return std::make_tuple(-static_cast<int>(a.severity), a.code, static_cast<int>(a.layer), a.feature_id) <
-           std::make_tuple(-static_cast<int>(b.severity), b.code, static_cast<int>(b.layer), b.feature_id);
-  });
+bool finding_before(const Finding& a, const Finding& b) {
+  return std::tie(b.severity, a.code, a.layer, a.feature_id) < std::tie(a.severity, b.code, b.layer, b.feature_id);
 }
+
+void sort_findings(Findings& findings) { std::stable_sort(findings.begin(), findings.end(), finding_before); }
 
 }  // namespace rimline
 

@@ -77,7 +77,8 @@ std::string summary_section(const run::CheckRun& run, const std::string& date) {
               std::to_string(solved) + " of " + std::to_string(c.march.structures.size()),
               std::to_string(c.findings.size())});
   }
-  return h + "</table></section>\n";
+  h += "</table></section>\n";
+  return h;
 }
 
 std::string inputs_section(const run::CheckRun& run) {
@@ -105,7 +106,8 @@ std::string inputs_section(const run::CheckRun& run) {
     }
     h += "</table>\n";
   }
-  return h + "</section>\n";
+  h += "</section>\n";
+  return h;
 }
 
 std::string methods_section(const run::CheckRun& run) {
@@ -135,7 +137,8 @@ std::string methods_section(const run::CheckRun& run) {
       here = "<span class=\"used\">" + esc(it->second) + "</span>";
     h += row({esc(m.group), esc(m.name) + " <code>" + esc(m.id) + "</code>", esc(m.description), here, esc(m.source)});
   }
-  return h + "</table></section>\n";
+  h += "</table></section>\n";
+  return h;
 }
 
 // The energy budget of a structure in the case with its highest HGL: tailwater plus each loss
@@ -159,7 +162,8 @@ std::string budget(const run::CheckRun& run, std::size_t s) {
   }
   h += "<tr class=\"total\"><td colspan=\"3\">HGL in the structure</td><td>" +
        value(march.structures[s].hgl_m, Dimension::length, sys) + "</td></tr>\n";
-  return h + "</table></details>";
+  h += "</table></details>";
+  return h;
 }
 
 // A city-wide run can hold hundreds of thousands of findings; the report lists at most this many
@@ -176,7 +180,8 @@ std::string finding_row(const Finding& f, units::System sys) {
               has_value ? esc(unit(f.dimension, sys)) : "", esc(render_message(f.message, sys))});
 }
 
-std::string findings_table(const run::CheckRun& run, const Findings& list, const std::string& id, bool budgets) {
+std::string findings_table(const run::CheckRun& run, const std::vector<const Finding*>& list, const std::string& id,
+                           bool budgets) {
   const auto sys = run.report_units;
   std::unordered_map<std::string, std::size_t> structure_index;
   if (budgets)
@@ -187,9 +192,9 @@ std::string findings_table(const run::CheckRun& run, const Findings& list, const
   for (Severity sev : {Severity::error, Severity::warning, Severity::info}) {
     std::map<std::string, std::vector<const Finding*>> by_code;
     std::size_t n = 0;
-    for (const auto& f : list)
-      if (f.severity == sev) {
-        by_code[f.code].push_back(&f);
+    for (const Finding* f : list)
+      if (f->severity == sev) {
+        by_code[f->code].push_back(f);
         ++n;
       }
     const std::string name(severity_name(sev));
@@ -219,18 +224,21 @@ std::string findings_table(const run::CheckRun& run, const Findings& list, const
     }
     h += "</tbody>\n";
   }
-  return h + "</table>\n";
+  h += "</table>\n";
+  return h;
 }
 
-std::string data_findings_section(const run::CheckRun& run, const Findings& data) {
+std::string data_findings_section(const run::CheckRun& run, const std::vector<const Finding*>& data) {
   std::map<std::string, int> by_code;
-  for (const auto& f : data) ++by_code[f.code];
+  for (const Finding* f : data) ++by_code[f->code];
   std::string h = "<section id=\"data-findings\"><h2>Data findings</h2>\n<p>Problems in the input data found while "
                   "reading, connecting and marching. Counts by code: ";
   std::string counts;
   for (const auto& [code, n] : by_code) counts += (counts.empty() ? "" : ", ") + esc(code) + " " + std::to_string(n);
   h += (counts.empty() ? "none" : counts) + ".</p>\n";
-  return h + findings_table(run, data, "data-table", false) + "</section>\n";
+  h += findings_table(run, data, "data-table", false);
+  h += "</section>\n";
+  return h;
 }
 
 std::string fixed3(double v) {
@@ -253,7 +261,8 @@ std::string profile_index(const std::vector<RenderedProfile>& profiles, const st
               std::to_string(p.structures), fixed3(p.least_freeboard), esc(p.least_freeboard_at),
               std::to_string(p.findings)});
   }
-  return h + "</table>\n";
+  h += "</table>\n";
+  return h;
 }
 
 std::string profiles_section(const std::vector<RenderedProfile>& profiles, bool pdf_written, const std::string& u,
@@ -273,17 +282,22 @@ std::string profiles_section(const std::vector<RenderedProfile>& profiles, bool 
     h += "<figure class=\"profile-figure\" id=\"figure-" + esc(p.name) + "\">\n" + p.svg + "<figcaption>Profile " +
          esc(p.name) + ": " + esc(p.caption) + " (<a href=\"profiles/" + esc(p.name) + ".svg\">SVG</a>)</figcaption>\n</figure>\n";
   }
-  return h + "</section>\n";
+  h += "</section>\n";
+  return h;
 }
 
 }  // namespace
 
 std::string report_html(const run::CheckRun& run, const std::vector<RenderedProfile>& profiles,
                         const std::string& date, bool pdf_written, const std::string& selection) {
-  std::set<std::string> data_keys;
-  for (const auto& f : run.data_findings) data_keys.insert(finding_key(f));
-  Findings criteria, data;
-  for (const auto& f : run.findings) (data_keys.count(finding_key(f)) ? data : criteria).push_back(f);
+  std::vector<const Finding*> criteria, data;
+  if (run.data_finding.size() == run.findings.size()) {
+    for (std::size_t k = 0; k < run.findings.size(); ++k) (run.data_finding[k] ? data : criteria).push_back(&run.findings[k]);
+  } else {  // a run assembled by hand: tell the two apart by content
+    std::set<std::string> data_keys;
+    for (const auto& f : run.data_findings) data_keys.insert(finding_key(f));
+    for (const auto& f : run.findings) (data_keys.count(finding_key(f)) ? data : criteria).push_back(&f);
+  }
 
   std::string h = "<!DOCTYPE html>\n<html lang=\"en\">\n<head>\n<meta charset=\"utf-8\">\n<title>rimline review: " +
                   esc(run.project.name) + "</title>\n<style>\n" + std::string(report_css) + "</style>\n</head>\n<body>\n";
@@ -298,7 +312,8 @@ std::string report_html(const run::CheckRun& run, const std::vector<RenderedProf
   h += "<section id=\"exceptions\"><h2>Exception list</h2>\n<p>Design criteria not met, worst case over the "
        "tailwater cases, by severity. A structure warning or error opens to its energy budget down to the "
        "outfall.</p>\n";
-  h += findings_table(run, criteria, "exception-table", true) + "</section>\n";
+  h += findings_table(run, criteria, "exception-table", true);
+  h += "</section>\n";
   h += profiles_section(profiles, pdf_written, unit(Dimension::length, run.report_units), selection);
   h += data_findings_section(run, data);
   h += "</main>\n<footer><p class=\"caution\" id=\"caution\">" + esc(caution) + "</p></footer>\n</body>\n</html>\n";

@@ -1,6 +1,8 @@
 #include "rimline/run/check_run.hpp"
 
+#include <algorithm>
 #include <cmath>
+#include <iterator>
 #include <map>
 #include <tuple>
 
@@ -62,6 +64,26 @@ Findings worst_per_feature(const std::vector<Case>& cases) {
   return out;
 }
 
+// run.findings: the data findings and the criteria findings in output order, each marked by origin
+// (sorted through an index, so the findings themselves are moved once).
+void merge_findings(CheckRun& run, Findings criteria) {
+  const std::size_t nd = run.data_findings.size();
+  Findings all;
+  all.reserve(nd + criteria.size());
+  all.insert(all.end(), run.data_findings.begin(), run.data_findings.end());
+  all.insert(all.end(), std::make_move_iterator(criteria.begin()), std::make_move_iterator(criteria.end()));
+  std::vector<std::size_t> order(all.size());
+  for (std::size_t k = 0; k < order.size(); ++k) order[k] = k;
+  std::stable_sort(order.begin(), order.end(), [&all](std::size_t a, std::size_t b) { return finding_before(all[a], all[b]); });
+  run.findings.clear();
+  run.findings.reserve(all.size());
+  run.data_finding.assign(all.size(), false);
+  for (std::size_t k = 0; k < order.size(); ++k) {
+    run.findings.push_back(std::move(all[order[k]]));
+    run.data_finding[k] = order[k] < nd;
+  }
+}
+
 std::string case_label(double tw) {
   if (!std::isfinite(tw)) return "free outfall";
   return "tailwater " + q(tw, units::Dimension::length);
@@ -114,8 +136,7 @@ CheckRun run_check(const io::Project& project, const RunOptions& options) {
   run.overrides = overrides_from(project);
   run.march_options = march_options_from(project);
   if (options.dry_run) {
-    run.findings = run.data_findings;
-    sort_findings(run.findings);
+    merge_findings(run, {});
     return run;
   }
 
@@ -144,7 +165,10 @@ CheckRun run_check(const io::Project& project, const RunOptions& options) {
     run.cases.push_back(std::move(c));
   }
   // March problems (blocked, not converged) are the same in every case but the first is kept.
-  for (const auto& f : run.cases.front().march.findings) run.data_findings.push_back(f);
+  auto& march_findings = run.cases.front().march.findings;
+  run.data_findings.insert(run.data_findings.end(), std::make_move_iterator(march_findings.begin()),
+                           std::make_move_iterator(march_findings.end()));
+  for (auto& c : run.cases) Findings().swap(c.march.findings);
 
   const auto& net = run.read.network;
   run.envelope_structure_case.assign(net.structures.size(), 0);
@@ -162,9 +186,7 @@ CheckRun run_check(const io::Project& project, const RunOptions& options) {
         run.envelope_conduit_case[ci] = k;
     }
   }
-  run.findings = run.data_findings;
-  for (auto& f : worst_per_feature(run.cases)) run.findings.push_back(std::move(f));
-  sort_findings(run.findings);
+  merge_findings(run, worst_per_feature(run.cases));
   return run;
 }
 

@@ -51,6 +51,7 @@ struct CheckRun {
   std::vector<std::size_t> envelope_conduit_case;    // per conduit: the case with the highest inlet HGL
   Findings data_findings;  // reading, topology, flows, march problems
   Findings findings;       // every finding of the run: data + the worst criteria finding per feature and code
+  std::vector<bool> data_finding;  // aligned with findings: true for those of data_findings
 };
 
 CheckRun run_check(const io::Project& project, const RunOptions& options);

@@ -57,7 +57,7 @@ Forest forest(std::size_t trees, std::size_t length) {
 
 }  // namespace
 
-TEST_CASE("march on several threads equals the march on one thread") {
+TEST_CASE("march on several threads equals the march on one thread", "[threads]") {
   const auto f = forest(60, 80);  // 4800 pipes: above the single-thread threshold
   solve::MarchOptions one;
   one.threads = 1;
@@ -86,7 +86,7 @@ TEST_CASE("march on several threads equals the march on one thread") {
   CHECK(keys(a.findings) == keys(b.findings));
 }
 
-TEST_CASE("small networks march on one thread") {
+TEST_CASE("small networks march on one thread", "[threads]") {
   solve::MarchOptions o;
   o.threads = 8;
   CHECK(solve::march_threads(o, 100) == 1);
