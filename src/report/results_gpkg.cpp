@@ -218,7 +218,9 @@ class Writer {
     }
   }
 
+  // One row per structure and tailwater level of a sweep; a single level is the structures layer.
   void write_cases() {
+    if (run_.cases.size() < 2) return;
     OGRLayer* l = layer("structure_cases", wkbNone);
     for (const char* n : {"id", "tailwater_case"}) field(l, n, OFTString);
     for (const char* n : {"tailwater", "hgl", "freeboard"}) field(l, n, OFTReal);

@@ -2,7 +2,7 @@
 // The outputs contract of `rimline check --out DIR`:
 //   DIR/exceptions.csv  one row per finding: code,severity,layer,feature_id,field,value,limit,unit,message
 //   DIR/results.gpkg    layers structures, conduits (input CRS; values in the run's unit system),
-//                       and the table structure_cases (one row per structure and tailwater level)
+//                       and, for a tailwater sweep, the table structure_cases (one row per structure and level)
 //   DIR/summary.json    run metadata, inputs with SHA-256, units, criteria, methods, counts, worst freeboard
 //   DIR/profiles/*.svg  one profile drawing per path and tailwater level; DIR/profiles.pdf all of them
 //   DIR/report.html     the self-contained review report
