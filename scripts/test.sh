@@ -24,7 +24,7 @@ cmake --build "$here/build-asan" -j"$(nproc)"
 echo "== the threaded march and output writers under ThreadSanitizer" >&2
 cmake -S "$here" -B "$here/build-tsan" -DCMAKE_BUILD_TYPE=RelWithDebInfo -DRIMLINE_TSAN=ON -DRIMLINE_WERROR=ON >/dev/null
 cmake --build "$here/build-tsan" -j"$(nproc)" --target rimline test_solve
-export TSAN_OPTIONS="halt_on_error=1 second_deadlock_stack=1"
+export TSAN_OPTIONS="halt_on_error=1 second_deadlock_stack=1 suppressions=$here/scripts/tsan.supp"
 "$here/build-tsan/tests/test_solve" "[threads]"
 tsan_net="$(mktemp -d)"
 trap 'rm -rf "$tsan_net"' EXIT
