@@ -91,11 +91,12 @@ TSV="$WORK/results.tsv"
 [[ $KEEP -eq 1 ]] && SIZES=""
 [[ $KEEP -eq 1 ]] || : > "$TSV"
 
-# /usr/bin/time -v report -> "wall_s rss_kib"
+# /usr/bin/time -v report -> "wall_s rss_kib cpu_s" (cpu = user + system, all threads)
 parse_time() {
   awk -F': ' '/Elapsed \(wall clock\)/ { n = split($2, p, ":"); s = 0; for (i = 1; i <= n; i++) s = s * 60 + p[i]; w = s }
               /Maximum resident set size/ { r = $2 }
-              END { printf "%.3f %d\n", w, r }' "$1"
+              /User time \(seconds\)|System time \(seconds\)/ { c += $2 }
+              END { printf "%.3f %d %.3f\n", w, r, c }' "$1"
 }
 
 for n in $SIZES; do
@@ -111,7 +112,7 @@ for n in $SIZES; do
   for ((k = 0; k < REPEAT; k++)); do
     rm -f "$WORK/copy.gpkg"
     /usr/bin/time -v -o "$WORK/base.time" ogr2ogr -f GPKG "$WORK/copy.gpkg" "$dir/network.gpkg" pipes structures
-    read -r bw br < <(parse_time "$WORK/base.time")
+    read -r bw br bc < <(parse_time "$WORK/base.time")
     rm -rf "$WORK/out"
     rc=0
     tmo=(); [[ $TIMEOUT -gt 0 ]] && tmo=(timeout "$TIMEOUT")
@@ -125,13 +126,13 @@ for n in $SIZES; do
     if [[ $rc -ne 0 && $rc -ne 1 ]]; then  # 1 = findings at or above --fail-on; anything else failed
       echo "rimline check failed (exit $rc) on N=$n" >&2; cat "$WORK/rim.time" >&2; exit 1
     fi
-    read -r rw rr < <(parse_time "$WORK/rim.time")
-    if [[ -z "$best_r" ]] || awk "BEGIN{exit !($rw < $best_r)}"; then best_r=$rw; rss_r=$rr; fi
-    if [[ -z "$best_b" ]] || awk "BEGIN{exit !($bw < $best_b)}"; then best_b=$bw; rss_b=$br; fi
+    read -r rw rr rc_s < <(parse_time "$WORK/rim.time")
+    if [[ -z "$best_r" ]] || awk "BEGIN{exit !($rw < $best_r)}"; then best_r=$rw; rss_r=$rr; cpu_r=$rc_s; fi
+    if [[ -z "$best_b" ]] || awk "BEGIN{exit !($bw < $best_b)}"; then best_b=$bw; rss_b=$br; cpu_b=$bc; fi
   done
   profiles=$(find "$WORK/out/profiles" -name '*.svg' 2>/dev/null | wc -l)
-  printf "%s\t%s\t%s\t%s\t%s\t%s\t%s\n" "$n" "$best_b" "$rss_b" "$best_r" "$rss_r" "$(du -k "$dir/network.gpkg" | cut -f1)" \
-    "$profiles" >> "$TSV"
+  printf "%s\t%s\t%s\t%s\t%s\t%s\t%s\t%s\t%s\n" "$n" "$best_b" "$rss_b" "$best_r" "$rss_r" \
+    "$(du -k "$dir/network.gpkg" | cut -f1)" "$profiles" "$cpu_b" "$cpu_r" >> "$TSV"
   printf "N=%-8s baseline %8.2f s %7.0f MiB | rimline %8.2f s %7.0f MiB | ratio %.2f\n" "$n" "$best_b" \
     "$(awk "BEGIN{print $rss_b/1024}")" "$best_r" "$(awk "BEGIN{print $rss_r/1024}")" "$(awk "BEGIN{print $best_r/$best_b}")"
 done
@@ -214,19 +215,22 @@ lines = ["# rimline scale benchmark", "",
          % (seed, os.cpu_count(), cpu, round(os.sysconf("SC_PAGE_SIZE") * os.sysconf("SC_PHYS_PAGES") / 2**30)),
          "%s at the end: **the 2 cores are shared with other engineers' builds**, so the wall times are noisy and"
          % sh("cut -d' ' -f1-3 /proc/loadavg"),
-         "pessimistic; the ratio to the baseline, taken in the same run, is the steadier figure.", "",
-         "| pipes N | GPKG MiB | baseline ogr2ogr s | baseline RSS MiB | rimline check s | rimline RSS MiB | rimline / baseline | exponent vs previous N | profiles drawn |",
-         "|---:|---:|---:|---:|---:|---:|---:|---:|---:|"]
+         "pessimistic (rimline's threads wait for cores the baseline, on one thread, does not need); the CPU",
+         "times (user + system, all threads) do not depend on the load and are the steadier comparison.", "",
+         "| pipes N | GPKG MiB | baseline ogr2ogr s | baseline RSS MiB | rimline check s | rimline RSS MiB | rimline / baseline (wall) | baseline CPU s | rimline CPU s | rimline / baseline (CPU) | exponent vs previous N (wall) | profiles drawn |",
+         "|---:|---:|---:|---:|---:|---:|---:|---:|---:|---:|---:|---:|"]
 prev = None
-for n, bw, br, rw, rr, kib, prof_n in rows:
+for row in rows:
+    n, bw, br, rw, rr, kib, prof_n = row[:7]
     if rw.startswith("timeout"):
-        lines.append("| %s | %.1f | %s | %.0f | did not finish in %s s | | | | |"
+        lines.append("| %s | %.1f | %s | %.0f | did not finish in %s s | | | | | | | |"
                      % (n, int(kib) / 1024, bw, int(br) / 1024, rw.split(">")[1]))
         continue
     n, bw, br, rw, rr, kib = int(n), float(bw), int(br), float(rw), int(rr), int(kib)
+    bc, rc = (float(row[7]), float(row[8])) if len(row) >= 9 and row[7] and row[8] else (float("nan"),) * 2
     exp = "" if prev is None else "%.2f" % (math.log(rw / prev[1]) / math.log(n / prev[0]))
-    lines.append("| %d | %.1f | %.2f | %.0f | %.2f | %.0f | %.2f | %s | %s |"
-                 % (n, kib / 1024, bw, br / 1024, rw, rr / 1024, rw / bw, exp, prof_n))
+    lines.append("| %d | %.1f | %.2f | %.0f | %.2f | %.0f | %.2f | %.2f | %.2f | %.2f | %s | %s |"
+                 % (n, kib / 1024, bw, br / 1024, rw, rr / 1024, rw / bw, bc, rc, rc / bc, exp, prof_n))
     prev = (n, rw)
 if len(rows) >= 2:
     first = [r for r in rows if int(r[0]) == 10000]
