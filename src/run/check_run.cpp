@@ -4,6 +4,8 @@
 #include <map>
 #include <tuple>
 
+#include "run/catchment_run.hpp"
+
 namespace rimline::run {
 namespace {
 
@@ -127,7 +129,10 @@ CheckRun run_check(const io::Project& project, const RunOptions& options) {
   flow_opt.friction = project.methods.friction;
   flow_opt.default_inflow_m3_s = project.default_inflow_m3_s.value_or(0.0);
   stage("design flows");
-  run.flows = flows::design_flows(run.read.network, run.topology, flow_opt, run.data_findings);
+  if (project.flow_mode == io::FlowMode::rational || project.flow_mode == io::FlowMode::sanitary)
+    run.flows = catchment_design_flows(project, flow_opt.split, run);
+  else
+    run.flows = flows::design_flows(run.read.network, run.topology, flow_opt, run.data_findings);
 
   std::vector<double> levels = options.tailwater_levels_m.empty() ? project.tailwater_levels_m : options.tailwater_levels_m;
   if (levels.empty()) levels.push_back(nan);  // outfall fields or free outfalls decide
