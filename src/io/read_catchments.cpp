@@ -179,7 +179,7 @@ class CatchmentReader {
       covered = k.area_m2;
     }
     const double uncovered = std::max(k.area_m2 - covered, 0.0);
-    if (uncovered > 0.001 * k.area_m2) {
+    if (covered > 0.0 && uncovered > 0.01 * k.area_m2) {  // partly covered: say what the rest took
       if (!own_c_known_) {
         who.add("DATA_MISSING", Severity::warning, "",
                 q(uncovered, Dimension::area) + " of the catchment lies outside every land-use polygon and it has no C "

@@ -5,6 +5,7 @@
 #include <map>
 #include <set>
 
+#include "report/design_flows_html.hpp"
 #include "report/html_style.hpp"
 #include "report/sheet_text.hpp"
 #include "rimline/hydraulics/friction.hpp"
@@ -252,10 +253,12 @@ std::string report_html(const run::CheckRun& run, const std::vector<RenderedProf
        "</h1>\n<p class=\"caution\" id=\"caution-top\">" + esc(caution) + "</p></header>\n<main>\n";
   h += "<nav><a href=\"#summary\">Summary</a> <a href=\"#inputs\">Inputs</a> <a href=\"#methods\">Methods</a> "
        "<a href=\"#exceptions\">Exceptions</a> <a href=\"#profiles\">Profiles</a> <a href=\"#data-findings\">Data "
-       "findings</a></nav>\n";
+       "findings</a>" + std::string(run.catchment_flows ? " <a href=\"#design-flows\">Design flows</a>" : "") +
+       "</nav>\n";
   h += summary_section(run, date);
   h += inputs_section(run);
   h += methods_section(run);
+  h += design_flows_section(run);
   h += "<section id=\"exceptions\"><h2>Exception list</h2>\n<p>Design criteria not met, worst case over the "
        "tailwater cases, by severity. A structure warning or error opens to its energy budget down to the "
        "outfall.</p>\n";

@@ -152,7 +152,33 @@ class Writer {
                           "normal_depth", "critical_depth", "surcharged_length", "invert_up", "invert_down"})
       field(l, n, OFTReal);
     field(l, "reversed", OFTInteger);
+    add_design_fields(l);
     return l;
+  }
+
+  // Flows modes "rational" / "sanitary": the design figures behind each pipe's flow.
+  void add_design_fields(OGRLayer* l) {
+    if (!run_.catchment_flows) return;
+    const bool storm = run_.catchment_flows->mode == flows::CatchmentMode::storm;
+    for (const char* n : storm ? std::vector<const char*>{"contributing_area", "runoff_ca", "tc", "travel_time", "intensity"}
+                               : std::vector<const char*>{"contributing_area", "population", "peaking_factor", "infiltration"})
+      field(l, n, OFTReal);
+  }
+
+  void set_design_fields(OGRFeature& f, std::size_t ci) {
+    if (!run_.catchment_flows) return;
+    const auto& d = run_.catchment_flows->pipes[ci];
+    set(f, "contributing_area", d.area_m2, Dimension::area);
+    if (run_.catchment_flows->mode == flows::CatchmentMode::storm) {
+      set(f, "runoff_ca", d.ca_m2, Dimension::area);
+      set(f, "tc", d.tc_s, Dimension::time);
+      set(f, "travel_time", d.travel_time_s, Dimension::time);
+      set(f, "intensity", d.intensity_m_s, Dimension::intensity);
+    } else {
+      f.SetField(ix(f, "population"), d.population);
+      if (std::isfinite(d.peaking_factor)) f.SetField(ix(f, "peaking_factor"), d.peaking_factor);
+      set(f, "infiltration", d.infiltration_m3_s, Dimension::flow);
+    }
   }
 
   // Pipes that could not be solved go to their own layer with the reason, so that every row of
@@ -176,6 +202,7 @@ class Writer {
       set(f, "width", c.section.shape == hydraulics::Shape::box ? c.section.width_m : NAN, Dimension::length);
       set(f, "length", c.length_m, Dimension::length);
       f.SetField(ix(f, "reversed"), c.reversed ? 1 : 0);
+      set_design_fields(f, ci);
       if (!run_.cases.empty()) {
         const auto& cs = run_.cases[run_.envelope_conduit_case[ci]];
         const auto& r = cs.march.conduits[ci];
