@@ -107,6 +107,15 @@ std::string inputs_section(const run::CheckRun& run) {
   return h + "</section>\n";
 }
 
+// Whether a "flows" row of the method table applies to this run's flows mode.
+bool flows_row_in_use(const run::CheckRun& run, std::string_view id) {
+  const auto& p = run.project;
+  if (p.flow_mode == io::FlowMode::rational)
+    return id == "rational" || id == "idf" || id == "travel_velocity" || id == "inlet_time" ||
+           (id == "composite_c" && !p.catchments.land_use.source.empty());
+  return p.flow_mode == io::FlowMode::sanitary && id == "harmon" && !p.sanitary.peaking_constant;
+}
+
 std::string methods_section(const run::CheckRun& run) {
   const auto sys = run.report_units;
   const std::string friction(hydraulics::friction_law_name(run.project.methods.friction));
@@ -130,6 +139,7 @@ std::string methods_section(const run::CheckRun& run) {
     if (m.group == "friction") here = m.id == friction ? "<span class=\"used\">in use</span>" : "";
     else if (m.group == "structure loss") here = m.id == loss ? "<span class=\"used\">in use</span>" : "";
     else if (m.group == "profile") here = "<span class=\"used\">in use</span>";
+    else if (m.group == "flows") here = flows_row_in_use(run, m.id) ? "<span class=\"used\">in use</span>" : "";
     else if (auto it = criterion_value.find(std::string(m.id)); it != criterion_value.end())
       here = "<span class=\"used\">" + esc(it->second) + "</span>";
     h += row({esc(m.group), esc(m.name) + " <code>" + esc(m.id) + "</code>", esc(m.description), here, esc(m.source)});
