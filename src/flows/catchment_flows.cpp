@@ -67,8 +67,10 @@ CatchmentFlows along_tree(const model::Network& net, const topology::Topology& t
 
 std::vector<LocalInflow> local_inflows(const model::Network& network, const std::vector<model::Catchment>& catchments) {
   std::vector<LocalInflow> local(network.structures.size());
-  for (std::size_t s = 0; s < network.structures.size(); ++s)
+  for (std::size_t s = 0; s < network.structures.size(); ++s) {
     local[s].inflow_m3_s = network.structures[s].inflow_m3_s.value_or(0.0);
+    local[s].population = network.structures[s].population.value_or(0.0);
+  }
   for (const auto& k : catchments) {
     if (k.structure >= local.size()) continue;
     LocalInflow& l = local[k.structure];

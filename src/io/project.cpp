@@ -175,6 +175,7 @@ void read_structures(TomlSection s, Project& p) {
   sf.id = f.string("id").value_or("");
   sf.type = f.string("type").value_or("");
   sf.loss_k = f.string("loss_k").value_or("");
+  sf.population = f.string("population").value_or("");
   for (auto [key, dst] : {std::pair<std::string_view, FieldRef*>{"rim", &sf.rim},
                           {"invert", &sf.invert},
                           {"diameter", &sf.diameter},

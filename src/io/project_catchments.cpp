@@ -159,12 +159,15 @@ void read_catchment_sections(CatchmentSections s, Project& p,
   read_land_use(s.land_use, p, read_source);
   read_rational(s.rational, p);
   read_sanitary(s.sanitary, p);
-  const bool uses = p.flow_mode == FlowMode::rational || p.flow_mode == FlowMode::sanitary;
-  if (uses && p.catchments.source.source.empty())
+  // Sanitary flows may come from structure populations alone; the Rational Method needs catchments.
+  const bool needs = p.flow_mode == FlowMode::rational ||
+                     (p.flow_mode == FlowMode::sanitary && p.structure_fields.population.empty());
+  if (needs && p.catchments.source.source.empty())
     s.catchments.fail("source", "flows mode \"" + std::string(p.flow_mode == FlowMode::rational ? "rational" : "sanitary") +
                                     "\" needs a [catchments] table with the catchment polygons' source");
-  if (p.flow_mode == FlowMode::sanitary && p.catchments.fields.population.empty())
-    s.catchments.fail("fields", "mode \"sanitary\" needs catchments.fields.population");
+  if (p.flow_mode == FlowMode::sanitary && p.catchments.fields.population.empty() &&
+      p.structure_fields.population.empty())
+    s.catchments.fail("fields", "mode \"sanitary\" needs catchments.fields.population or structures.fields.population");
   if (!p.catchments.land_use.source.empty() && p.catchments.source.source.empty())
     s.land_use.fail("source", "needs a [catchments] layer to intersect with");
 }

@@ -7,6 +7,7 @@
 #include <memory>
 
 #include "io/duplicate_ids.hpp"
+#include "io/read_layers.hpp"
 #include "io/value_checks.hpp"
 
 namespace rimline::io::detail {
@@ -249,13 +250,17 @@ void read_catchments(const Project& project, PolygonLayer catchments, const Poly
                                                         : std::vector<LandUsePolygon>{};
   OGRLayer& layer = *catchments.source.layer;
   GdalErrorCapture capture;
+  GdalMessageSink gdal(LayerRole::catchments, findings);
   layer.ResetReading();
   for (;;) {
     OGRFeatureUniquePtr feature(layer.GetNextFeature());
     if (!feature) break;
     model::Catchment& k = out.emplace_back();
-    if (!reader.read(*feature, polygons, k)) out.pop_back();
+    const bool kept = reader.read(*feature, polygons, k);
+    gdal.take(capture, k.id);
+    if (!kept) out.pop_back();
   }
+  gdal.finish(capture);
   std::vector<IdRef> ids;
   for (const auto& k : out) ids.push_back({k.id, k.fid});
   report_duplicate_ids(ids, LayerRole::catchments, project.catchments.fields.id, "catchments",

@@ -83,7 +83,8 @@ CatchmentFlows storm_along_tree(const model::Network& network, const topology::T
 CatchmentFlows sanitary_along_tree(const model::Network& network, const topology::Topology& topo,
                                    const std::vector<LocalInflow>& local, const SanitaryOptions& options, Split split);
 
-// Local inflows from the catchments (each with its outlet structure set) and the structures' inflows.
+// Local inflows from the catchments (each with its outlet structure set) and the structures' own
+// inflows and populations.
 std::vector<LocalInflow> local_inflows(const model::Network& network, const std::vector<model::Catchment>& catchments);
 
 // Travel time from the pipe's velocity, as stated at the top.

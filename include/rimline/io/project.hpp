@@ -19,7 +19,7 @@
 //               (a pipe's n / ks: its field, else its material's row, else the default; each default
 //                use is counted in ReadResult::defaults_used)
 //   [pipes.shapes]   circular = ["CIRC", "C"], box = ["BOX", "RECT"]      (source values -> shape)
-//   [structures] source, layer; [structures.fields] id, type, loss_k -> "FIELD";
+//   [structures] source, layer; [structures.fields] id, type, loss_k, population -> "FIELD";
 //                rim, invert, diameter, inflow, tailwater -> { field, unit }
 //   [structures.types] outfall = ["OF"], inlet = ["CB"], manhole = ["MH"], junction = [...]
 //   [structures.defaults] diameter = "1.2 m", loss_k = 0.5
@@ -35,8 +35,9 @@
 //               travel_velocity = "normal_depth" | "full_flow"
 //   [rational.idf.10yr] a = 3330, b = "19 min", c = 1.0, intensity_unit = "mm/h"   (i = a / (t + b)^c, t in min)
 //                   or durations = ["5 min", "10 min", ...], intensities = ["180 mm/h", ...] (log-log interpolation)
-//   [sanitary]  per_capita = "300 L/d", peaking = "harmon" | <a number>, infiltration_per_length = "0.1 L/s/km",
-//               infiltration_per_area = "0.2 L/s/ha" (population from catchments.fields.population)
+//   [sanitary]  per_capita = "300 L/d", peaking = "harmon" or peaking_factor = 2.5, infiltration_per_length =
+//               "0.1 L/s/km", infiltration_per_area = "0.2 L/s/ha" (population from catchments.fields.population
+//               and / or structures.fields.population)
 //   [tailwater] mode = "fixed" | "free" | "higher", levels = ["12.4 m", "13.0 m"]
 //   [methods]   friction = "manning" | "darcy_weisbach", structure_loss = "constant_k" | "bend" | "hec22",
 //               water_temperature = "15 C", benching = "flat"|"half"|"full"
@@ -90,6 +91,7 @@ struct PipeDefaults {
 
 struct StructureFields {
   std::string id, type, loss_k;
+  std::string population;  // persons served at the structure (flows mode "sanitary")
   FieldRef rim, invert, diameter, inflow, tailwater;
 };
 

@@ -207,5 +207,14 @@ TEST_CASE("badinput catchments: sanitary mode accumulates population and infiltr
 TEST_CASE("badinput catchments project: sanitary mode without a population field is an error") {
   std::string project = replace(rational_project(), R"(mode = "rational")", R"(mode = "sanitary")");
   project += "\n[sanitary]\nper_capita = \"300 L/d\"\n";
-  CHECK(parse_error(project) == R"(project.toml: line 42: key catchments.fields: mode "sanitary" needs catchments.fields.population)");
+  CHECK(parse_error(project) == R"(project.toml: line 42: key catchments.fields: mode "sanitary" needs catchments.fields.population or structures.fields.population)");
+}
+
+TEST_CASE("badinput catchments project: sanitary mode on structure populations alone needs no catchments") {
+  std::string project = replace(base_project(), R"(mode = "structure_inflows")", R"(mode = "sanitary")");
+  project = replace(project, "inflow = { field = \"Q_LOCAL\", unit = \"L/s\" }\n",
+                    "inflow = { field = \"Q_LOCAL\", unit = \"L/s\" }\npopulation = \"POP\"\n");
+  CHECK(parse_error(project + "\n[sanitary]\nper_capita = \"250 L/d\"\n").empty());
+  CHECK(parse_error(project) ==
+        R"(project.toml: key sanitary.per_capita: mode "sanitary" needs the average flow per person)");
 }

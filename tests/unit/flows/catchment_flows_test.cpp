@@ -185,3 +185,51 @@ TEST_CASE("catchment outlets: inside, ambiguous, nearest, none, named", "[flows]
   CHECK(count("CATCHMENT_OUTLET") == 1);
   CHECK(flows::distance_to_rings_m(ks[1].rings, {8, 8}) == Approx(12.0));
 }
+
+// Populations at structures add to those of their catchments: A serves 400 persons itself and
+// has a 600-person catchment; B serves 3000. P1 carries 1000, P2 4000 (PF(4) = 20/6, no infiltration):
+//   Q(P2) = 20/6 x 4000 x 300 L/d / 86400 = 46.29630 L/s.
+TEST_CASE("sanitary: structure populations add to catchment populations", "[flows][sanitary]") {
+  test::Tree t;
+  const auto a = t.structure("A");
+  const auto b = t.structure("B");
+  const auto o = t.structure("O", model::StructureKind::outfall);
+  t.pipe("P1", a, b);
+  t.pipe("P2", b, o);
+  t.net.structures[a].population = 400;
+  t.net.structures[b].population = 3000;
+  std::vector<model::Catchment> ks{catchment("KA", 1, 0, 0, a)};
+  ks[0].population = 600;
+  flows::SanitaryOptions opt;
+  opt.per_capita_m3_s = 300.0e-3 / 86400.0;
+  const auto r = flows::sanitary_along_tree(t.net, t.topo, flows::local_inflows(t.net, ks), opt, flows::Split::capacity);
+  CHECK(r.pipes[0].population == 1000.0);
+  CHECK(r.pipes[1].flow_m3_s * 1e3 == Approx(46.29630).epsilon(1e-6));
+}
+
+// A diversion at D with given split fractions 0.3 / 0.7 (Split::field): every accumulated quantity
+// follows the flow. K at A: 1 ha, C 0.6, 10 min -> at P-LOW (0.3): A 0.3 ha, C A 0.18 ha; P-HIGH
+// (0.7): 0.7 ha, 0.42 ha; both keep A's Tc plus P0's travel time (given: 60 s) = 11 min.
+TEST_CASE("a diversion splits area and C A by the flow shares", "[flows][rational]") {
+  test::Tree t;
+  const auto a = t.structure("A", model::StructureKind::inlet);
+  const auto d = t.structure("D");
+  const auto o1 = t.structure("O1", model::StructureKind::outfall);
+  const auto o2 = t.structure("O2", model::StructureKind::outfall);
+  t.pipe("P0", a, d);
+  const auto low = t.pipe("P-LOW", d, o1);
+  const auto high = t.pipe("P-HIGH", d, o2);
+  t.net.conduits[low].split_fraction = 0.3;
+  t.net.conduits[high].split_fraction = 0.7;
+  const std::vector<model::Catchment> ks{catchment("K", 1.0, 0.6, 10, a)};
+  Findings findings;
+  const auto r = flows::storm_along_tree(
+      t.net, t.topo, flows::local_inflows(t.net, ks), formula_3330_19(),
+      [](std::size_t, double, flows::PipeDesign&) { return 60.0; }, flows::Split::field, findings);
+  CHECK(r.pipes[low].area_m2 == Approx(3000.0));
+  CHECK(r.pipes[low].ca_m2 == Approx(1800.0));
+  CHECK(r.pipes[high].ca_m2 == Approx(4200.0));
+  CHECK(r.pipes[high].tc_s == Approx(660.0));
+  CHECK(r.pipes[low].flow_m3_s + r.pipes[high].flow_m3_s ==
+        Approx(flows::idf_intensity(formula_3330_19(), 660.0).intensity_m_s * 6000.0));
+}
