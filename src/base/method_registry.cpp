@@ -28,20 +28,24 @@ constexpr std::array<MethodRow, 19> rows{{
      "Q = C i A at each pipe for the C A upstream and i at its time of concentration Tc = longest (inlet time + travel "
      "time through the pipes between); SI inside, so no unit constant (1/360 for mm/h and ha to m3/s, 1.008 for in/h "
      "and acres to cfs)",
-     "Kuichling (1889; citation from memory); checked against Fair, Geyer and Okun's Water and Wastewater Engineering (Shammas & Wang, 2011), "
+     "Kuichling (1889; citation from memory); checked against Fair, Geyer and Okun's Water and Wastewater Engineering "
+     "(Shammas & Wang, 2011), "
      "Example 11.9, and Ponce, Engineering Hydrology (1989), Table 4-2"},
-    {"flows", "idf", "IDF relation", "i = a / (t + b)^c (t, b in min) for the chosen return period, or a table of "
-                                     "durations interpolated log-log (extended beyond it with a finding)",
+    {"flows", "idf", "IDF relation",
+     "i = a / (t + b)^c (t, b in min) for the chosen return period, or a table of "
+     "durations interpolated log-log (extended beyond it with a finding)",
      "common practice (the form of Fair, Geyer and Okun, Example 11.9); the constants are the project's"},
     {"flows", "travel_velocity", "Pipe travel time for Tc",
      "length / velocity at normal depth for the pipe's own design flow (known before any pipe downstream needs it, so "
-     "no iteration with the march); full-flow velocity by option or where normal depth does not exist; 0 without a slope",
+     "no iteration with the march); full-flow velocity by option or where normal depth does not exist; 0 without a "
+     "slope",
      "common practice, no source"},
     {"flows", "inlet_time", "Default inlet time", "10 min where a catchment gives none ([catchments.defaults])",
      "common practice, no source (agency manuals use 5-15 min)"},
     {"flows", "composite_c", "Composite runoff coefficient",
      "area-weighted C of the land-use polygons a catchment overlaps (polygon intersection); the uncovered part keeps "
-     "the catchment's own C", "common practice, no source"},
+     "the catchment's own C",
+     "common practice, no source"},
     {"flows", "harmon", "Sanitary peak flow, Harmon peaking factor",
      "Q = PF q P + infiltration per length of pipe or per area; PF = 1 + 14 / (4 + sqrt(P)), P in thousands",
      "Harmon (1918); as (18 + sqrt P) / (4 + sqrt P) in Recommended Standards for Wastewater Facilities (Ten States "

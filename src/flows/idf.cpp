@@ -27,8 +27,7 @@ IdfValue idf_intensity(const model::IdfCurve& idf, double duration_s) {
 std::string idf_description(const model::IdfCurve& idf) {
   std::ostringstream o;
   if (idf.kind == model::IdfCurve::Kind::formula) {
-    o << "i = " << idf.a << " / (t + " << idf.b_min << " min)^" << idf.c << " " << idf.intensity_unit
-      << ", t in min";
+    o << "i = " << idf.a << " / (t + " << idf.b_min << " min)^" << idf.c << " " << idf.intensity_unit << ", t in min";
   } else {
     o << "table of " << idf.durations_s.size() << " durations from " << idf.durations_s.front() / 60.0 << " to "
       << idf.durations_s.back() / 60.0 << " min, interpolated log-log";

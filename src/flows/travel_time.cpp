@@ -21,7 +21,8 @@ TravelTimeFn velocity_travel_time(const model::Network& network, TravelVelocity 
   return [&network, velocity, &findings](std::size_t ci, double flow_m3_s, PipeDesign& p) -> double {
     const auto& c = network.conduits[ci];
     if (!(c.invert_up_m && c.invert_down_m && c.length_m > 0.0)) {
-      note(findings, c, "no slope without both inverts; its travel time is taken as 0 (a shorter Tc, a higher intensity).");
+      note(findings, c,
+           "no slope without both inverts; its travel time is taken as 0 (a shorter Tc, a higher intensity).");
       return 0.0;
     }
     const double slope = (*c.invert_up_m - *c.invert_down_m) / c.length_m;
@@ -36,8 +37,9 @@ TravelTimeFn velocity_travel_time(const model::Network& network, TravelVelocity 
         if (y.exists && y.converged) {
           v = flow_m3_s / hydraulics::geometry_at(c.section, y.depth_m).area_m2;
         } else {
-          note(findings, c, "no normal depth for " + q(flow_m3_s, units::Dimension::flow) +
-                                " (above the partly-full peak); the full-flow velocity gives its travel time.");
+          note(findings, c,
+               "no normal depth for " + q(flow_m3_s, units::Dimension::flow) +
+                   " (above the partly-full peak); the full-flow velocity gives its travel time.");
         }
       }
       if (!(v > 0.0)) v = hydraulics::full_velocity_m_s(c.roughness, c.section, slope);

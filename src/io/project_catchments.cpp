@@ -114,7 +114,8 @@ void read_rational(TomlSection s, Project& p) {
   s.finish();
   if (!s.present() && !needed) return;
   if (labels.empty()) {
-    if (needed) s.fail("idf", "mode \"rational\" needs an IDF relation, e.g. [rational.idf.10yr] a, b, c, intensity_unit");
+    if (needed)
+      s.fail("idf", "mode \"rational\" needs an IDF relation, e.g. [rational.idf.10yr] a, b, c, intensity_unit");
     return;
   }
   if (!period && labels.size() > 1)
@@ -128,7 +129,8 @@ void read_rational(TomlSection s, Project& p) {
   TomlSection curve(chosen->as_table(), curves.name() + "." + chosen_label, p.file);
   p.rational.idf = read_idf(curve, chosen_label, p.file);
   for (const auto& [label, node] : curves.entries())  // the others are checked too: a typo is an error either way
-    if (label != chosen_label) read_idf(TomlSection(node->as_table(), curves.name() + "." + label, p.file), label, p.file);
+    if (label != chosen_label)
+      read_idf(TomlSection(node->as_table(), curves.name() + "." + label, p.file), label, p.file);
 }
 
 void read_sanitary(TomlSection s, Project& p) {
@@ -137,18 +139,20 @@ void read_sanitary(TomlSection s, Project& p) {
   if (q && !(*q > 0.0)) s.fail("per_capita", "must be greater than 0");
   z.per_capita_m3_s = q.value_or(0.0);
   const auto peaking = s.string("peaking");
-  if (peaking && *peaking != "harmon") s.fail("peaking", "\"" + *peaking + "\" is not \"harmon\" (or give peaking_factor = <number>)");
+  if (peaking && *peaking != "harmon")
+    s.fail("peaking", "\"" + *peaking + "\" is not \"harmon\" (or give peaking_factor = <number>)");
   z.peaking_constant = s.number("peaking_factor");
   if (z.peaking_constant && peaking) s.fail("peaking_factor", "cannot be used together with peaking = \"harmon\"");
   if (z.peaking_constant && !(*z.peaking_constant >= 1.0)) s.fail("peaking_factor", "must be at least 1");
   z.infiltration_per_length_m3_s_m = s.quantity("infiltration_per_length", Dimension::flow_per_length);
   z.infiltration_per_area_m3_s_m2 = s.quantity("infiltration_per_area", Dimension::flow_per_area);
-  for (auto [key, v] : {std::pair<std::string_view, std::optional<double>>{"infiltration_per_length",
-                                                                         z.infiltration_per_length_m3_s_m},
-                        {"infiltration_per_area", z.infiltration_per_area_m3_s_m2}})
+  for (auto [key, v] :
+       {std::pair<std::string_view, std::optional<double>>{"infiltration_per_length", z.infiltration_per_length_m3_s_m},
+        {"infiltration_per_area", z.infiltration_per_area_m3_s_m2}})
     if (v && !(*v >= 0.0)) s.fail(key, "must not be negative");
   s.finish();
-  if (p.flow_mode == FlowMode::sanitary && !q) s.fail("per_capita", "mode \"sanitary\" needs the average flow per person");
+  if (p.flow_mode == FlowMode::sanitary && !q)
+    s.fail("per_capita", "mode \"sanitary\" needs the average flow per person");
 }
 
 }  // namespace
@@ -160,10 +164,11 @@ void read_catchment_sections(CatchmentSections s, Project& p,
   read_rational(s.rational, p);
   read_sanitary(s.sanitary, p);
   // Sanitary flows may come from structure populations alone; the Rational Method needs catchments.
-  const bool needs = p.flow_mode == FlowMode::rational ||
-                     (p.flow_mode == FlowMode::sanitary && p.structure_fields.population.empty());
+  const bool needs =
+      p.flow_mode == FlowMode::rational || (p.flow_mode == FlowMode::sanitary && p.structure_fields.population.empty());
   if (needs && p.catchments.source.source.empty())
-    s.catchments.fail("source", "flows mode \"" + std::string(p.flow_mode == FlowMode::rational ? "rational" : "sanitary") +
+    s.catchments.fail("source", "flows mode \"" +
+                                    std::string(p.flow_mode == FlowMode::rational ? "rational" : "sanitary") +
                                     "\" needs a [catchments] table with the catchment polygons' source");
   if (p.flow_mode == FlowMode::sanitary && p.catchments.fields.population.empty() &&
       p.structure_fields.population.empty())

@@ -12,6 +12,7 @@ struct CatchmentSections {
 
 // Reads the sections into `p` (after [flows]: what is required depends on p.flow_mode).
 // `resolve` turns a source as written into a path relative to the project file.
-void read_catchment_sections(CatchmentSections s, Project& p, LayerSource (*read_source)(TomlSection&, const std::string&));
+void read_catchment_sections(CatchmentSections s, Project& p,
+                             LayerSource (*read_source)(TomlSection&, const std::string&));
 
 }  // namespace rimline::io::detail

@@ -136,15 +136,17 @@ class CatchmentReader {
     if (c_ >= 0) {
       const RawNumber raw = read_number(feature, c_);
       if (raw.state == RawNumber::State::null)
-        who.add("DATA_MISSING", fallback ? Severity::info : Severity::error, f_.runoff_c, f_.runoff_c + " is empty; " + use + ".");
+        who.add("DATA_MISSING", fallback ? Severity::info : Severity::error, f_.runoff_c,
+                f_.runoff_c + " is empty; " + use + ".");
       else if (const auto v = checked_number(raw, f_.runoff_c, use, who); v && !(*v >= 0.0 && *v <= 1.0))
         who.add("DATA_IMPLAUSIBLE", fallback ? Severity::warning : Severity::error, f_.runoff_c,
                 f_.runoff_c + " " + format_number(*v) + " is outside 0 to 1; " + use + ".", *v, *v < 0.0 ? 0.0 : 1.0);
       else
         c = v;
     } else if (!fallback && p_.catchments.land_use.source.empty()) {
-      who.add("DATA_MISSING", Severity::error, "", "No runoff coefficient: map catchments.fields.runoff_c or set "
-                                                   "[catchments.defaults] runoff_c; the catchment is left out.");
+      who.add("DATA_MISSING", Severity::error, "",
+              "No runoff coefficient: map catchments.fields.runoff_c or set "
+              "[catchments.defaults] runoff_c; the catchment is left out.");
     }
     if (!c) c = fallback;
     if (!c && p_.catchments.land_use.source.empty()) return false;
@@ -166,9 +168,12 @@ class CatchmentReader {
       if (!overlap || overlap->IsEmpty()) continue;
       const auto t = wkbFlatten(overlap->getGeometryType());
       double a = 0.0;
-      if (t == wkbPolygon) a = overlap->toPolygon()->get_Area();
-      else if (t == wkbMultiPolygon) a = overlap->toMultiPolygon()->get_Area();
-      else if (t == wkbGeometryCollection) a = overlap->toGeometryCollection()->get_Area();
+      if (t == wkbPolygon)
+        a = overlap->toPolygon()->get_Area();
+      else if (t == wkbMultiPolygon)
+        a = overlap->toMultiPolygon()->get_Area();
+      else if (t == wkbGeometryCollection)
+        a = overlap->toGeometryCollection()->get_Area();
       covered += a * scale2;
       ca += l.runoff_c * a * scale2;
     }
@@ -183,11 +188,13 @@ class CatchmentReader {
     if (covered > 0.0 && uncovered > 0.01 * k.area_m2) {  // partly covered: say what the rest took
       if (!own_c_known_) {
         who.add("DATA_MISSING", Severity::warning, "",
-                q(uncovered, Dimension::area) + " of the catchment lies outside every land-use polygon and it has no C "
+                q(uncovered, Dimension::area) +
+                    " of the catchment lies outside every land-use polygon and it has no C "
                     "of its own; that part is taken as C 0.");
       } else {
         who.add("DATA_MISSING", Severity::info, "",
-                q(uncovered, Dimension::area) + " of the catchment lies outside every land-use polygon; that part takes C " +
+                q(uncovered, Dimension::area) +
+                    " of the catchment lies outside every land-use polygon; that part takes C " +
                     format_number(k.runoff_c) + ".");
       }
     }
@@ -246,8 +253,8 @@ class CatchmentReader {
 void read_catchments(const Project& project, PolygonLayer catchments, const PolygonLayer* land_use,
                      std::vector<model::Catchment>& out, Findings& findings) {
   CatchmentReader reader(project, catchments, findings);
-  const std::vector<LandUsePolygon> polygons = land_use ? read_land_use(project, *land_use, findings)
-                                                        : std::vector<LandUsePolygon>{};
+  const std::vector<LandUsePolygon> polygons =
+      land_use ? read_land_use(project, *land_use, findings) : std::vector<LandUsePolygon>{};
   OGRLayer& layer = *catchments.source.layer;
   GdalErrorCapture capture;
   GdalMessageSink gdal(LayerRole::catchments, findings);

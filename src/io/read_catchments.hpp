@@ -7,9 +7,9 @@
 #include "io/gdal_source.hpp"
 #include "io/line_geometry.hpp"
 #include "io/run_crs.hpp"
-#include "rimline/io/read_network.hpp"
 #include "rimline/finding.hpp"
 #include "rimline/io/project.hpp"
+#include "rimline/io/read_network.hpp"
 #include "rimline/model/catchment.hpp"
 
 namespace rimline::io::detail {

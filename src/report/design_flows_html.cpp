@@ -45,8 +45,8 @@ std::string design_flows_section(const run::CheckRun& run) {
        " in all. Figures at each pipe's upstream end, in upstream-first order of the network.</p>\n";
   h += "<table class=\"grid\">\n<tr><th>Pipe</th>" + head("Area", Dimension::area, sys);
   if (storm)
-    h += head("C A", Dimension::area, sys) + head("Tc", Dimension::time, sys) + head("Travel time", Dimension::time, sys) +
-         head("Intensity", Dimension::intensity, sys);
+    h += head("C A", Dimension::area, sys) + head("Tc", Dimension::time, sys) +
+         head("Travel time", Dimension::time, sys) + head("Intensity", Dimension::intensity, sys);
   else
     h += "<th>Population</th><th>Peaking factor</th>" + head("Infiltration", Dimension::flow, sys);
   h += head("Q", Dimension::flow, sys) + "</tr>\n";
@@ -55,7 +55,8 @@ std::string design_flows_section(const run::CheckRun& run) {
     h += "<tr><td>" + xml_escape(net.conduits[ci].id) + "</td>" + cell(p.area_m2, Dimension::area, sys);
     if (storm)
       h += cell(p.ca_m2, Dimension::area, sys) + cell(p.tc_s, Dimension::time, sys, "%.2f") +
-           cell(p.travel_time_s, Dimension::time, sys, "%.2f") + cell(p.intensity_m_s, Dimension::intensity, sys, "%.2f");
+           cell(p.travel_time_s, Dimension::time, sys, "%.2f") +
+           cell(p.intensity_m_s, Dimension::intensity, sys, "%.2f");
     else
       h += cell(p.population, Dimension::dimensionless, sys, "%.0f") +
            cell(p.peaking_factor, Dimension::dimensionless, sys, "%.3f") +

@@ -17,7 +17,8 @@ flows::DesignFlows catchment_design_flows(const io::Project& project, flows::Spl
     const auto velocity =
         project.rational.full_flow_velocity ? flows::TravelVelocity::full_flow : flows::TravelVelocity::normal_depth;
     cf = flows::storm_along_tree(net, run.topology, local, project.rational.idf,
-                                 flows::velocity_travel_time(net, velocity, run.data_findings), split, run.data_findings);
+                                 flows::velocity_travel_time(net, velocity, run.data_findings), split,
+                                 run.data_findings);
     cf.method = "Rational Method Q = C i A along the network; IDF " + flows::idf_description(project.rational.idf) +
                 "; pipe travel time from the " +
                 (velocity == flows::TravelVelocity::full_flow ? "full-flow velocity"
@@ -31,7 +32,8 @@ flows::DesignFlows catchment_design_flows(const io::Project& project, flows::Spl
     o.infiltration_per_area_m3_s_m2 = project.sanitary.infiltration_per_area_m3_s_m2;
     cf = flows::sanitary_along_tree(net, run.topology, local, o, split);
     char per_capita[64];
-    std::snprintf(per_capita, sizeof per_capita, "%.4g L/d (%.4g gpd)", units::from_si(o.per_capita_m3_s, units::Unit::l_d),
+    std::snprintf(per_capita, sizeof per_capita, "%.4g L/d (%.4g gpd)",
+                  units::from_si(o.per_capita_m3_s, units::Unit::l_d),
                   units::from_si(o.per_capita_m3_s, units::Unit::gpd));
     cf.method = "Sanitary peak flow Q = PF q P + infiltration; q = " + std::string(per_capita) + " per person; PF " +
                 (o.peaking == flows::Peaking::harmon ? std::string("Harmon 1 + 14/(4 + sqrt(P/1000))")

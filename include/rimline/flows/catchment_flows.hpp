@@ -52,11 +52,11 @@ struct LocalInflow {
 };
 
 struct PipeDesign {
-  double area_m2 = 0.0;       // contributing area
-  double ca_m2 = 0.0;         // sum of C A
+  double area_m2 = 0.0;                                    // contributing area
+  double ca_m2 = 0.0;                                      // sum of C A
   double tc_s = std::numeric_limits<double>::quiet_NaN();  // at the pipe's upstream end
   double intensity_m_s = std::numeric_limits<double>::quiet_NaN();
-  double travel_time_s = 0.0; // through this pipe
+  double travel_time_s = 0.0;  // through this pipe
   double travel_velocity_m_s = std::numeric_limits<double>::quiet_NaN();
   double population = 0.0;
   double peaking_factor = std::numeric_limits<double>::quiet_NaN();

@@ -22,7 +22,7 @@ void assign_outlets(const model::Network& network, const topology::Topology& top
                     std::vector<model::Catchment>& catchments, double search_m, Findings& findings);
 
 // Plan geometry helpers (run CRS, metres), exposed for the tests.
-bool inside_rings(const std::vector<std::vector<model::Point2>>& rings, model::Point2 p);  // even-odd rule
+bool inside_rings(const std::vector<std::vector<model::Point2>>& rings, model::Point2 p);           // even-odd rule
 double distance_to_rings_m(const std::vector<std::vector<model::Point2>>& rings, model::Point2 p);  // 0 inside
 
 }  // namespace rimline::flows

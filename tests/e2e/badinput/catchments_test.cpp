@@ -19,7 +19,8 @@ std::string square(const std::string& props, double x, double y, double size) {
 
 std::string props(const std::string& id, const std::string& c = "0.6", const std::string& inlet = "10",
                   const std::string& outlet = "null") {
-  return R"("CATCH_ID":")" + id + R"(","RUNOFF_C":)" + c + R"(,"INLET_MIN":)" + inlet + R"(,"OUTLET":)" + outlet + R"(,"POP":500)";
+  return R"("CATCH_ID":")" + id + R"(","RUNOFF_C":)" + c + R"(,"INLET_MIN":)" + inlet + R"(,"OUTLET":)" + outlet +
+         R"(,"POP":500)";
 }
 
 // Catchments around M3, M4 and M2 (20 m squares).
@@ -51,7 +52,8 @@ intensity_unit = "mm/h"
 )" + extra;
 }
 
-run::CheckRun run_with(Case& c, const std::vector<std::string>& catchments, const std::string& project = rational_project()) {
+run::CheckRun run_with(Case& c, const std::vector<std::string>& catchments,
+                       const std::string& project = rational_project()) {
   c.write_network(base_pipes(), base_structures(), project);
   c.write("catchments.geojson", collection(catchments));
   return c.run();
@@ -86,11 +88,14 @@ TEST_CASE("badinput catchments: null, point and zero-area geometry leave the cat
   auto ks = base_catchments();
   ks.push_back(feature(props("KN"), "null"));
   ks.push_back(feature(props("KP"), R"({"type":"Point","coordinates":[452250,5385200]})"));
-  ks.push_back(feature(props("KZ"), R"({"type":"Polygon","coordinates":[[[452250,5385200],[452260,5385200],[452270,5385200],[452250,5385200]]]})"));
+  ks.push_back(feature(
+      props("KZ"),
+      R"({"type":"Polygon","coordinates":[[[452250,5385200],[452260,5385200],[452270,5385200],[452250,5385200]]]})"));
   const auto r = run_with(c, ks);
   INFO(dump(r));
   CHECK(message(find(r, "DATA_GEOMETRY", "KN")) == "The catchment has no geometry; it is left out.");
-  CHECK(message(find(r, "DATA_GEOMETRY", "KP")) == "The geometry is a POINT, not a polygon; the catchment is left out.");
+  CHECK(message(find(r, "DATA_GEOMETRY", "KP")) ==
+        "The geometry is a POINT, not a polygon; the catchment is left out.");
   CHECK(message(find(r, "DATA_GEOMETRY", "KZ")) == "The polygon has no area; the catchment is left out.");
   CHECK(find(r, "DATA_GEOMETRY", "KZ")->layer == LayerRole::catchments);
   CHECK(r.catchments.size() == 3);
@@ -118,8 +123,9 @@ TEST_CASE("badinput catchments: an unknown outlet id falls back to the structure
   ks[0] = square(props("K3", "0.6", "10", R"("M9")"), ox - 150, oy, 20);
   const auto r = run_with(c, ks);
   INFO(dump(r));
-  CHECK(message(find(r, "CATCHMENT_OUTLET", "K3", "structure")) ==
-        R"(catchment K3 names structure "M9", which is not in the network; the structure inside or nearest the catchment is used instead.)");
+  CHECK(
+      message(find(r, "CATCHMENT_OUTLET", "K3", "structure")) ==
+      R"(catchment K3 names structure "M9", which is not in the network; the structure inside or nearest the catchment is used instead.)");
   CHECK(r.read.network.structures[r.catchments[catchment(r, "K3")].structure].id == "M3");
 }
 
@@ -139,9 +145,13 @@ TEST_CASE("badinput catchments: a catchment far from every structure contributes
 // C = (0.9 x 200 + 0.6 x 200) / 400 = 0.75; K4 lies outside it and keeps 0.6 without a finding.
 TEST_CASE("badinput catchments: land-use polygons give an area-weighted C, the uncovered part keeps its own") {
   Case c("catchments_land_use");
-  c.write("land_use.geojson",
-          collection({feature(R"("C":0.9)", R"({"type":"Polygon","coordinates":[[[452150,5385180],[452200,5385180],[452200,5385220],[452150,5385220],[452150,5385180]]]})")}));
-  const auto r = run_with(c, base_catchments(), rational_project("\n[land_use]\nsource = \"land_use.geojson\"\nrunoff_c = \"C\"\n"));
+  c.write(
+      "land_use.geojson",
+      collection({feature(
+          R"("C":0.9)",
+          R"({"type":"Polygon","coordinates":[[[452150,5385180],[452200,5385180],[452200,5385220],[452150,5385220],[452150,5385180]]]})")}));
+  const auto r = run_with(c, base_catchments(),
+                          rational_project("\n[land_use]\nsource = \"land_use.geojson\"\nrunoff_c = \"C\"\n"));
   INFO(dump(r));
   CHECK(r.catchments[catchment(r, "K3")].runoff_c == Approx(0.75).epsilon(1e-9));
   CHECK(r.catchments[catchment(r, "K2")].runoff_c == Approx(0.75).epsilon(1e-9));
@@ -154,8 +164,9 @@ TEST_CASE("badinput catchments: land-use polygons give an area-weighted C, the u
 TEST_CASE("badinput catchments project: mode rational without [catchments] is an error") {
   const std::string toml = replace(base_project(), R"(mode = "structure_inflows")", R"(mode = "rational")") +
                            "\n[rational.idf.t10]\na = 1500\nb = \"10 min\"\nintensity_unit = \"mm/h\"\n";
-  CHECK(parse_error(toml) ==
-        R"(project.toml: key catchments.source: flows mode "rational" needs a [catchments] table with the catchment polygons' source)");
+  CHECK(
+      parse_error(toml) ==
+      R"(project.toml: key catchments.source: flows mode "rational" needs a [catchments] table with the catchment polygons' source)");
 }
 
 TEST_CASE("badinput catchments project: an IDF without its intensity unit is an error naming the key") {
@@ -164,19 +175,22 @@ TEST_CASE("badinput catchments project: an IDF without its intensity unit is an 
 }
 
 TEST_CASE("badinput catchments project: an IDF giving both the formula and a table is an error") {
-  CHECK(parse_error(replace(rational_project(), "c = 0.8\n", "c = 0.8\ndurations = [\"5 min\", \"10 min\"]\n")) ==
-        R"(project.toml: line 56: key rational.idf.t10.durations: give either the formula (a, b, c, intensity_unit) or the table (durations, intensities), not both)");
+  CHECK(
+      parse_error(replace(rational_project(), "c = 0.8\n", "c = 0.8\ndurations = [\"5 min\", \"10 min\"]\n")) ==
+      R"(project.toml: line 56: key rational.idf.t10.durations: give either the formula (a, b, c, intensity_unit) or the table (durations, intensities), not both)");
 }
 
 TEST_CASE("badinput catchments project: an IDF table out of order is an error") {
   const std::string table = "durations = [\"10 min\", \"5 min\"]\nintensities = [\"100 mm/h\", \"140 mm/h\"]\n";
-  CHECK(parse_error(replace(rational_project(), "a = 1500\nb = \"10 min\"\nc = 0.8\nintensity_unit = \"mm/h\"\n", table)) ==
+  CHECK(parse_error(
+            replace(rational_project(), "a = 1500\nb = \"10 min\"\nc = 0.8\nintensity_unit = \"mm/h\"\n", table)) ==
         R"(project.toml: line 53: key rational.idf.t10.durations: must be greater than 0 and increasing)");
 }
 
 TEST_CASE("badinput catchments project: an unknown return period is an error with a did-you-mean") {
-  CHECK(parse_error(rational_project("\n[rational]\nreturn_period = \"t1O\"\n")) ==
-        R"(project.toml: line 59: key rational.return_period: "t1O" is not a key of [rational.idf]; did you mean "t10"?)");
+  CHECK(
+      parse_error(rational_project("\n[rational]\nreturn_period = \"t1O\"\n")) ==
+      R"(project.toml: line 59: key rational.return_period: "t1O" is not a key of [rational.idf]; did you mean "t10"?)");
 }
 
 TEST_CASE("badinput catchments project: a default C above 1 is an error naming the key") {
@@ -207,7 +221,9 @@ TEST_CASE("badinput catchments: sanitary mode accumulates population and infiltr
 TEST_CASE("badinput catchments project: sanitary mode without a population field is an error") {
   std::string project = replace(rational_project(), R"(mode = "rational")", R"(mode = "sanitary")");
   project += "\n[sanitary]\nper_capita = \"300 L/d\"\n";
-  CHECK(parse_error(project) == R"(project.toml: line 42: key catchments.fields: mode "sanitary" needs catchments.fields.population or structures.fields.population)");
+  CHECK(
+      parse_error(project) ==
+      R"(project.toml: line 42: key catchments.fields: mode "sanitary" needs catchments.fields.population or structures.fields.population)");
 }
 
 TEST_CASE("badinput catchments project: sanitary mode on structure populations alone needs no catchments") {

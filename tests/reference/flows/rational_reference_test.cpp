@@ -62,16 +62,17 @@ TEST_CASE("Rational Method: FGO Water and Wastewater Engineering Example 11.9", 
 TEST_CASE("Rational Method: Ponce Engineering Hydrology Table 4-2 branched storm sewer", "[reference][rational]") {
   test::Tree t;
   std::map<std::string, std::size_t> mh;
-  for (const char* id : {"1-6", "1-5", "1-4", "3-2", "3-1", "1-3", "2-1", "1-2", "1-1", "OUT"}) mh[id] = t.structure(id);
+  for (const char* id : {"1-6", "1-5", "1-4", "3-2", "3-1", "1-3", "2-1", "1-2", "1-1", "OUT"})
+    mh[id] = t.structure(id);
   struct Line {
     const char* from;
     const char* to;
-    double flow_time_min;   // column 8
-    double area_inc_acre;   // column 5
-    double c_average;       // column 9, C of the total area at this line
-    double total_area_acre; // column 6
-    double tc_min;          // column 7
-    double runoff_cfs;      // column 12
+    double flow_time_min;    // column 8
+    double area_inc_acre;    // column 5
+    double c_average;        // column 9, C of the total area at this line
+    double total_area_acre;  // column 6
+    double tc_min;           // column 7
+    double runoff_cfs;       // column 12
   };
   const std::vector<Line> lines{
       {"1-6", "1-5", 1.4, 2.64, 0.30, 2.64, 20.0, 2.93},   {"1-5", "1-4", 1.2, 3.61, 0.30, 6.25, 21.4, 6.75},

@@ -1,8 +1,9 @@
 // Catchment flows on small trees, computed by hand in the comments.
+#include "rimline/flows/catchment_flows.hpp"
+
 #include <catch2/catch.hpp>
 #include <cmath>
 
-#include "rimline/flows/catchment_flows.hpp"
 #include "rimline/flows/catchment_outlets.hpp"
 #include "rimline/flows/idf.hpp"
 #include "tree_fixture.hpp"
@@ -80,7 +81,8 @@ TEST_CASE("normal-depth travel velocity is below full-flow velocity for a part-f
   Findings findings;
   flows::PipeDesign p;
   const double full = 100.0 / 1.79263;
-  const double t_normal = flows::velocity_travel_time(t.net, flows::TravelVelocity::normal_depth, findings)(0, 0.028, p);
+  const double t_normal =
+      flows::velocity_travel_time(t.net, flows::TravelVelocity::normal_depth, findings)(0, 0.028, p);
   CHECK(t_normal > full);
   CHECK(t_normal < 2.0 * full);
 }
@@ -140,7 +142,8 @@ TEST_CASE("sanitary peak flows accumulate population and infiltration", "[flows]
   flows::SanitaryOptions opt;
   opt.per_capita_m3_s = 300.0e-3 / 86400.0;
   opt.infiltration_per_length_m3_s_m = 0.1e-3 / 1000.0;
-  const auto r = flows::sanitary_along_tree(t.net, t.topo, flows::local_inflows(t.net, ks), opt, flows::Split::capacity);
+  const auto r =
+      flows::sanitary_along_tree(t.net, t.topo, flows::local_inflows(t.net, ks), opt, flows::Split::capacity);
   CHECK(r.pipes[0].peaking_factor == Approx(3.8));
   CHECK(r.pipes[0].flow_m3_s * 1e3 == Approx(13.20444).epsilon(1e-6));
   CHECK(r.pipes[1].population == Approx(4000));
@@ -202,7 +205,8 @@ TEST_CASE("sanitary: structure populations add to catchment populations", "[flow
   ks[0].population = 600;
   flows::SanitaryOptions opt;
   opt.per_capita_m3_s = 300.0e-3 / 86400.0;
-  const auto r = flows::sanitary_along_tree(t.net, t.topo, flows::local_inflows(t.net, ks), opt, flows::Split::capacity);
+  const auto r =
+      flows::sanitary_along_tree(t.net, t.topo, flows::local_inflows(t.net, ks), opt, flows::Split::capacity);
   CHECK(r.pipes[0].population == 1000.0);
   CHECK(r.pipes[1].flow_m3_s * 1e3 == Approx(46.29630).epsilon(1e-6));
 }
