@@ -48,6 +48,7 @@ class Writer {
     write_structures();
     write_conduits();
     write_cases();
+    write_catchments();
     if (ds_->CommitTransaction() != OGRERR_NONE)
       throw Error(ErrorKind::bad_config, ErrorContext{path_, "", "", ""}, "cannot be written");
   }
@@ -104,6 +105,39 @@ class Writer {
     if (case_labels_.empty())
       for (const auto& c : run_.cases) case_labels_.push_back(render_message(c.label, sys_));
     return case_labels_[k];
+  }
+
+  // Flows modes "rational" / "sanitary": each catchment with the figures used and its outlet.
+  void write_catchments() {
+    if (!run_.catchment_flows) return;
+    OGRLayer* l = layer("catchments", wkbMultiPolygon);
+    for (const char* n : {"id", "outlet"}) field(l, n, OFTString);
+    for (const char* n : {"area", "runoff_c", "inlet_time", "population"}) field(l, n, OFTReal);
+    for (const auto& k : run_.catchments) {
+      OGRFeature f(l->GetLayerDefn());
+      f.SetField(ix(f, "id"), k.id.c_str());
+      if (k.structure != model::no_index)
+        f.SetField(ix(f, "outlet"), run_.read.network.structures[k.structure].id.c_str());
+      set(f, "area", k.area_m2, Dimension::area);
+      f.SetField(ix(f, "runoff_c"), k.runoff_c);
+      set(f, "inlet_time", k.inlet_time_s, Dimension::time);
+      if (k.population) f.SetField(ix(f, "population"), *k.population);
+      OGRMultiPolygon shape;
+      for (const auto& ring : k.rings) {
+        OGRLinearRing r;
+        for (const auto& v : ring) {
+          double x = v.x, y = v.y;
+          place(x, y);
+          r.addPoint(x, y);
+        }
+        r.closeRings();
+        OGRPolygon poly;
+        poly.addRing(&r);
+        shape.addGeometry(&poly);
+      }
+      if (!shape.IsEmpty()) f.SetGeometry(&shape);
+      add(l, f);
+    }
   }
 
   void write_structures() {

@@ -6,11 +6,24 @@
 #include "rimline/flows/idf.hpp"
 
 namespace rimline::run {
+namespace {
+
+std::string constant_text(double v) {
+  char buf[32];
+  std::snprintf(buf, sizeof buf, "%.4g", v);
+  return buf;
+}
+
+}  // namespace
+
+void assign_catchment_outlets(const io::Project& project, CheckRun& run) {
+  run.catchments = run.read.catchments;
+  flows::assign_outlets(run.read.network, run.topology, run.catchments, project.catchments.outlet_search_m,
+                        run.data_findings);
+}
 
 flows::DesignFlows catchment_design_flows(const io::Project& project, flows::Split split, CheckRun& run) {
   const auto& net = run.read.network;
-  run.catchments = run.read.catchments;
-  flows::assign_outlets(net, run.topology, run.catchments, project.catchments.outlet_search_m, run.data_findings);
   const auto local = flows::local_inflows(net, run.catchments);
   flows::CatchmentFlows cf;
   if (project.flow_mode == io::FlowMode::rational) {
@@ -37,7 +50,7 @@ flows::DesignFlows catchment_design_flows(const io::Project& project, flows::Spl
                   units::from_si(o.per_capita_m3_s, units::Unit::gpd));
     cf.method = "Sanitary peak flow Q = PF q P + infiltration; q = " + std::string(per_capita) + " per person; PF " +
                 (o.peaking == flows::Peaking::harmon ? std::string("Harmon 1 + 14/(4 + sqrt(P/1000))")
-                                                     : "constant " + std::to_string(o.peaking_constant));
+                                                     : "constant " + constant_text(o.peaking_constant));
   }
   run.catchment_flows = cf;
   return cf.flows;

@@ -5,7 +5,11 @@
 
 namespace rimline::run {
 
-// Fills run.catchments and run.catchment_flows; returns the design flows for the march.
+// Fills run.catchments with the catchments read and their outlets (also on a dry run, so its
+// findings show before any march).
+void assign_catchment_outlets(const io::Project& project, CheckRun& run);
+
+// Fills run.catchment_flows (after assign_catchment_outlets); returns the design flows for the march.
 flows::DesignFlows catchment_design_flows(const io::Project& project, flows::Split split, CheckRun& run);
 
 }  // namespace rimline::run

@@ -117,6 +117,9 @@ CheckRun run_check(const io::Project& project, const RunOptions& options) {
   run.criteria = criteria_from(project);
   run.overrides = overrides_from(project);
   run.march_options = march_options_from(project);
+  const bool from_catchments =
+      project.flow_mode == io::FlowMode::rational || project.flow_mode == io::FlowMode::sanitary;
+  if (from_catchments) assign_catchment_outlets(project, run);
   if (options.dry_run) {
     run.findings = run.data_findings;
     sort_findings(run.findings);
@@ -129,7 +132,7 @@ CheckRun run_check(const io::Project& project, const RunOptions& options) {
   flow_opt.friction = project.methods.friction;
   flow_opt.default_inflow_m3_s = project.default_inflow_m3_s.value_or(0.0);
   stage("design flows");
-  if (project.flow_mode == io::FlowMode::rational || project.flow_mode == io::FlowMode::sanitary)
+  if (from_catchments)
     run.flows = catchment_design_flows(project, flow_opt.split, run);
   else
     run.flows = flows::design_flows(run.read.network, run.topology, flow_opt, run.data_findings);

@@ -1,6 +1,9 @@
 // The demo network with design flows from its catchments (Rational Method), both unit systems:
 // outputs contract and energy invariants (../shared/tools/check-outputs), the seeded catchment
 // defects, and a head pipe's figures by hand from the formulas.
+#include <gdal_priv.h>
+#include <ogrsf_frmts.h>
+
 #include <catch2/catch.hpp>
 #include <cmath>
 #include <cstdlib>
@@ -51,6 +54,17 @@ void contract_holds(const run::CheckRun& r, const char* name, bool us) {
   std::stringstream page;
   page << html.rdbuf();
   CHECK(page.str().find("id=\"design-flows\"") != std::string::npos);
+  // The catchments layer: every catchment read, with its outlet; the conduits carry Tc.
+  GDALAllRegister();
+  GDALDatasetUniquePtr ds(
+      GDALDataset::Open((out / "results.gpkg").string().c_str(), GDAL_OF_VECTOR | GDAL_OF_READONLY));
+  REQUIRE(ds);
+  OGRLayer* k = ds->GetLayerByName("catchments");
+  REQUIRE(k != nullptr);
+  CHECK(k->GetFeatureCount() == static_cast<GIntBig>(r.catchments.size()));
+  OGRLayer* c = ds->GetLayerByName("conduits");
+  REQUIRE(c != nullptr);
+  CHECK(c->GetLayerDefn()->GetFieldIndex("tc") >= 0);
 }
 
 }  // namespace
