@@ -5,6 +5,8 @@
 #include <limits>
 #include <unordered_map>
 
+#include "rimline/topology/point_index.hpp"
+
 namespace rimline::flows {
 namespace {
 
@@ -65,6 +67,13 @@ void assign_outlets(const model::Network& network, const topology::Topology& top
   };
   std::unordered_map<std::string, std::size_t> by_id;
   for (std::size_t s = 0; s < ns; ++s) by_id.emplace(network.structures[s].id, s);
+  // Candidates come from a spatial index (GEOS STRtree) of the structures that can take a
+  // catchment: those within the catchment's bounding circle plus search_m.
+  constexpr double none = std::numeric_limits<double>::quiet_NaN();
+  std::vector<model::Point2> points(ns, model::Point2{none, none});
+  for (std::size_t s = 0; s < ns; ++s)
+    if (drains(s)) points[s] = network.structures[s].location;
+  const topology::PointIndex index(points);
 
   for (auto& k : catchments) {
     k.structure = model::no_index;
@@ -82,9 +91,17 @@ void assign_outlets(const model::Network& network, const topology::Topology& top
     std::vector<std::size_t> inside;
     std::size_t nearest = model::no_index;
     double nearest_m = std::numeric_limits<double>::infinity();
-    for (std::size_t s = 0; s < ns; ++s) {
-      if (!drains(s)) continue;
-      const double d = distance_to_rings_m(k.rings, network.structures[s].location);
+    double x0 = std::numeric_limits<double>::infinity(), y0 = x0, x1 = -x0, y1 = -x0;
+    for (const auto& ring : k.rings)
+      for (const auto& v : ring)
+        x0 = std::min(x0, v.x), y0 = std::min(y0, v.y), x1 = std::max(x1, v.x), y1 = std::max(y1, v.y);
+    if (!(x0 <= x1 && y0 <= y1)) x0 = x1 = y0 = y1 = 0.0;
+    const model::Point2 centre{(x0 + x1) / 2, (y0 + y1) / 2};
+    auto boundary = k.rings;  // even-odd over exterior rings and holes: a structure in a hole is outside
+    boundary.insert(boundary.end(), k.holes.begin(), k.holes.end());
+    for (const auto& near : index.within(centre, std::hypot(x1 - x0, y1 - y0) / 2 + search_m)) {
+      const std::size_t s = near.index;
+      const double d = distance_to_rings_m(boundary, network.structures[s].location);
       if (d == 0.0) inside.push_back(s);
       if (d < nearest_m) nearest_m = d, nearest = s;
     }

@@ -21,7 +21,7 @@ struct LandUsePolygon {
   double runoff_c;
 };
 
-// Exterior rings scaled to metres, and the area-weighted centroid of the polygon's parts.
+// Exterior rings and holes scaled to metres, and the area-weighted centroid of the exterior rings.
 void rings_of(const OGRGeometry& g, double scale, model::Catchment& k) {
   double sx = 0.0, sy = 0.0, sa = 0.0;
   auto take = [&](const OGRPolygon& poly) {
@@ -36,6 +36,12 @@ void rings_of(const OGRGeometry& g, double scale, model::Catchment& k) {
       sy += (ring[j].y + ring[i].y) * cross;
     }
     k.rings.push_back(std::move(ring));
+    for (int h = 0; h < poly.getNumInteriorRings(); ++h) {
+      const OGRLinearRing* hole = poly.getInteriorRing(h);
+      std::vector<model::Point2> pts;
+      for (int i = 0; i < hole->getNumPoints(); ++i) pts.push_back({hole->getX(i) * scale, hole->getY(i) * scale});
+      k.holes.push_back(std::move(pts));
+    }
   };
   const auto type = wkbFlatten(g.getGeometryType());
   if (type == wkbPolygon) take(*g.toPolygon());

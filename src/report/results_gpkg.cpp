@@ -10,6 +10,7 @@
 #include <vector>
 
 #include "rimline/error.hpp"
+#include "rimline/flows/catchment_outlets.hpp"
 #include "rimline/hydraulics/section.hpp"
 #include "rimline/report/outputs.hpp"
 #include "rimline/report/report_html.hpp"
@@ -122,17 +123,26 @@ class Writer {
       f.SetField(ix(f, "runoff_c"), k.runoff_c);
       set(f, "inlet_time", k.inlet_time_s, Dimension::time);
       if (k.population) f.SetField(ix(f, "population"), *k.population);
-      OGRMultiPolygon shape;
-      for (const auto& ring : k.rings) {
+      auto ring_of = [this](const std::vector<model::Point2>& pts) {
         OGRLinearRing r;
-        for (const auto& v : ring) {
+        for (const auto& v : pts) {
           double x = v.x, y = v.y;
           place(x, y);
           r.addPoint(x, y);
         }
         r.closeRings();
+        return r;
+      };
+      OGRMultiPolygon shape;
+      for (const auto& ring : k.rings) {
         OGRPolygon poly;
-        poly.addRing(&r);
+        OGRLinearRing outer = ring_of(ring);
+        poly.addRing(&outer);
+        for (const auto& hole : k.holes)  // a hole belongs to the part that holds its first vertex
+          if (!hole.empty() && flows::inside_rings({ring}, hole.front())) {
+            OGRLinearRing inner = ring_of(hole);
+            poly.addRing(&inner);
+          }
         shape.addGeometry(&poly);
       }
       if (!shape.IsEmpty()) f.SetGeometry(&shape);

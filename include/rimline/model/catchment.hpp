@@ -19,7 +19,8 @@ struct Catchment {
   std::optional<double> population;        // persons (sanitary mode)
   std::string structure_id;                // the inlet structure named by a field, "" when not mapped / empty
   std::size_t structure = no_index;        // index into Network::structures, set by flows::assign_outlets
-  std::vector<std::vector<Point2>> rings;  // exterior rings in the run CRS [m], for point-in-polygon
+  std::vector<std::vector<Point2>> rings;  // exterior rings (one per part), run CRS [m]
+  std::vector<std::vector<Point2>> holes;  // interior rings of all parts
   Point2 centroid;                         // [m], run CRS
 };
 

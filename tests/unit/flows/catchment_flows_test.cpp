@@ -237,3 +237,22 @@ TEST_CASE("a diversion splits area and C A by the flow shares", "[flows][rationa
   CHECK(r.pipes[low].flow_m3_s + r.pipes[high].flow_m3_s ==
         Approx(flows::idf_intensity(formula_3330_19(), 660.0).intensity_m_s * 6000.0));
 }
+
+TEST_CASE("catchment outlets: a structure in a hole of the polygon is not inside it", "[flows][catchments]") {
+  test::Tree t;
+  const auto hole = t.structure("IN-HOLE", model::StructureKind::inlet, {5, 5});
+  const auto edge = t.structure("IN-EDGE", model::StructureKind::inlet, {1, 1});
+  const auto o = t.structure("O", model::StructureKind::outfall, {50, 0});
+  t.pipe("P1", hole, o);
+  t.pipe("P2", edge, o);
+  model::Catchment k;
+  k.id = "K";
+  k.rings = {{{0, 0}, {10, 0}, {10, 10}, {0, 10}}};
+  k.holes = {{{3, 3}, {7, 3}, {7, 7}, {3, 7}}};
+  k.centroid = {5, 5};
+  std::vector<model::Catchment> ks{k};
+  Findings f;
+  flows::assign_outlets(t.net, t.topo, ks, 30.0, f);
+  CHECK(ks[0].structure == edge);
+  CHECK(f.empty());
+}
