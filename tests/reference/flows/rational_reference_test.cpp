@@ -6,6 +6,7 @@
 #include "../../unit/flows/tree_fixture.hpp"
 #include "rimline/flows/catchment_flows.hpp"
 #include "rimline/flows/idf.hpp"
+#include "rimline/hydraulics/depth.hpp"
 #include "rimline/units.hpp"
 
 using namespace rimline;
@@ -115,4 +116,41 @@ TEST_CASE("Rational Method: Ponce Engineering Hydrology Table 4-2 branched storm
     CHECK(r.pipes[k].flow_m3_s / (acre_m2 * in_h) == Approx(lines[k].runoff_cfs).epsilon(0.01));
   }
   CHECK(findings.empty());
+}
+
+// The same table, columns 13-18: the velocity at the design flow ("design flow velocity", column 17)
+// that rimline's travel time uses, and the depth (column 18), for n = 0.013 (Manning; consistent
+// with the printed full capacities, e.g. line 1-6: 12 in at 0.85 % -> 3.28 cfs, printed 3.3).
+// The table's velocities and depths are read from partial-flow charts (graphical; which chart, and
+// whether it lets n vary with depth, is not given with the table), so the tolerance is chart-reading
+// precision: 3 % in velocity, 1.5 in in depth. It still separates the velocity rimline uses from the
+// full-flow velocity (column 16), which lies 9-14 % lower on these lines.
+TEST_CASE("Rational Method: Ponce Table 4-2 design-flow velocities and depths at normal depth",
+          "[reference][rational]") {
+  struct Line {
+    const char* id;
+    double slope_percent, diameter_in, runoff_cfs, velocity_ft_s, depth_in;
+  };
+  const std::vector<Line> lines{{"1-6", 0.85, 12, 2.93, 4.6, 9},
+                                {"1-5", 0.75, 18, 6.75, 5.6, 11},
+                                {"1-4", 0.45, 24, 14.50, 5.6, 18},
+                                {"3-2", 1.00, 15, 6.16, 5.9, 12},
+                                {"1-3", 0.30, 36, 33.60, 5.9, 26}};
+  for (const auto& l : lines) {
+    INFO("line " << l.id);
+    test::Tree t;
+    const auto up = t.structure("U");
+    const auto down = t.structure("D", model::StructureKind::outfall);
+    t.pipe(l.id, up, down, 400.0 * units::metres_per_foot, l.diameter_in * units::metres_per_inch,
+           l.slope_percent / 100.0);
+    Findings findings;
+    flows::PipeDesign p;
+    const double q = units::to_si(l.runoff_cfs, units::Unit::cfs);
+    flows::velocity_travel_time(t.net, flows::TravelVelocity::normal_depth, findings)(0, q, p);
+    CHECK(units::from_si(p.travel_velocity_m_s, units::Unit::ft_s) == Approx(l.velocity_ft_s).epsilon(0.03));
+    const auto y =
+        hydraulics::normal_depth(t.net.conduits[0].roughness, t.net.conduits[0].section, q, l.slope_percent / 100.0);
+    CHECK(y.depth_m / units::metres_per_inch == Approx(l.depth_in).margin(1.5));
+    CHECK(findings.empty());
+  }
 }
