@@ -281,7 +281,10 @@ void read_catchments(const Project& project, PolygonLayer catchments, const Poly
 }
 
 void read_catchment_layers(const Project& project, const RunCrs& crs, ReadResult& result) {
-  if (project.catchments.source.source.empty()) return;
+  // Only the flows modes that use them read the polygons: a broken catchment file must not stop a
+  // run whose flows come from elsewhere.
+  const bool used = project.flow_mode == FlowMode::rational || project.flow_mode == FlowMode::sanitary;
+  if (project.catchments.source.source.empty() || !used) return;
   auto add_files = [&result](const OpenLayer& l) {
     for (const auto& f : l.files)
       if (std::find(result.input_files.begin(), result.input_files.end(), f) == result.input_files.end())
