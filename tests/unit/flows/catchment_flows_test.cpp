@@ -256,3 +256,27 @@ TEST_CASE("catchment outlets: a structure in a hole of the polygon is not inside
   CHECK(ks[0].structure == edge);
   CHECK(f.empty());
 }
+
+// A 5 min inlet time below a table that starts at 10 min: the first segment is extended,
+// i = 100 x (5/10)^-0.5 = 141.421 mm/h, and the pipe carries an IDF_EXTRAPOLATED finding.
+TEST_CASE("a Tc outside the IDF table is reported on the pipe", "[flows][idf]") {
+  test::Tree t;
+  const auto a = t.structure("A", model::StructureKind::inlet);
+  const auto o = t.structure("O", model::StructureKind::outfall);
+  t.pipe("P1", a, o);
+  model::IdfCurve idf;
+  idf.kind = model::IdfCurve::Kind::table;
+  idf.durations_s = {10 * minute, 40 * minute};
+  idf.intensities_m_s = {100.0 / 3.6e6, 50.0 / 3.6e6};
+  Findings findings;
+  const auto r = flows::storm_along_tree(
+      t.net, t.topo, flows::local_inflows(t.net, {catchment("K", 1.0, 0.5, 5, a)}), idf,
+      [](std::size_t, double, flows::PipeDesign&) { return 0.0; }, flows::Split::capacity, findings);
+  CHECK(r.pipes[0].intensity_m_s * 3.6e6 == Approx(141.421).epsilon(1e-5));
+  REQUIRE(findings.size() == 1);
+  CHECK(findings[0].code == "IDF_EXTRAPOLATED");
+  CHECK(findings[0].feature_id == "P1");
+  CHECK(render_message(findings[0].message, units::System::si) ==
+        "pipe P1: the time of concentration 5.00 min lies outside the IDF table; its end segment was extended "
+        "(log-log) to give 141.42 mm/h.");
+}
