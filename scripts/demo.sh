@@ -12,4 +12,11 @@ for variant in metric us; do
   # exit 1 means "findings at or above --fail-on", which the demo is built to show
   [ "$status" -le 1 ] || exit "$status"
 done
-echo "outputs: $out/metric and $out/us (exceptions.csv, results.gpkg, summary.json)" >&2
+# The same network with design flows from the catchments (Rational Method), both unit systems.
+for variant in metric us; do
+  echo "== demo, Rational Method ($variant) -> $out/rational-$variant" >&2
+  status=0
+  "$here/build/rimline" check "$here/data/demo/$variant/project-rational.toml" --out "$out/rational-$variant" || status=$?
+  [ "$status" -le 1 ] || exit "$status"
+done
+echo "outputs: $out/{metric,us,rational-metric,rational-us} (exceptions.csv, results.gpkg, summary.json)" >&2

@@ -6,7 +6,11 @@ trunk to an outfall on the (invented) Tarrowby Brook. A 1500 mm trunk of 20 manh
 west from the outfall; three branches join it. Seeded data defects: pipe C-02 is digitised
 against the flow (its inverts were entered in digitising order), manhole B-05 has no rim level.
 The US variant is the same network in US survey feet (EPSG:2277 coordinates), inches, feet and cfs.
-Deterministic: no random numbers.
+Catchments (catchments.geojson): a rectangle beside each inlet that takes a local inflow, on the
+left of the pipe leaving it, and an upland catchment beyond the trunk head that names T-20 in its
+OUTLET field; land_use.geojson holds a park and a commercial block for the composite C.
+project-rational.toml runs the same network with the Rational Method (seeded: catchment K-C03 is
+drawn off its inlet, so the nearest structure takes it). Deterministic: no random numbers.
 """
 import json, math, os, sys
 
@@ -173,6 +177,96 @@ velocity_max = "{vmax}"
 capacity_ratio_max = 1.0
 """
 
+def catchments(nodes, pipes):
+    """Invented catchment polygons (metres, relative to the origin) and land-use polygons."""
+    by_id = {n["id"]: n for n in nodes}
+    out = []
+    k = 0
+    for p in pipes:
+        n, down = by_id[p["up"]], by_id[p["down"]]
+        if n["type"] != "INLET" or n["id"] == "T-20":
+            continue
+        k += 1
+        dx, dy = down["x"] - n["x"], down["y"] - n["y"]
+        ln = math.hypot(dx, dy); ux, uy = dx / ln, dy / ln   # along the pipe
+        vx, vy = -uy, ux                                     # to its left
+        off = 40.0 if n["id"] == "C-03" else 0.0             # seeded: drawn off its inlet
+        def corner(a, b):
+            return (n["x"] + ux * a + vx * (b + off), n["y"] + uy * a + vy * (b + off))
+        ring = [corner(-28, -12), corner(28, -12), corner(28, 52), corner(-28, 52)]
+        out.append(dict(id="K-" + n["id"], ring=ring, c=round(0.45 + 0.05 * (k % 5), 2),
+                        inlet_min=8.0 + 2.0 * (k % 3), pop=120 + 15 * (k % 7), outlet=None))
+    head = by_id["T-20"]
+    x0, y0 = head["x"] - 230.0, head["y"] - 100.0
+    out.append(dict(id="K-UPLAND", ring=[(x0, y0), (x0 + 200.0, y0), (x0 + 200.0, y0 + 200.0), (x0, y0 + 200.0)],
+                    c=0.35, inlet_min=20.0, pop=300, outlet="T-20"))
+    b3, c6 = by_id["B-03"], by_id["C-06"]
+    land = [dict(id="LU-PARK", c=0.20, ring=[(b3["x"] - 120, b3["y"] - 60), (b3["x"] + 60, b3["y"] - 60),
+                                             (b3["x"] + 60, b3["y"] + 140), (b3["x"] - 120, b3["y"] + 140)]),
+            dict(id="LU-COMMERCIAL", c=0.85, ring=[(c6["x"] - 80, c6["y"] - 80), (c6["x"] + 80, c6["y"] - 80),
+                                                   (c6["x"] + 80, c6["y"] + 80), (c6["x"] - 80, c6["y"] + 80)])]
+    return out, land
+
+def polygon_features(items, units, props_of):
+    def xy(pt):
+        if units == "si": return [round(ORIGIN_M[0] + pt[0], 3), round(ORIGIN_M[1] + pt[1], 3)]
+        return [round(ORIGIN_US[0] + pt[0] * FT_PER_M_US, 3), round(ORIGIN_US[1] + pt[1] * FT_PER_M_US, 3)]
+    crs = "urn:ogc:def:crs:EPSG::32631" if units == "si" else "urn:ogc:def:crs:EPSG::2277"
+    feats = []
+    for it in items:
+        ring = [xy(pt) for pt in it["ring"]]
+        ring.append(ring[0])
+        feats.append({"type": "Feature", "properties": props_of(it), "geometry": {"type": "Polygon", "coordinates": [ring]}})
+    return {"type": "FeatureCollection", "crs": {"type": "name", "properties": {"name": crs}}, "features": feats}
+
+RATIONAL = """
+[catchments]
+source = "catchments.geojson"
+outlet_search = "{search}"
+
+[catchments.fields]
+id = "CATCH_ID"
+structure = "OUTLET"
+runoff_c = "RUNOFF_C"
+population = "POP"
+inlet_time = {{ field = "INLET_MIN", unit = "min" }}
+
+[catchments.defaults]
+runoff_c = 0.5
+inlet_time = "10 min"
+
+[land_use]
+source = "land_use.geojson"
+runoff_c = "C"
+
+[rational]
+return_period = "10yr"
+travel_velocity = "normal_depth"
+{idf}
+"""
+
+IDF_SI = """
+[rational.idf.10yr]
+a = 1650
+b = "12 min"
+c = 0.85
+intensity_unit = "mm/h"
+"""
+
+def idf_table_us():
+    """The same invented curve, tabulated in in/h for the US variant (exercises the table form)."""
+    durations = [5, 10, 15, 30, 60]
+    ins = [1650.0 / (t + 12.0) ** 0.85 / 25.4 for t in durations]
+    return ("\n[rational.idf.10yr]\ndurations = [" + ", ".join(f'"{t} min"' for t in durations) + "]\n"
+            "intensities = [" + ", ".join(f'"{i:.2f} in/h"' for i in ins) + "]\n")
+
+def rational_project(text, units):
+    text = text.replace("(invented demo,", "(invented demo, Rational Method,")
+    text = "\n".join(l for l in text.split("\n") if not l.startswith("inflow = "))
+    text = text.replace('mode = "structure_inflows"', 'mode = "rational"')
+    extra = RATIONAL.format(search="30 m" if units == "si" else "100 ft", idf=IDF_SI if units == "si" else idf_table_us())
+    return text.replace("\n[tailwater]", extra + "\n[tailwater]", 1)
+
 def main():
     nodes, pipes = build()
     fix_trunk_inverts(nodes, pipes)
@@ -192,6 +286,15 @@ def main():
                                   vmin="3 ft/s", vmax="15 ft/s")
         with open(os.path.join(d, "project.toml"), "w") as f:
             f.write(text)
+        ks, land = catchments(nodes, pipes)
+        k_geo = polygon_features(ks, units, lambda k: {"CATCH_ID": k["id"], "RUNOFF_C": k["c"], "INLET_MIN": k["inlet_min"],
+                                                       "POP": k["pop"], "OUTLET": k["outlet"]})
+        lu_geo = polygon_features(land, units, lambda l: {"LU_ID": l["id"], "C": l["c"]})
+        for name, obj in (("catchments.geojson", k_geo), ("land_use.geojson", lu_geo)):
+            with open(os.path.join(d, name), "w") as f:
+                json.dump(obj, f, indent=1); f.write("\n")
+        with open(os.path.join(d, "project-rational.toml"), "w") as f:
+            f.write(rational_project(text, units))
     print(f"{len(nodes)} structures, {len(pipes)} pipes written to {os.path.normpath(OUT)}")
 
 if __name__ == "__main__":

@@ -18,11 +18,21 @@ inline constexpr double metres_per_us_survey_foot = 1200.0 / 3937.0;
 inline constexpr double cubic_metres_per_us_gallon = 231.0 * metres_per_inch * metres_per_inch * metres_per_inch;
 inline constexpr double cubic_metres_per_cubic_foot = metres_per_foot * metres_per_foot * metres_per_foot;
 inline constexpr double seconds_per_day = 86400.0;
+inline constexpr double seconds_per_minute = 60.0;
+inline constexpr double seconds_per_hour = 3600.0;
+// International mile = 5280 ft exactly (NIST SP 811, 2008 ed., B.8).
+inline constexpr double metres_per_mile = 5280.0 * metres_per_foot;
 // Standard acceleration of gravity, 9.80665 m/s^2 (3rd CGPM 1901; NIST SP 330, 2019 ed.).
 inline constexpr double gravity_m_s2 = 9.80665;
 inline constexpr double gravity_ft_s2 = gravity_m_s2 / metres_per_foot;  // 32.174 ft/s^2
 
-enum class Dimension { length, flow, velocity, area, dimensionless, slope, temperature, pressure_head };
+enum class Dimension {
+  length, flow, velocity, area, dimensionless, slope, temperature, pressure_head,
+  time,             // s (inlet time, time of concentration, IDF durations)
+  intensity,        // rainfall intensity, m/s (a depth per time, kept apart from velocity)
+  flow_per_length,  // infiltration allowance per length of sewer, m^3/s per m
+  flow_per_area     // infiltration allowance per contributing area, m^3/s per m^2
+};
 
 enum class Unit {
   m, mm, cm, ft, us_ft, in,                 // length / elevation
@@ -30,7 +40,12 @@ enum class Unit {
   m_s, ft_s,                                 // velocity
   m2, ha, ft2, acre,                         // area
   one, percent,                              // dimensionless, slope
-  deg_c, deg_f                               // temperature
+  deg_c, deg_f,                              // temperature
+  s, min, h,                                 // time
+  mm_h, in_h,                                // rainfall intensity
+  l_d, gpd,                                  // flow (per-capita sewage flows)
+  l_s_km, gpd_mi,                            // flow per length of sewer
+  l_s_ha, gpd_acre                           // flow per contributing area
 };
 
 Dimension dimension_of(Unit u);
@@ -46,7 +61,8 @@ double from_si(double si_value, Unit u);
 
 // The unit system a run reports in.
 enum class System { si, us };
-// The display unit of a dimension in a system (length: m | ft, flow: m3/s | cfs, velocity: m/s | ft/s).
+// The display unit of a dimension in a system (length: m | ft, flow: m3/s | cfs, velocity: m/s | ft/s,
+// time: min, intensity: mm/h | in/h, per length: L/s/km | gpd/mi, per area: L/s/ha | gpd/acre).
 Unit display_unit(Dimension d, System s);
 
 }  // namespace rimline::units

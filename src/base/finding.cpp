@@ -49,6 +49,10 @@ char dimension_letter(units::Dimension d) {
     case units::Dimension::temperature: return 'T';
     case units::Dimension::slope: return 'S';
     case units::Dimension::dimensionless: return 'N';
+    case units::Dimension::time: return 't';
+    case units::Dimension::intensity: return 'I';
+    case units::Dimension::flow_per_length: return 'l';
+    case units::Dimension::flow_per_area: return 'a';
   }
   return 'N';
 }
@@ -62,6 +66,10 @@ units::Dimension dimension_from_letter(char c) {
     case 'P': return units::Dimension::pressure_head;
     case 'T': return units::Dimension::temperature;
     case 'S': return units::Dimension::slope;
+    case 't': return units::Dimension::time;
+    case 'I': return units::Dimension::intensity;
+    case 'l': return units::Dimension::flow_per_length;
+    case 'a': return units::Dimension::flow_per_area;
     default: return units::Dimension::dimensionless;
   }
 }

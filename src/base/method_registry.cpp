@@ -5,7 +5,7 @@
 namespace rimline {
 namespace {
 
-constexpr std::array<MethodRow, 13> rows{{
+constexpr std::array<MethodRow, 19> rows{{
     {"friction", "manning", "Manning", "V = (1/n) R^(2/3) S^(1/2) on the hydraulic radius of the wetted section",
      "Manning (1891); SI form, and the US form with 1.486 = (1/0.3048)^(1/3) ft^(1/3)/m^(1/3)"},
     {"friction", "darcy_weisbach", "Darcy-Weisbach with Colebrook-White",
@@ -24,6 +24,32 @@ constexpr std::array<MethodRow, 13> rows{{
     {"structure loss", "hec22", "HEC-22 access-hole energy-loss method",
      "K = K_o C_D C_d C_Q C_p C_B with angle, depth, relative flow, plunging and benching corrections",
      "FHWA HEC-22, 2nd ed. (2001), section 7.1.6 - implemented from memory, not from the document"},
+    {"flows", "rational", "Rational Method along the network",
+     "Q = C i A at each pipe for the C A upstream and i at its time of concentration Tc = longest (inlet time + travel "
+     "time through the pipes between); SI inside, so no unit constant (1/360 for mm/h and ha to m3/s, 1.008 for in/h "
+     "and acres to cfs)",
+     "Kuichling (1889; citation from memory); checked against Fair, Geyer and Okun's Water and Wastewater Engineering "
+     "(Shammas & Wang, 2011), "
+     "Example 11.9, and Ponce, Engineering Hydrology (1989), Table 4-2"},
+    {"flows", "idf", "IDF relation",
+     "i = a / (t + b)^c (t, b in min) for the chosen return period, or a table of "
+     "durations interpolated log-log (extended beyond it with a finding)",
+     "common practice (the form of Fair, Geyer and Okun, Example 11.9); the constants are the project's"},
+    {"flows", "travel_velocity", "Pipe travel time for Tc",
+     "length / velocity at normal depth for the pipe's own design flow (known before any pipe downstream needs it, so "
+     "no iteration with the march); full-flow velocity by option or where normal depth does not exist; 0 without a "
+     "slope",
+     "common practice, no source"},
+    {"flows", "inlet_time", "Default inlet time", "10 min where a catchment gives none ([catchments.defaults])",
+     "common practice, no source (agency manuals use 5-15 min)"},
+    {"flows", "composite_c", "Composite runoff coefficient",
+     "area-weighted C of the land-use polygons a catchment overlaps (polygon intersection); the uncovered part keeps "
+     "the catchment's own C",
+     "common practice, no source"},
+    {"flows", "harmon", "Sanitary peak flow, Harmon peaking factor",
+     "Q = PF q P + infiltration per length of pipe or per area; PF = 1 + 14 / (4 + sqrt(P)), P in thousands",
+     "Harmon (1918); as (18 + sqrt P) / (4 + sqrt P) in Recommended Standards for Wastewater Facilities (Ten States "
+     "Standards) - section and edition from memory"},
     {"criterion", "freeboard", "Freeboard below the rim", "HGL at least this far below the rim (default 0.3 m / 1 ft)",
      "common practice, no source (agency manuals range from 0 to 1 ft)"},
     {"criterion", "velocity_min", "Minimum velocity", "self-cleansing velocity at the design flow (default 0.9 m/s)",

@@ -19,7 +19,7 @@ constexpr double hectare_m2 = 1.0e4;
 // Acre = 43,560 ft^2 (NIST SP 811, 2008 ed., B.8).
 constexpr double acre_m2 = 43560.0 * metres_per_foot * metres_per_foot;
 
-constexpr std::array<Row, 21> rows{{
+constexpr std::array<Row, 32> rows{{
     {Unit::m, Dimension::length, 1.0, "m"},
     {Unit::mm, Dimension::length, 1.0e-3, "mm"},
     {Unit::cm, Dimension::length, 1.0e-2, "cm"},
@@ -41,6 +41,17 @@ constexpr std::array<Row, 21> rows{{
     {Unit::percent, Dimension::slope, 0.01, "%"},
     {Unit::deg_c, Dimension::temperature, 1.0, "C"},
     {Unit::deg_f, Dimension::temperature, 5.0 / 9.0, "F"},
+    {Unit::s, Dimension::time, 1.0, "s"},
+    {Unit::min, Dimension::time, seconds_per_minute, "min"},
+    {Unit::h, Dimension::time, seconds_per_hour, "h"},
+    {Unit::mm_h, Dimension::intensity, 1.0e-3 / seconds_per_hour, "mm/h"},
+    {Unit::in_h, Dimension::intensity, metres_per_inch / seconds_per_hour, "in/h"},
+    {Unit::l_d, Dimension::flow, 1.0e-3 / seconds_per_day, "L/d"},
+    {Unit::gpd, Dimension::flow, cubic_metres_per_us_gallon / seconds_per_day, "gpd"},
+    {Unit::l_s_km, Dimension::flow_per_length, 1.0e-3 / 1.0e3, "L/s/km"},
+    {Unit::gpd_mi, Dimension::flow_per_length, cubic_metres_per_us_gallon / seconds_per_day / metres_per_mile, "gpd/mi"},
+    {Unit::l_s_ha, Dimension::flow_per_area, 1.0e-3 / hectare_m2, "L/s/ha"},
+    {Unit::gpd_acre, Dimension::flow_per_area, cubic_metres_per_us_gallon / seconds_per_day / acre_m2, "gpd/acre"},
 }};
 
 const Row& row_of(Unit u) {
@@ -62,7 +73,7 @@ Dimension dimension_of(Unit u) { return row_of(u).dimension; }
 std::string_view unit_symbol(Unit u) { return row_of(u).symbol; }
 
 std::optional<Unit> parse_unit(std::string_view text) {
-  static const std::array<std::pair<std::string_view, Unit>, 40> spellings{{
+  static const std::array<std::pair<std::string_view, Unit>, 63> spellings{{
       {"m", Unit::m},          {"metre", Unit::m},       {"meter", Unit::m},     {"metres", Unit::m},
       {"meters", Unit::m},     {"mm", Unit::mm},         {"cm", Unit::cm},       {"ft", Unit::ft},
       {"foot", Unit::ft},      {"feet", Unit::ft},       {"us_ft", Unit::us_ft}, {"ftus", Unit::us_ft},
@@ -73,6 +84,12 @@ std::optional<Unit> parse_unit(std::string_view text) {
       {"m2", Unit::m2},        {"ha", Unit::ha},         {"ft2", Unit::ft2},     {"acre", Unit::acre},
       {"acres", Unit::acre},   {"ac", Unit::acre},       {"1", Unit::one},       {"", Unit::one},
       {"%", Unit::percent},    {"m/m", Unit::one},       {"c", Unit::deg_c},     {"f", Unit::deg_f},
+      {"s", Unit::s},          {"sec", Unit::s},         {"min", Unit::min},     {"minutes", Unit::min},
+      {"minute", Unit::min},   {"h", Unit::h},           {"hr", Unit::h},        {"hours", Unit::h},
+      {"hour", Unit::h},       {"mm/h", Unit::mm_h},     {"mm/hr", Unit::mm_h},  {"in/h", Unit::in_h},
+      {"in/hr", Unit::in_h},   {"l/d", Unit::l_d},       {"l/cap/d", Unit::l_d}, {"lpcd", Unit::l_d},
+      {"gpd", Unit::gpd},      {"gpcd", Unit::gpd},      {"l/s/km", Unit::l_s_km}, {"gpd/mi", Unit::gpd_mi},
+      {"l/s/ha", Unit::l_s_ha}, {"gpd/acre", Unit::gpd_acre}, {"gpd/ac", Unit::gpd_acre},
   }};
   const std::string key = lower(text);
   for (const auto& [name, unit] : spellings)
@@ -99,6 +116,10 @@ Unit display_unit(Dimension d, System s) {
     case Dimension::velocity: return us ? Unit::ft_s : Unit::m_s;
     case Dimension::area: return us ? Unit::acre : Unit::ha;
     case Dimension::temperature: return us ? Unit::deg_f : Unit::deg_c;
+    case Dimension::time: return Unit::min;
+    case Dimension::intensity: return us ? Unit::in_h : Unit::mm_h;
+    case Dimension::flow_per_length: return us ? Unit::gpd_mi : Unit::l_s_km;
+    case Dimension::flow_per_area: return us ? Unit::gpd_acre : Unit::l_s_ha;
     case Dimension::slope:
     case Dimension::dimensionless: return Unit::one;
   }

@@ -107,4 +107,8 @@ DesignFlows design_flows(const model::Network& network, const topology::Topology
   return out;
 }
 
+std::vector<double> diversion_shares(const model::Network& network, const std::vector<std::size_t>& outs, Split split) {
+  return outflow_shares(network, outs, split);
+}
+
 }  // namespace rimline::flows

@@ -8,6 +8,7 @@
 #include <functional>
 #include <sstream>
 
+#include "io/project_catchments.hpp"
 #include "io/toml_guard.hpp"
 #include "io/toml_section.hpp"
 #include "rimline/error.hpp"
@@ -174,6 +175,7 @@ void read_structures(TomlSection s, Project& p) {
   sf.id = f.string("id").value_or("");
   sf.type = f.string("type").value_or("");
   sf.loss_k = f.string("loss_k").value_or("");
+  sf.population = f.string("population").value_or("");
   for (auto [key, dst] : {std::pair<std::string_view, FieldRef*>{"rim", &sf.rim},
                           {"invert", &sf.invert},
                           {"diameter", &sf.diameter},
@@ -291,7 +293,9 @@ void read_plausibility(TomlSection s, Project& p) {
 void read_flows_and_tailwater(TomlSection flows, TomlSection tw, Project& p) {
   p.flow_mode = flows
                     .choice<FlowMode>("mode", {{"pipe_field", FlowMode::pipe_field},
-                                               {"structure_inflows", FlowMode::structure_inflows}})
+                                               {"structure_inflows", FlowMode::structure_inflows},
+                                               {"rational", FlowMode::rational},
+                                               {"sanitary", FlowMode::sanitary}})
                     .value_or(p.flow_mode);
   p.split_rule = flows.choice<SplitRule>("split", {{"capacity", SplitRule::capacity}, {"field", SplitRule::field}})
                      .value_or(p.split_rule);
@@ -332,6 +336,8 @@ Project parse_project(const std::string& toml_text, const std::string& path_for_
   TomlSection pipes = top.table("pipes"), structures = top.table("structures"), flows = top.table("flows"),
               tailwater = top.table("tailwater"), methods = top.table("methods"),
               plausibility = top.table("plausibility"), criteria = top.table("criteria");
+  detail::CatchmentSections catchment_sections{top.table("catchments"), top.table("land_use"), top.table("rational"),
+                                               top.table("sanitary")};
   top.finish();  // a misspelt table name first: it explains a "missing" error that would follow
   p.name = proj.string("name").value_or("");
   p.report_units = proj.choice<units::System>("units", {{"si", units::System::si}, {"us", units::System::us}})
@@ -343,6 +349,7 @@ Project parse_project(const std::string& toml_text, const std::string& path_for_
   read_pipes(pipes, p);
   read_structures(structures, p);
   read_flows_and_tailwater(flows, tailwater, p);
+  detail::read_catchment_sections(catchment_sections, p, &read_layer_source);
   read_methods(methods, p);
   read_criteria(criteria, p);
   return p;

@@ -33,6 +33,14 @@ std::string_view dimension_noun(units::Dimension d) {
       return "a temperature";
     case units::Dimension::pressure_head:
       return "a pressure head";
+    case units::Dimension::time:
+      return "a time";
+    case units::Dimension::intensity:
+      return "a rainfall intensity";
+    case units::Dimension::flow_per_length:
+      return "a flow per length";
+    case units::Dimension::flow_per_area:
+      return "a flow per area";
   }
   return "a quantity";
 }
@@ -40,7 +48,9 @@ std::string_view dimension_noun(units::Dimension d) {
 // Spellings offered in "did you mean"; parse_unit accepts more.
 const std::vector<std::string>& unit_suggestions() {
   static const std::vector<std::string> names{"m",   "mm",  "cm",   "ft", "us_ft", "in",  "m3/s", "L/s", "cfs", "MGD",
-                                              "gpm", "m/s", "ft/s", "m2", "ha",    "ft2", "acre", "%",   "C",   "F"};
+                                              "gpm", "m/s", "ft/s", "m2", "ha",    "ft2", "acre", "%",   "C",   "F",
+                                              "s",   "min", "h",    "mm/h", "in/h", "L/d", "gpd", "L/s/km",
+                                              "gpd/mi", "L/s/ha", "gpd/acre"};
   return names;
 }
 

@@ -2,6 +2,7 @@
 
 #include <algorithm>
 
+#include "io/read_catchments.hpp"
 #include "io/read_layers.hpp"
 #include "io/run_crs.hpp"
 
@@ -67,6 +68,7 @@ ReadResult read_network(const Project& project) {
       if (std::find(result.input_files.begin(), result.input_files.end(), f) == result.input_files.end())
         result.input_files.push_back(f);
   }
+  read_catchment_layers(project, crs, result);
   result.defaults_used = defaults.take();
   return result;
 }

@@ -17,7 +17,7 @@ constexpr double structure_diameter_min_m = 0.3, structure_diameter_max_m = 30.0
 constexpr double loss_k_max = 10.0;
 
 struct Columns {
-  int id, type, loss_k, rim, invert, diameter, inflow, tailwater;
+  int id, type, loss_k, rim, invert, diameter, inflow, tailwater, population;
 };
 
 Columns resolve(const StructureFields& f, const OpenLayer& l) {
@@ -31,7 +31,8 @@ Columns resolve(const StructureFields& f, const OpenLayer& l) {
           idx(f.invert.field, "invert"),
           idx(f.diameter.field, "diameter"),
           idx(f.inflow.field, "inflow"),
-          idx(f.tailwater.field, "tailwater")};
+          idx(f.tailwater.field, "tailwater"),
+          idx(f.population, "population")};
 }
 
 std::optional<model::StructureKind> kind_of(const std::string& name) {
@@ -78,6 +79,7 @@ class StructureReader {
     }
     read_diameter(feature, s, who);
     read_loss_and_inflow(feature, s, who);
+    read_population(feature, s, who);
     return true;
   }
 
@@ -185,6 +187,18 @@ class StructureReader {
                   si, 0.0, Dimension::flow);
       }
     }
+  }
+
+  // Persons served at the structure (sanitary flows); a negative or textual value is left out.
+  void read_population(OGRFeature& feature, model::Structure& s, const FeatureRef& who) {
+    if (col_.population < 0) return;
+    const char* none = "the structure adds no population";
+    const auto v = checked_number(read_number(feature, col_.population), f_.population, none, who);
+    if (v && *v < 0.0)
+      who.add("DATA_IMPLAUSIBLE", Severity::warning, f_.population,
+              f_.population + " " + format_number(*v) + " is negative; " + none + ".", *v, 0.0);
+    else if (v)
+      s.population = *v;
   }
 
   LayerRead& in_;

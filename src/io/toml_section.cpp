@@ -49,6 +49,14 @@ std::string_view dimension_name(units::Dimension d) {
       return "temperature";
     case units::Dimension::pressure_head:
       return "pressure head";
+    case units::Dimension::time:
+      return "time";
+    case units::Dimension::intensity:
+      return "rainfall intensity";
+    case units::Dimension::flow_per_length:
+      return "flow per length";
+    case units::Dimension::flow_per_area:
+      return "flow per area";
   }
   return "quantity";
 }

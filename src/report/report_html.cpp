@@ -7,6 +7,7 @@
 #include <set>
 #include <unordered_map>
 
+#include "report/design_flows_html.hpp"
 #include "report/html_style.hpp"
 #include "report/sheet_text.hpp"
 #include "rimline/hydraulics/friction.hpp"
@@ -110,6 +111,15 @@ std::string inputs_section(const run::CheckRun& run) {
   return h;
 }
 
+// Whether a "flows" row of the method table applies to this run's flows mode.
+bool flows_row_in_use(const run::CheckRun& run, std::string_view id) {
+  const auto& p = run.project;
+  if (p.flow_mode == io::FlowMode::rational)
+    return id == "rational" || id == "idf" || id == "travel_velocity" || id == "inlet_time" ||
+           (id == "composite_c" && !p.catchments.land_use.source.empty());
+  return p.flow_mode == io::FlowMode::sanitary && id == "harmon" && !p.sanitary.peaking_constant;
+}
+
 std::string methods_section(const run::CheckRun& run) {
   const auto sys = run.report_units;
   const std::string friction(hydraulics::friction_law_name(run.project.methods.friction));
@@ -133,6 +143,7 @@ std::string methods_section(const run::CheckRun& run) {
     if (m.group == "friction") here = m.id == friction ? "<span class=\"used\">in use</span>" : "";
     else if (m.group == "structure loss") here = m.id == loss ? "<span class=\"used\">in use</span>" : "";
     else if (m.group == "profile") here = "<span class=\"used\">in use</span>";
+    else if (m.group == "flows") here = flows_row_in_use(run, m.id) ? "<span class=\"used\">in use</span>" : "";
     else if (auto it = criterion_value.find(std::string(m.id)); it != criterion_value.end())
       here = "<span class=\"used\">" + esc(it->second) + "</span>";
     h += row({esc(m.group), esc(m.name) + " <code>" + esc(m.id) + "</code>", esc(m.description), here, esc(m.source)});
@@ -305,10 +316,12 @@ std::string report_html(const run::CheckRun& run, const std::vector<RenderedProf
        "</h1>\n<p class=\"caution\" id=\"caution-top\">" + esc(caution) + "</p></header>\n<main>\n";
   h += "<nav><a href=\"#summary\">Summary</a> <a href=\"#inputs\">Inputs</a> <a href=\"#methods\">Methods</a> "
        "<a href=\"#exceptions\">Exceptions</a> <a href=\"#profiles\">Profiles</a> <a href=\"#data-findings\">Data "
-       "findings</a></nav>\n";
+       "findings</a>" + std::string(run.catchment_flows ? " <a href=\"#design-flows\">Design flows</a>" : "") +
+       "</nav>\n";
   h += summary_section(run, date);
   h += inputs_section(run);
   h += methods_section(run);
+  h += design_flows_section(run);
   h += "<section id=\"exceptions\"><h2>Exception list</h2>\n<p>Design criteria not met, worst case over the "
        "tailwater cases, by severity. A structure warning or error opens to its energy budget down to the "
        "outfall.</p>\n";

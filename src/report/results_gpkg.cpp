@@ -12,6 +12,7 @@
 #include <vector>
 
 #include "rimline/error.hpp"
+#include "rimline/flows/catchment_outlets.hpp"
 #include "rimline/hydraulics/section.hpp"
 #include "rimline/report/outputs.hpp"
 #include "rimline/report/report_html.hpp"
@@ -50,6 +51,7 @@ class Writer {
     write_structures();
     write_conduits();
     write_cases();
+    write_catchments();
     if (ds_->CommitTransaction() != OGRERR_NONE)
       throw Error(ErrorKind::bad_config, ErrorContext{path_, "", "", ""}, "cannot be written");
   }
@@ -108,6 +110,48 @@ class Writer {
     return case_labels_[k];
   }
 
+  // Flows modes "rational" / "sanitary": each catchment with the figures used and its outlet.
+  void write_catchments() {
+    if (!run_.catchment_flows) return;
+    OGRLayer* l = layer("catchments", wkbMultiPolygon);
+    for (const char* n : {"id", "outlet"}) field(l, n, OFTString);
+    for (const char* n : {"area", "runoff_c", "inlet_time", "population"}) field(l, n, OFTReal);
+    for (const auto& k : run_.catchments) {
+      OGRFeature f(l->GetLayerDefn());
+      f.SetField(ix(f, "id"), k.id.c_str());
+      if (k.structure != model::no_index)
+        f.SetField(ix(f, "outlet"), run_.read.network.structures[k.structure].id.c_str());
+      set(f, "area", k.area_m2, Dimension::area);
+      f.SetField(ix(f, "runoff_c"), k.runoff_c);
+      set(f, "inlet_time", k.inlet_time_s, Dimension::time);
+      if (k.population) f.SetField(ix(f, "population"), *k.population);
+      auto ring_of = [this](const std::vector<model::Point2>& pts) {
+        OGRLinearRing r;
+        for (const auto& v : pts) {
+          double x = v.x, y = v.y;
+          place(x, y);
+          r.addPoint(x, y);
+        }
+        r.closeRings();
+        return r;
+      };
+      OGRMultiPolygon shape;
+      for (const auto& ring : k.rings) {
+        OGRPolygon poly;
+        OGRLinearRing outer = ring_of(ring);
+        poly.addRing(&outer);
+        for (const auto& hole : k.holes)  // a hole belongs to the part that holds its first vertex
+          if (!hole.empty() && flows::inside_rings({ring}, hole.front())) {
+            OGRLinearRing inner = ring_of(hole);
+            poly.addRing(&inner);
+          }
+        shape.addGeometry(&poly);
+      }
+      if (!shape.IsEmpty()) f.SetGeometry(&shape);
+      add(l, f);
+    }
+  }
+
   void write_structures() {
     OGRLayer* l = layer("structures", wkbPoint);
     for (const char* n : {"id", "kind", "status", "governing_outflow", "tailwater_case"}) field(l, n, OFTString);
@@ -154,7 +198,33 @@ class Writer {
                           "normal_depth", "critical_depth", "surcharged_length", "invert_up", "invert_down"})
       field(l, n, OFTReal);
     field(l, "reversed", OFTInteger);
+    add_design_fields(l);
     return l;
+  }
+
+  // Flows modes "rational" / "sanitary": the design figures behind each pipe's flow.
+  void add_design_fields(OGRLayer* l) {
+    if (!run_.catchment_flows) return;
+    const bool storm = run_.catchment_flows->mode == flows::CatchmentMode::storm;
+    for (const char* n : storm ? std::vector<const char*>{"contributing_area", "runoff_ca", "tc", "travel_time", "intensity"}
+                               : std::vector<const char*>{"contributing_area", "population", "peaking_factor", "infiltration"})
+      field(l, n, OFTReal);
+  }
+
+  void set_design_fields(OGRFeature& f, std::size_t ci) {
+    if (!run_.catchment_flows) return;
+    const auto& d = run_.catchment_flows->pipes[ci];
+    set(f, "contributing_area", d.area_m2, Dimension::area);
+    if (run_.catchment_flows->mode == flows::CatchmentMode::storm) {
+      set(f, "runoff_ca", d.ca_m2, Dimension::area);
+      set(f, "tc", d.tc_s, Dimension::time);
+      set(f, "travel_time", d.travel_time_s, Dimension::time);
+      set(f, "intensity", d.intensity_m_s, Dimension::intensity);
+    } else {
+      f.SetField(ix(f, "population"), d.population);
+      if (std::isfinite(d.peaking_factor)) f.SetField(ix(f, "peaking_factor"), d.peaking_factor);
+      set(f, "infiltration", d.infiltration_m3_s, Dimension::flow);
+    }
   }
 
   // Pipes that could not be solved go to their own layer with the reason, so that every row of
@@ -178,6 +248,7 @@ class Writer {
       set(f, "width", c.section.shape == hydraulics::Shape::box ? c.section.width_m : NAN, Dimension::length);
       set(f, "length", c.length_m, Dimension::length);
       f.SetField(ix(f, "reversed"), c.reversed ? 1 : 0);
+      set_design_fields(f, ci);
       if (!run_.cases.empty()) {
         const auto& cs = run_.cases[run_.envelope_conduit_case[ci]];
         const auto& r = cs.march.conduits[ci];

@@ -22,6 +22,34 @@ ordered_json velocity(double si, units::System s) {
   return std::round(to_report(si, units::Dimension::velocity, s) * 1e4) / 1e4;
 }
 
+// Flows from catchments: the method (with the IDF relation) and the catchments' totals.
+ordered_json design_flows_json(const run::CheckRun& run) {
+  const auto& cf = *run.catchment_flows;
+  const auto sys = run.report_units;
+  double area = 0.0;
+  std::size_t assigned = 0;
+  for (const auto& k : run.catchments) {
+    area += k.area_m2;
+    assigned += k.structure != model::no_index ? 1 : 0;
+  }
+  ordered_json d = {{"mode", cf.mode == flows::CatchmentMode::storm ? "rational" : "sanitary"},
+                    {"method", cf.method},
+                    {"catchments", run.catchments.size()},
+                    {"catchments_with_outlet", assigned},
+                    {"catchment_area", std::round(to_report(area, units::Dimension::area, sys) * 1e4) / 1e4},
+                    {"area_unit", units::unit_symbol(units::display_unit(units::Dimension::area, sys))}};
+  if (cf.mode == flows::CatchmentMode::storm) {
+    const auto& idf = run.project.rational.idf;
+    d["return_period"] = idf.label;
+    d["idf"] = idf.kind == model::IdfCurve::Kind::formula
+                   ? ordered_json{{"form", "i = a / (t + b)^c, t and b in min"}, {"a", idf.a}, {"b_min", idf.b_min},
+                                  {"c", idf.c}, {"intensity_unit", idf.intensity_unit}}
+                   : ordered_json{{"form", "table, log-log interpolation"}, {"rows", idf.durations_s.size()}};
+    d["travel_velocity"] = run.project.rational.full_flow_velocity ? "full_flow" : "normal_depth";
+  }
+  return d;
+}
+
 }  // namespace
 
 std::string summary_json(const run::CheckRun& run) {
@@ -53,6 +81,7 @@ std::string summary_json(const run::CheckRun& run) {
   j["methods"] = {{"friction", hydraulics::friction_law_name(run.project.methods.friction)},
                   {"structure_loss", hydraulics::structure_loss_method_name(run.march_options.loss_method)},
                   {"default_k", run.march_options.default_k}};
+  if (run.catchment_flows) j["design_flows"] = design_flows_json(run);
   ordered_json crit = {{"freeboard", length(run.criteria.freeboard_m, sys)},
                        {"velocity_min", velocity(run.criteria.velocity_min_m_s, sys)},
                        {"capacity_ratio_max", run.criteria.capacity_ratio_max}};

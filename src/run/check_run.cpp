@@ -6,6 +6,8 @@
 #include <map>
 #include <tuple>
 
+#include "run/catchment_run.hpp"
+
 namespace rimline::run {
 namespace {
 
@@ -135,6 +137,9 @@ CheckRun run_check(const io::Project& project, const RunOptions& options) {
   run.criteria = criteria_from(project);
   run.overrides = overrides_from(project);
   run.march_options = march_options_from(project);
+  const bool from_catchments =
+      project.flow_mode == io::FlowMode::rational || project.flow_mode == io::FlowMode::sanitary;
+  if (from_catchments) assign_catchment_outlets(project, run);
   if (options.dry_run) {
     merge_findings(run, {});
     return run;
@@ -149,7 +154,10 @@ CheckRun run_check(const io::Project& project, const RunOptions& options) {
   flow_opt.friction = project.methods.friction;
   flow_opt.default_inflow_m3_s = project.default_inflow_m3_s.value_or(0.0);
   stage("design flows");
-  run.flows = flows::design_flows(run.read.network, run.topology, flow_opt, run.data_findings);
+  if (from_catchments)
+    run.flows = catchment_design_flows(project, flow_opt.split, run);
+  else
+    run.flows = flows::design_flows(run.read.network, run.topology, flow_opt, run.data_findings);
 
   std::vector<double> levels = options.tailwater_levels_m.empty() ? project.tailwater_levels_m : options.tailwater_levels_m;
   if (levels.empty()) levels.push_back(nan);  // outfall fields or free outfalls decide

@@ -28,6 +28,10 @@ struct DesignFlows {
 // upstream structure (Kahn's algorithm over usable conduits). Conduits on a cycle are left out.
 std::vector<std::size_t> upstream_first_order(const model::Network& network, const topology::Topology& topo);
 
+// Share of each of a structure's outflows (`outs`, conduit indices) at a diversion, summing to 1:
+// the split fractions, or in proportion to full capacity; one outflow takes all.
+std::vector<double> diversion_shares(const model::Network& network, const std::vector<std::size_t>& outs, Split split);
+
 DesignFlows design_flows(const model::Network& network, const topology::Topology& topo, const FlowOptions& options,
                          Findings& findings);
 

@@ -19,12 +19,25 @@
 //               (a pipe's n / ks: its field, else its material's row, else the default; each default
 //                use is counted in ReadResult::defaults_used)
 //   [pipes.shapes]   circular = ["CIRC", "C"], box = ["BOX", "RECT"]      (source values -> shape)
-//   [structures] source, layer; [structures.fields] id, type, loss_k -> "FIELD";
+//   [structures] source, layer; [structures.fields] id, type, loss_k, population -> "FIELD";
 //                rim, invert, diameter, inflow, tailwater -> { field, unit }
 //   [structures.types] outfall = ["OF"], inlet = ["CB"], manhole = ["MH"], junction = [...]
 //   [structures.defaults] diameter = "1.2 m", loss_k = 0.5
-//   [flows]     mode = "pipe_field" | "structure_inflows", split = "capacity" | "field",
+//   [flows]     mode = "pipe_field" | "structure_inflows" | "rational" | "sanitary", split = "capacity" | "field",
 //               default_inflow = "5 L/s" (structures without an inflow value)
+//   [catchments] source, layer, outlet_search = "30 m" (rational and sanitary modes: polygons, each draining
+//               to one structure; area from the geometry in the run CRS)
+//   [catchments.fields] id, structure, runoff_c, population -> "FIELD"; inlet_time -> { field, unit = "min" }
+//   [catchments.defaults] runoff_c = 0.5, inlet_time = "10 min"
+//   [land_use]  source, layer, runoff_c = "FIELD" (optional: C of each catchment = the area-weighted C of the
+//               land-use polygons it overlaps; the uncovered part takes the catchment's own / default C)
+//   [rational]  return_period = "10yr" (a key of [rational.idf]; may be left out when there is one),
+//               travel_velocity = "normal_depth" | "full_flow"
+//   [rational.idf.10yr] a = 3330, b = "19 min", c = 1.0, intensity_unit = "mm/h"   (i = a / (t + b)^c, t in min)
+//                   or durations = ["5 min", "10 min", ...], intensities = ["180 mm/h", ...] (log-log interpolation)
+//   [sanitary]  per_capita = "300 L/d", peaking = "harmon" or peaking_factor = 2.5, infiltration_per_length =
+//               "0.1 L/s/km", infiltration_per_area = "0.2 L/s/ha" (population from catchments.fields.population
+//               and / or structures.fields.population)
 //   [tailwater] mode = "fixed" | "free" | "higher", levels = ["12.4 m", "13.0 m"]
 //   [methods]   friction = "manning" | "darcy_weisbach", structure_loss = "constant_k" | "bend" | "hec22",
 //               water_temperature = "15 C", benching = "flat"|"half"|"full"
@@ -44,6 +57,7 @@
 #include "rimline/hydraulics/friction.hpp"
 #include "rimline/hydraulics/losses.hpp"
 #include "rimline/hydraulics/section.hpp"
+#include "rimline/model/catchment.hpp"
 #include "rimline/units.hpp"
 
 namespace rimline::io {
@@ -77,6 +91,7 @@ struct PipeDefaults {
 
 struct StructureFields {
   std::string id, type, loss_k;
+  std::string population;  // persons served at the structure (flows mode "sanitary")
   FieldRef rim, invert, diameter, inflow, tailwater;
 };
 
@@ -85,7 +100,35 @@ struct StructureDefaults {
   std::optional<double> loss_k;
 };
 
-enum class FlowMode { pipe_field, structure_inflows };
+enum class FlowMode { pipe_field, structure_inflows, rational, sanitary };
+
+struct CatchmentFields {
+  std::string id, structure, runoff_c, population;
+  FieldRef inlet_time;
+};
+
+// [catchments] and [land_use]; source empty when the project has none.
+struct CatchmentSettings {
+  LayerSource source;
+  CatchmentFields fields;
+  std::optional<double> default_runoff_c;
+  double default_inlet_time_s = 600.0;  // 10 min: common practice, no source (agency manuals use 5-15 min)
+  double outlet_search_m = 30.0;        // nearest structure accepted within this of the polygon
+  LayerSource land_use;
+  std::string land_use_runoff_c;        // field of the land-use layer
+};
+
+struct RationalSettings {
+  model::IdfCurve idf;
+  bool full_flow_velocity = false;  // travel time from full-flow rather than normal-depth velocity
+};
+
+struct SanitarySettings {
+  double per_capita_m3_s = 0.0;
+  std::optional<double> peaking_constant;  // unset: Harmon
+  std::optional<double> infiltration_per_length_m3_s_m;
+  std::optional<double> infiltration_per_area_m3_s_m2;
+};
 enum class SplitRule { capacity, field };
 enum class TailwaterMode { fixed, free, higher };
 
@@ -150,6 +193,9 @@ struct Project {
   // Local inflow at every structure that has none (structure_inflows mode): a uniform unit load
   // for exports without design flows. The summary states it.
   std::optional<double> default_inflow_m3_s;
+  CatchmentSettings catchments;  // rational / sanitary modes
+  RationalSettings rational;
+  SanitarySettings sanitary;
   TailwaterMode tailwater_mode = TailwaterMode::higher;
   std::vector<double> tailwater_levels_m;  // a sweep when more than one
   Methods methods;

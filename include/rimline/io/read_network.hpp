@@ -20,6 +20,7 @@
 // Severity error = the pipe is unusable (Conduit::usable = false) or the structure left out.
 #include "rimline/finding.hpp"
 #include "rimline/io/project.hpp"
+#include "rimline/model/catchment.hpp"
 #include "rimline/model/network.hpp"
 
 namespace rimline::io {
@@ -40,6 +41,7 @@ struct ReadResult {
   std::vector<std::string> input_files;  // every file read, for hashing in the summary
   std::string source_crs_wkt;            // CRS of the pipe layer as read (outputs go back to it)
   std::vector<DefaultNote> defaults_used;
+  std::vector<model::Catchment> catchments;  // [catchments] polygons (src/io/read_catchments.hpp), run CRS
 };
 
 ReadResult read_network(const Project& project);

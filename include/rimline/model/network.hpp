@@ -32,6 +32,7 @@ struct Structure {
   std::optional<double> loss_k;   // structure loss coefficient from the source, if mapped
   std::optional<double> diameter_m;      // inside diameter (HEC-22 b)
   std::optional<double> inflow_m3_s;     // local inflow (flows mode "structure_inflows")
+  std::optional<double> population;      // persons served here (flows mode "sanitary"), besides its catchments'
   std::optional<double> tailwater_m;     // outfall tailwater from a field
   std::string type_text;          // the source's own type value, for the report
 };

@@ -9,6 +9,7 @@
 #include <vector>
 
 #include "rimline/checks/checks.hpp"
+#include "rimline/flows/catchment_flows.hpp"
 #include "rimline/flows/design_flows.hpp"
 #include "rimline/io/project.hpp"
 #include "rimline/io/read_network.hpp"
@@ -42,6 +43,10 @@ struct CheckRun {
   io::ReadResult read;
   topology::Topology topology;
   flows::DesignFlows flows;
+  // Flows modes "rational" / "sanitary": the catchments with their outlets and the per-pipe design
+  // figures (contributing area, C A, Tc, intensity; population, peaking factor, infiltration).
+  std::vector<model::Catchment> catchments;
+  std::optional<flows::CatchmentFlows> catchment_flows;
   checks::Criteria criteria;
   checks::CriteriaOverrides overrides;  // per structure / pipe id
   solve::MarchOptions march_options;

@@ -1,0 +1,15 @@
+#pragma once
+// Flows modes "rational" and "sanitary": outlets for the catchments read, then the accumulation
+// along the trees (include/rimline/flows/catchment_flows.hpp). Private to src/run.
+#include "rimline/run/check_run.hpp"
+
+namespace rimline::run {
+
+// Fills run.catchments with the catchments read and their outlets (also on a dry run, so its
+// findings show before any march).
+void assign_catchment_outlets(const io::Project& project, CheckRun& run);
+
+// Fills run.catchment_flows (after assign_catchment_outlets); returns the design flows for the march.
+flows::DesignFlows catchment_design_flows(const io::Project& project, flows::Split split, CheckRun& run);
+
+}  // namespace rimline::run
