@@ -30,12 +30,13 @@ enum class Unit {
   m_s, ft_s,                                 // velocity
   m2, ha, ft2, acre,                         // area
   one, percent,                              // dimensionless, slope
-  deg_c, deg_f                               // temperature
+  deg_c, deg_f,                              // temperature
+  m_head, ft_head, kpa, psi, bar             // pressure, held as head of water [m]
 };
 
 Dimension dimension_of(Unit u);
 // Accepts the usual spellings: "m", "mm", "ft", "us_ft" / "ftUS", "in", "m3/s", "L/s", "cfs", "MGD",
-// "gpm", "m/s", "ft/s", "ha", "acre", "%", "C", "F" ... Returns nullopt for an unknown spelling.
+// "gpm", "m/s", "ft/s", "ha", "acre", "%", "C", "F", "kPa", "psi", "bar", "m_head", "ft_head" ... Returns nullopt for an unknown spelling.
 std::optional<Unit> parse_unit(std::string_view text);
 std::string_view unit_symbol(Unit u);
 

@@ -8,6 +8,7 @@
 #include <functional>
 #include <sstream>
 
+#include "io/project_force_mains.hpp"
 #include "io/toml_guard.hpp"
 #include "io/toml_section.hpp"
 #include "rimline/error.hpp"
@@ -135,6 +136,7 @@ void read_pipes(TomlSection s, Project& p) {
                           {"length", &pf.length}})
     *dst = f.field_ref(key, Dimension::length);
   pf.flow = f.field_ref("flow", Dimension::flow);
+  pf.rated_pressure = f.field_ref("rated_pressure", Dimension::pressure_head);
   f.finish();
   if (p.shape_from_height && !pf.shape.empty())
     s.fail("shape_from_height", "cannot be used together with pipes.fields.shape; choose one way to give the shape");
@@ -331,7 +333,9 @@ Project parse_project(const std::string& toml_text, const std::string& path_for_
   TomlSection proj = top.table("project");
   TomlSection pipes = top.table("pipes"), structures = top.table("structures"), flows = top.table("flows"),
               tailwater = top.table("tailwater"), methods = top.table("methods"),
-              plausibility = top.table("plausibility"), criteria = top.table("criteria");
+              plausibility = top.table("plausibility"), criteria = top.table("criteria"),
+              force_mains = top.table("force_mains");
+  const toml::node* pump_stations = top.node("pump_stations");
   top.finish();  // a misspelt table name first: it explains a "missing" error that would follow
   p.name = proj.string("name").value_or("");
   p.report_units = proj.choice<units::System>("units", {{"si", units::System::si}, {"us", units::System::us}})
@@ -345,6 +349,8 @@ Project parse_project(const std::string& toml_text, const std::string& path_for_
   read_flows_and_tailwater(flows, tailwater, p);
   read_methods(methods, p);
   read_criteria(criteria, p);
+  detail::read_force_main_settings(force_mains, p);
+  detail::read_pump_stations(pump_stations, p);
   return p;
 }
 

@@ -40,7 +40,8 @@ std::string_view dimension_noun(units::Dimension d) {
 // Spellings offered in "did you mean"; parse_unit accepts more.
 const std::vector<std::string>& unit_suggestions() {
   static const std::vector<std::string> names{"m",   "mm",  "cm",   "ft", "us_ft", "in",  "m3/s", "L/s", "cfs", "MGD",
-                                              "gpm", "m/s", "ft/s", "m2", "ha",    "ft2", "acre", "%",   "C",   "F"};
+                                              "gpm", "m/s", "ft/s", "m2", "ha",    "ft2", "acre", "%",   "C",   "F",
+                                              "kPa", "psi", "bar", "m_head", "ft_head"};
   return names;
 }
 

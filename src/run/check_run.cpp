@@ -1,6 +1,9 @@
 #include "rimline/run/check_run.hpp"
 
+#include <algorithm>
 #include <cmath>
+
+#include "rimline/io/force_main_profile.hpp"
 #include <map>
 #include <tuple>
 
@@ -126,21 +129,86 @@ CheckRun run_check(const io::Project& project, const RunOptions& options) {
   flow_opt.split = project.split_rule == io::SplitRule::field ? flows::Split::field : flows::Split::capacity;
   flow_opt.friction = project.methods.friction;
   flow_opt.default_inflow_m3_s = project.default_inflow_m3_s.value_or(0.0);
-  stage("design flows");
-  run.flows = flows::design_flows(run.read.network, run.topology, flow_opt, run.data_findings);
+
+  std::vector<solve::StationLayout> layouts;
+  if (!project.pump_stations.empty()) {
+    stage("force-main profiles");
+    run.force_main_profiles = io::force_main_profiles(run.read.network, project.force_mains, run.data_findings);
+    layouts = solve::lay_out_stations(run.read.network, run.topology, project.pump_stations, run.force_main_profiles,
+                                      run.data_findings);
+  }
+  auto solve_stations = [&](const std::vector<double>& receiving) {
+    run.pump_stations.clear();
+    for (std::size_t i = 0; i < layouts.size(); ++i)
+      run.pump_stations.push_back(solve::solve_station(run.read.network, project.pump_stations[i], layouts[i],
+                                                       project.force_mains, receiving[i]));
+  };
+  std::vector<double> receiving(layouts.size(), nan);
+  solve_stations(receiving);
 
   std::vector<double> levels = options.tailwater_levels_m.empty() ? project.tailwater_levels_m : options.tailwater_levels_m;
   if (levels.empty()) levels.push_back(nan);  // outfall fields or free outfalls decide
-  for (double tw : levels) {
-    stage("march " + std::to_string(run.cases.size() + 1) + "/" + std::to_string(levels.size()));
-    Case c;
-    c.tailwater_m = tw;
-    c.label = case_label(tw);
-    auto opt = run.march_options;
-    opt.tailwater_m = tw;
-    c.march = solve::march(run.read.network, run.topology, run.flows.flow_m3_s, opt);
-    c.findings = checks::run_checks(run.read.network, c.march, run.criteria, run.overrides);
-    run.cases.push_back(std::move(c));
+  constexpr int max_pump_iterations = 10;
+  Findings flow_findings;
+  bool settled = layouts.empty();
+  for (run.pump_iterations = 1;; ++run.pump_iterations) {
+    flow_opt.fixed_conduit_flow_m3_s.clear();
+    for (const auto& st : run.pump_stations)
+      for (std::size_t ci : st.layout.chain) flow_opt.fixed_conduit_flow_m3_s[ci] = st.design_flow_m3_s;
+    stage("design flows");
+    flow_findings.clear();
+    run.flows = flows::design_flows(run.read.network, run.topology, flow_opt, flow_findings);
+    run.cases.clear();
+    for (double tw : levels) {
+      stage("march " + std::to_string(run.cases.size() + 1) + "/" + std::to_string(levels.size()));
+      Case c;
+      c.tailwater_m = tw;
+      c.label = case_label(tw);
+      auto opt = run.march_options;
+      opt.tailwater_m = tw;
+      c.march = solve::march(run.read.network, run.topology, run.flows.flow_m3_s, opt);
+      c.findings = checks::run_checks(run.read.network, c.march, run.criteria, run.overrides);
+      run.cases.push_back(std::move(c));
+    }
+    if (layouts.empty() || run.pump_iterations >= max_pump_iterations) break;
+    // The receiving structure's level (highest over the cases) is the next discharge level.
+    std::vector<double> before;
+    for (const auto& st : run.pump_stations) before.push_back(st.design_flow_m3_s);
+    for (std::size_t i = 0; i < layouts.size(); ++i) {
+      receiving[i] = nan;
+      if (!layouts[i].ok) continue;
+      for (const auto& c : run.cases) {
+        const auto& r = c.march.structures[layouts[i].discharge];
+        if (r.solved && std::isfinite(r.hgl_m) && !(receiving[i] >= r.hgl_m)) receiving[i] = r.hgl_m;
+      }
+    }
+    solve_stations(receiving);
+    settled = true;
+    for (std::size_t i = 0; i < before.size(); ++i)
+      if (std::abs(run.pump_stations[i].design_flow_m3_s - before[i]) > 0.005 * std::max(before[i], 1e-9)) settled = false;
+    if (settled) break;
+  }
+  for (auto& f : flow_findings) run.data_findings.push_back(std::move(f));
+  if (!settled)
+    run.data_findings.push_back({"FM_NOT_CONVERGED", Severity::warning, LayerRole::project, "pump_stations", "", nan, nan,
+                                 units::Dimension::dimensionless,
+                                 "the pumped flows and the receiving structures' levels did not settle within " +
+                                     std::to_string(max_pump_iterations) +
+                                     " rounds (flow change 0.5 % or more); the pump-station figures are approximate."});
+  const auto& network = run.read.network;
+  for (std::size_t i = 0; i < layouts.size(); ++i) {
+    double inflow = 0.0;
+    if (layouts[i].ok) {
+      const std::size_t ww = layouts[i].wet_well;
+      for (std::size_t ci = 0; ci < network.conduits.size(); ++ci) {
+        const auto& c = network.conduits[ci];
+        if (model::marched(c) && !c.force_main && c.to == ww && std::isfinite(run.flows.flow_m3_s[ci]))
+          inflow += run.flows.flow_m3_s[ci];
+      }
+      if (flow_opt.mode == flows::Mode::structure_inflows)
+        inflow += network.structures[ww].inflow_m3_s.value_or(flow_opt.default_inflow_m3_s);
+    }
+    run.wet_well_inflow_m3_s.push_back(inflow);
   }
   // March problems (blocked, not converged) are the same in every case but the first is kept.
   for (const auto& f : run.cases.front().march.findings) run.data_findings.push_back(f);
@@ -163,6 +231,10 @@ CheckRun run_check(const io::Project& project, const RunOptions& options) {
   }
   run.findings = run.data_findings;
   for (auto& f : worst_per_feature(run.cases)) run.findings.push_back(std::move(f));
+  for (std::size_t i = 0; i < run.pump_stations.size(); ++i)
+    for (auto& f : solve::check_station(net, project.pump_stations[i], run.pump_stations[i], project.force_mains,
+                                        run.wet_well_inflow_m3_s[i]))
+      run.findings.push_back(std::move(f));
   sort_findings(run.findings);
   return run;
 }

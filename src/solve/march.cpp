@@ -158,6 +158,10 @@ class Marcher {
     auto& r = out_.conduits[ci];
     const auto& down = out_.structures[c.to];
     r.flow_m3_s = flow_[ci];
+    if (c.force_main) {  // pressure flow: solved with its pump station (solve/force_main.hpp)
+      r.note = "force main: pressure flow, see the force_mains layer";
+      return;
+    }
     if (!down.solved) {
       r.note = "not checked: the level downstream is unknown";
       return;

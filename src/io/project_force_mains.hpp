@@ -1,0 +1,11 @@
+#pragma once
+// The project file's [[pump_stations]] and [force_mains] tables. Private to src/io.
+#include "io/toml_section.hpp"
+
+namespace rimline::io::detail {
+
+void read_force_main_settings(TomlSection s, Project& p);
+// `array` is the root's pump_stations node (null when absent).
+void read_pump_stations(const toml::node* array, Project& p);
+
+}  // namespace rimline::io::detail
