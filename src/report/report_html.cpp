@@ -6,6 +6,7 @@
 #include <set>
 
 #include "report/html_style.hpp"
+#include "report/pump_station_html.hpp"
 #include "report/sheet_text.hpp"
 #include "rimline/hydraulics/friction.hpp"
 #include "rimline/method_registry.hpp"
@@ -251,8 +252,9 @@ std::string report_html(const run::CheckRun& run, const std::vector<RenderedProf
   h += "<header><div class=\"mark\">rimline</div><h1>Hydraulic grade line review: " + esc(run.project.name) +
        "</h1>\n<p class=\"caution\" id=\"caution-top\">" + esc(caution) + "</p></header>\n<main>\n";
   h += "<nav><a href=\"#summary\">Summary</a> <a href=\"#inputs\">Inputs</a> <a href=\"#methods\">Methods</a> "
-       "<a href=\"#exceptions\">Exceptions</a> <a href=\"#profiles\">Profiles</a> <a href=\"#data-findings\">Data "
-       "findings</a></nav>\n";
+       "<a href=\"#exceptions\">Exceptions</a> " +
+       std::string(run.pump_stations.empty() ? "" : "<a href=\"#pump-stations\">Pump stations</a> ") +
+       "<a href=\"#profiles\">Profiles</a> <a href=\"#data-findings\">Data findings</a></nav>\n";
   h += summary_section(run, date);
   h += inputs_section(run);
   h += methods_section(run);
@@ -260,6 +262,7 @@ std::string report_html(const run::CheckRun& run, const std::vector<RenderedProf
        "tailwater cases, by severity. A structure warning or error opens to its energy budget down to the "
        "outfall.</p>\n";
   h += findings_table(run, criteria, "exception-table", true) + "</section>\n";
+  h += pump_stations_section(run);
   h += profiles_section(profiles, pdf_written, unit(Dimension::length, run.report_units), selection);
   h += data_findings_section(run, data);
   h += "</main>\n<footer><p class=\"caution\" id=\"caution\">" + esc(caution) + "</p></footer>\n</body>\n</html>\n";

@@ -1,0 +1,15 @@
+#pragma once
+// The profile of a pump station's force main, drawn on the same Canvas as the gravity profiles:
+// pipe centreline, the HGL of each operating case, the band between the lowest and highest HGL
+// (the pressure envelope over the cases) and the sub-atmospheric stretches. Private to src/report.
+#include <string>
+
+#include "rimline/run/check_run.hpp"
+
+namespace rimline::report {
+
+// A standalone <svg> element (millimetre units) for run.pump_stations[station]; "" when the
+// station was not laid out.
+std::string force_main_svg(const run::CheckRun& run, std::size_t station);
+
+}  // namespace rimline::report
