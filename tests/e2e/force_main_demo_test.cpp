@@ -1,0 +1,136 @@
+// The demo's pump station end to end: WW-1 lifts through the 150 mm force main FM-1 (vertex Z, over
+// a ridge 400 m out) into T-12 of the trunk. Pinned figures confirmed by hand from the formulas.
+#include <catch2/catch.hpp>
+
+#include <gdal_priv.h>
+#include <ogrsf_frmts.h>
+
+#include <cmath>
+#include <filesystem>
+
+#include "rimline/io/project.hpp"
+#include "rimline/report/outputs.hpp"
+#include "rimline/run/check_run.hpp"
+#include "test_paths.hpp"
+
+using namespace rimline;
+namespace fs = std::filesystem;
+
+namespace {
+
+constexpr double g = units::gravity_m_s2;
+
+std::string demo(const char* variant) {
+  return std::string(test::source_dir) + "/data/demo/" + variant + "/project.toml";
+}
+
+// Hazen-Williams, SI head-loss form (see tests/reference/hydraulics/force_main_reference_test.cpp).
+double hw_loss(double q, double length, double c, double d) {
+  return 10.67 * length * std::pow(q, 1.852) / (std::pow(c, 1.852) * std::pow(d, 4.87));
+}
+
+const Finding* find(const run::CheckRun& r, const std::string& code, const std::string& id) {
+  for (const auto& f : r.findings)
+    if (f.code == code && f.feature_id == id) return &f;
+  return nullptr;
+}
+
+}  // namespace
+
+TEST_CASE("demo pump station WW-1: operating points and the sub-atmospheric ridge by hand", "[force_main][e2e]") {
+  const auto r = run::run_check(io::load_project(demo("metric")), {});
+  REQUIRE(r.pump_stations.size() == 1);
+  const auto& st = r.pump_stations[0];
+  REQUIRE(st.layout.ok);
+  const auto& net = r.read.network;
+  CHECK(net.structures[st.layout.discharge].id == "T-12");
+  CHECK(st.layout.sources.front() == model::ProfileSource::vertex_z);
+  REQUIRE(st.layout.points.size() == 7);
+  // T-12's water level stays below the outlet centreline (invert 6.60 + 0.075 m): a free outlet.
+  CHECK(st.discharge_level_m == Approx(6.675).margin(1e-9));
+  CHECK(st.discharge_basis.rfind("free outlet", 0) == 0);
+  REQUIRE(st.cases.size() == 4);
+  const double area = M_PI * 0.15 * 0.15 / 4.0, c_hw = 130.0, k_fittings = 4 * 0.5 + 2 * 0.3 + 0.4;
+  const hydraulics::PumpCurve pump(r.project.pump_stations[0].curve);
+  for (const auto& c : st.cases) {
+    INFO(c.label);
+    REQUIRE(c.exists);
+    const double q = c.flow_m3_s, v = q / area;
+    // Pump side: n pumps at Q/n on the curve; system side by hand: lift + HW friction + (K + exit 1) V^2/2g.
+    CHECK(c.head_m == Approx(pump.head_m(q / c.pumps)).epsilon(1e-9));
+    CHECK(c.head_m == Approx(6.675 - c.wet_well_m + hw_loss(q, 620.0, c_hw, 0.15) + (k_fittings + 1.0) * v * v / (2 * g))
+                          .epsilon(0.005));
+  }
+  // The largest flow (both pumps, wet well high) enters T-12 and runs down the trunk.
+  CHECK(st.cases[st.design_case].label == "wet well high (pump on), 2 pumps");
+  std::size_t fm = 0;
+  while (net.conduits[fm].id != "FM-1") ++fm;
+  CHECK(r.flows.flow_m3_s[fm] == Approx(st.design_flow_m3_s));
+  // The first gravity march leaves T-12 below the outlet, so the free-outlet solve stands: one round.
+  CHECK(r.pump_iterations == 1);
+  // One pump, wet well low: the HGL at station 450 m (170 m from the outlet) is 6.675 m plus the
+  // friction of those 170 m, below the pipe centreline there (invert 7.95 + 0.075 m).
+  const auto& one = st.cases[0];
+  REQUIRE(one.label == "wet well low (pump off), 1 pump");
+  const double hgl_450 = 6.675 + hw_loss(one.flow_m3_s, 170.0, c_hw, 0.15);
+  const Finding* sub = find(r, "FM_SUBATMOSPHERIC", "FM-1");
+  REQUIRE(sub != nullptr);
+  CHECK(sub->value == Approx(hgl_450 - 8.025).epsilon(0.01));
+  CHECK(sub->value < 0.0);
+  CHECK(render_message(sub->message, units::System::si).find("air-release valve candidate at the high point, station 400.000 m") !=
+        std::string::npos);
+  // Both pumps lift the HGL over the ridge: no sub-atmospheric point in the two-pump cases.
+  for (const auto& c : {st.cases[1], st.cases[3]})
+    for (double p : c.pressure_head_m) CHECK(p > -1e-3);
+  CHECK(find(r, "FM_PRESSURE_RATING", "FM-1") == nullptr);   // PN10: about 102 m of head
+  CHECK(find(r, "FM_VELOCITY_LOW", "FM-1") == nullptr);      // 0.83 .. 1.28 m/s within 0.6 .. 2.5 m/s
+  CHECK(find(r, "PUMP_CAPACITY", "WW-1") == nullptr);        // 15 L/s in, about 21 L/s out at the low level
+}
+
+TEST_CASE("demo pump station: results.gpkg layers, and the US variant shows the same ridge", "[force_main][e2e]") {
+  const auto r = run::run_check(io::load_project(demo("metric")), {});
+  const fs::path out = fs::path(test::binary_dir) / "e2e-force-main";
+  fs::remove_all(out);
+  report::write_outputs(r, out.string());
+  GDALAllRegister();
+  GDALDatasetUniquePtr ds(GDALDataset::Open((out / "results.gpkg").string().c_str(), GDAL_OF_VECTOR | GDAL_OF_READONLY));
+  REQUIRE(ds);
+  for (const auto& [name, count] : {std::pair{"force_mains", 1}, {"force_main_points", 7}, {"pump_cases", 4}}) {
+    OGRLayer* l = ds->GetLayerByName(name);
+    REQUIRE(l != nullptr);
+    CHECK(l->GetFeatureCount() == count);
+  }
+  CHECK(fs::exists(out / "profiles" / "WW-1-force-main.svg"));
+
+  const auto us = run::run_check(io::load_project(demo("us")), {});
+  REQUIRE(us.pump_stations.size() == 1);
+  CHECK(find(us, "FM_SUBATMOSPHERIC", "FM-1") != nullptr);
+  // 6 in (152.4 mm) instead of 150 mm: the design flow is within a few percent of the metric one.
+  CHECK(us.pump_stations[0].design_flow_m3_s == Approx(r.pump_stations[0].design_flow_m3_s).epsilon(0.05));
+}
+
+TEST_CASE("demo pump station under a high tailwater: the pumped flow and T-12's level settle together",
+          "[force_main][e2e]") {
+  run::RunOptions opt;
+  opt.tailwater_levels_m = {7.5};  // drowns T-12 above the force main's outlet (6.675 m)
+  const auto r = run::run_check(io::load_project(demo("metric")), opt);
+  const auto& st = r.pump_stations[0];
+  const auto& t12 = r.cases[0].march.structures[st.layout.discharge];
+  REQUIRE(t12.solved);
+  CHECK(t12.hgl_m > 7.5);
+  CHECK(st.discharge_basis == "water level in T-12 (gravity march)");
+  CHECK(r.pump_iterations >= 2);
+  CHECK(r.pump_iterations < 10);
+  // The last march ran with the flow of the round before; both agree within the 0.5 % stop rule, so
+  // the discharge level is T-12's HGL within what 0.5 % of the pumped flow moves it.
+  CHECK(st.discharge_level_m == Approx(t12.hgl_m).margin(0.01));
+  std::size_t fm = 0;
+  while (r.read.network.conduits[fm].id != "FM-1") ++fm;
+  CHECK(r.flows.flow_m3_s[fm] == Approx(st.design_flow_m3_s).epsilon(0.005));
+  bool not_converged = false;
+  for (const auto& f : r.findings) not_converged |= f.code == "FM_NOT_CONVERGED";
+  CHECK_FALSE(not_converged);
+  // A higher discharge level than the free outlet's lowers the flow.
+  const auto free = run::run_check(io::load_project(demo("metric")), {});
+  CHECK(st.design_flow_m3_s < free.pump_stations[0].design_flow_m3_s);
+}
