@@ -23,6 +23,9 @@ double head_quantity(const std::string& text, const std::string& where) {
 }
 
 std::string resolve(const std::string& source, const std::string& directory) {
+  const auto colon = source.find(':');
+  if (source.rfind("/vsi", 0) == 0 || (colon != std::string::npos && colon >= 2 && source.find('/') > colon))
+    return source;  // a GDAL connection string ("PG:...") or virtual file system path
   const std::filesystem::path path(source);
   if (path.is_absolute()) return path.lexically_normal().string();
   return (std::filesystem::path(directory) / path).lexically_normal().string();
@@ -145,6 +148,12 @@ model::PumpStation read_station(TomlSection s, const Project& p) {
 
 void read_force_main_settings(TomlSection s, Project& p) {
   model::ForceMainSettings& f = p.force_mains;
+  if (const auto source = s.string("source")) {
+    if (source->empty()) s.fail("source", "is empty");
+    p.force_main_layer.source = resolve(*source, p.directory);
+    p.force_main_layer.layer = s.string("layer").value_or("");
+    p.force_main_layer.open_options = s.strings("open_options");
+  }
   if (const auto dem = s.string("dem")) f.dem_source = resolve(*dem, p.directory);
   if (const auto u = s.string("dem_unit")) {
     const auto unit = units::parse_unit(*u);

@@ -34,7 +34,8 @@ PipeColumns resolve_pipe_columns(const PipeFields& f, const OpenLayer& l) {
           idx(f.invert_down.field, "invert_down"),
           idx(f.length.field, "length"),
           idx(f.flow.field, "flow"),
-          idx(f.rated_pressure.field, "rated_pressure")};
+          // Only force mains carry a pipe class: a gravity layer without the field is fine.
+          f.rated_pressure.mapped() ? l.layer->GetLayerDefn()->GetFieldIndex(f.rated_pressure.field.c_str()) : -1};
 }
 
 const FieldRef& diameter_ref(const Project& p) {

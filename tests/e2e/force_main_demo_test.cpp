@@ -3,10 +3,13 @@
 #include <catch2/catch.hpp>
 
 #include <gdal_priv.h>
+#include <gdal_utils.h>
 #include <ogrsf_frmts.h>
 
 #include <cmath>
 #include <filesystem>
+#include <fstream>
+#include <sstream>
 
 #include "rimline/io/project.hpp"
 #include "rimline/report/outputs.hpp"
@@ -133,4 +136,54 @@ TEST_CASE("demo pump station under a high tailwater: the pumped flow and T-12's 
   // A higher discharge level than the free outlet's lowers the flow.
   const auto free = run::run_check(io::load_project(demo("metric")), {});
   CHECK(st.design_flow_m3_s < free.pump_stations[0].design_flow_m3_s);
+}
+
+namespace {
+
+// Copies the features of `src` matching `where` (OGR SQL) into a new GeoJSON file.
+void copy_where(const fs::path& src, const fs::path& dst, const std::string& where) {
+  GDALAllRegister();
+  GDALDatasetH in = GDALOpenEx(src.string().c_str(), GDAL_OF_VECTOR | GDAL_OF_READONLY, nullptr, nullptr, nullptr);
+  REQUIRE(in != nullptr);
+  const char* args[] = {"-f", "GeoJSON", "-where", where.c_str(), nullptr};
+  GDALVectorTranslateOptions* opt = GDALVectorTranslateOptionsNew(const_cast<char**>(args), nullptr);
+  int bad = 0;
+  GDALDatasetH out = GDALVectorTranslate(dst.string().c_str(), nullptr, 1, &in, opt, &bad);
+  GDALVectorTranslateOptionsFree(opt);
+  REQUIRE(out != nullptr);
+  GDALClose(out);
+  GDALClose(in);
+}
+
+}  // namespace
+
+TEST_CASE("force mains from their own line layer give the same station as when flagged in the pipe layer",
+          "[force_main][e2e]") {
+  const fs::path dir = fs::path(test::binary_dir) / "e2e-force-main-layer";
+  fs::remove_all(dir);
+  fs::create_directories(dir);
+  const fs::path demo_dir = fs::path(test::source_dir) / "data/demo/metric";
+  copy_where(demo_dir / "pipes.geojson", dir / "pipes.geojson", "PIPE_ID <> 'FM-1'");
+  copy_where(demo_dir / "pipes.geojson", dir / "force_mains.geojson", "PIPE_ID = 'FM-1'");
+  fs::copy_file(demo_dir / "structures.geojson", dir / "structures.geojson");
+  std::ifstream in(demo_dir / "project.toml");
+  std::stringstream text;
+  text << in.rdbuf();
+  std::string project = text.str();
+  const std::string table = "[force_mains]\n";
+  const auto at = project.find(table);
+  REQUIRE(at != std::string::npos);
+  project.insert(at + table.size(), "source = \"force_mains.geojson\"\n");
+  {
+    std::ofstream out(dir / "project.toml");
+    out << project;
+  }
+  const auto split = run::run_check(io::load_project((dir / "project.toml").string()), {});
+  const auto one = run::run_check(io::load_project(demo("metric")), {});
+  REQUIRE(split.pump_stations.size() == 1);
+  REQUIRE(split.pump_stations[0].layout.ok);
+  CHECK(split.read.network.conduits.back().id == "FM-1");
+  CHECK(split.read.network.conduits.back().force_main);
+  CHECK(split.pump_stations[0].design_flow_m3_s == Approx(one.pump_stations[0].design_flow_m3_s).epsilon(1e-12));
+  CHECK(split.pump_stations[0].layout.points.size() == 7);
 }

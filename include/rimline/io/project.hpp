@@ -46,7 +46,9 @@
 //               discharge = "T-12" (receiving structure; default: where the force-main chain ends),
 //               discharge_level = "9.5 m" (a fixed discharge HGL instead of the gravity march's level),
 //               fittings = [{ k = 0.5, count = 4 }, ...] or k_total = 3.2 (exit loss K = 1 is added)
-//   [force_mains] dem = "ground.tif", dem_unit = "m" (ground raster for mains without vertex Z),
+//   [force_mains] source, layer, open_options (optional: a line layer of force mains read with the
+//               [pipes.fields] mapping, every feature a force main, besides those flagged in the pipe layer),
+//               dem = "ground.tif", dem_unit = "m" (ground raster for mains without vertex Z),
 //               cover = "1.2 m" (ground to crown), spacing = "10 m" (DEM samples along the line),
 //               pressure_min = "0 m" (sub-atmospheric limit, pressure head), velocity_min = "0.6 m/s",
 //               velocity_max = "2.5 m/s", friction = "hazen_williams" | "darcy_weisbach", hazen_c = 120
@@ -177,6 +179,7 @@ struct Project {
   std::map<std::string, CriteriaOverride> conduit_criteria;    // by pipe id
   std::vector<model::PumpStation> pump_stations;               // [[pump_stations]]
   model::ForceMainSettings force_mains;                        // [force_mains]
+  LayerSource force_main_layer;  // [force_mains] source/layer: a line layer of force mains (pipe field mapping)
 };
 
 // Parses and validates a project file. Unknown keys and values of the wrong type are errors. Throws rimline::Error(bad_config) naming the file,
