@@ -13,20 +13,12 @@ namespace {
 
 using units::Dimension;
 
-constexpr double width = 400.0, height = 170.0, left = 28.0, right = 10.0, top = 16.0, bottom = 30.0;
+constexpr double width = 400.0, height = 170.0;
 
 std::string fixed(double v, int decimals) {
   char buf[48];
   std::snprintf(buf, sizeof buf, "%.*f", decimals, v);
   return buf;
-}
-
-// A tick step of 1, 2 or 5 x 10^k giving about `count` intervals over `span`.
-double nice_step(double span, int count) {
-  const double raw = span / count, p = std::pow(10.0, std::floor(std::log10(raw)));
-  for (double m : {1.0, 2.0, 5.0, 10.0})
-    if (m * p >= raw) return m * p;
-  return 10.0 * p;
 }
 
 // Pens by case: weight and dash carry the case so a greyscale print stays readable.
@@ -38,9 +30,11 @@ Pen case_pen(std::size_t k) {
 
 }  // namespace
 
-std::string force_main_svg(const run::CheckRun& run, std::size_t station) {
+void draw_force_main(const run::CheckRun& run, std::size_t station, const Panel& panel, Canvas& c) {
   const auto& st = run.pump_stations[station];
-  if (!st.layout.ok) return "";
+  if (!st.layout.ok) return;
+  // Room for the tick labels and axis titles inside the panel.
+  const double left = panel.left_mm + 18.0, top = panel.top_mm, pw = panel.width_mm - 18.0, ph = panel.height_mm - 14.0;
   const auto sys = run.report_units;
   const auto L = Dimension::length;
   const auto& pts = st.layout.points;
@@ -48,17 +42,15 @@ std::string force_main_svg(const run::CheckRun& run, std::size_t station) {
   double y_lo = INFINITY, y_hi = -INFINITY;
   for (std::size_t i = 0; i < pts.size(); ++i) {
     y_lo = std::min(y_lo, pts[i].centreline_m), y_hi = std::max(y_hi, pts[i].centreline_m);
-    for (const auto& c : st.cases)
-      if (c.exists) y_lo = std::min(y_lo, c.hgl_m[i]), y_hi = std::max(y_hi, c.egl_m[i]);
+    for (const auto& k : st.cases)
+      if (k.exists) y_lo = std::min(y_lo, k.hgl_m[i]), y_hi = std::max(y_hi, k.egl_m[i]);
   }
   y_lo = rep(y_lo), y_hi = rep(y_hi);
   const double x_hi = rep(pts.back().station_m), pad = std::max(0.5, 0.05 * (y_hi - y_lo));
   y_lo -= pad, y_hi += pad;
-  const double pw = width - left - right, ph = height - top - bottom;
   auto at = [&](double station_si, double elev_si) {
     return Pt{left + pw * rep(station_si) / x_hi, top + ph * (1.0 - (rep(elev_si) - y_lo) / (y_hi - y_lo))};
   };
-  SvgCanvas c;
   const Pen frame{0.25, {}, Rgb{0.2, 0.2, 0.2}}, grid{0.1, {}, Rgb{0.8, 0.8, 0.8}};
   const TextStyle small{2.4, Anchor::middle, false, 0.0, Rgb{}};
   const std::string u(units::unit_symbol(units::display_unit(L, sys)));
@@ -134,9 +126,21 @@ std::string force_main_svg(const run::CheckRun& run, std::size_t station) {
   c.text({lx + 15.0, legend_y}, "HGL envelope over the cases; red marks: pressure head below the limit",
          TextStyle{2.4, Anchor::start, false, 0.0, Rgb{}});
 
+}
+
+std::string force_main_title(const run::CheckRun& run, std::size_t station) {
+  const auto& st = run.pump_stations[station];
+  return "Force main of pump station " + run.project.pump_stations[station].id + " to " +
+         run.read.network.structures[st.layout.discharge].id + " (discharge: " + st.discharge_basis + ")";
+}
+
+std::string force_main_svg(const run::CheckRun& run, std::size_t station) {
+  if (!run.pump_stations[station].layout.ok) return "";
   const std::string& id = run.project.pump_stations[station].id;
-  const std::string title = "Force main of pump station " + id + " to " +
-                            run.read.network.structures[st.layout.discharge].id + " (discharge: " + st.discharge_basis + ")";
+  const std::string title = force_main_title(run, station);
+  constexpr double left = 10.0;
+  SvgCanvas c;
+  draw_force_main(run, station, Panel{left, 16.0, width - 2 * left, height - 40.0}, c);
   auto n = [](double v) { return fixed(v, 2); };
   std::string svg = "<svg xmlns=\"http://www.w3.org/2000/svg\" version=\"1.1\" class=\"profile force-main\" id=\"force-main-" +
                     xml_escape(id) + "\" width=\"" + n(width) + "mm\" height=\"" + n(height) + "mm\" viewBox=\"0 0 " +
