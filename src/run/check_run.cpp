@@ -137,6 +137,20 @@ CheckRun run_check(const io::Project& project, const RunOptions& options) {
     layouts = solve::lay_out_stations(run.read.network, run.topology, project.pump_stations, run.force_main_profiles,
                                       run.data_findings);
   }
+  // A force main that no station reaches is left unchecked by both the gravity march and the station solve.
+  {
+    std::vector<bool> in_station(run.read.network.conduits.size(), false);
+    for (const auto& l : layouts)
+      for (std::size_t ci : l.chain) in_station[ci] = true;
+    for (std::size_t ci = 0; ci < run.read.network.conduits.size(); ++ci) {
+      const auto& c = run.read.network.conduits[ci];
+      if (!c.force_main || !model::marched(c) || in_station[ci]) continue;
+      run.data_findings.push_back({"FM_NOT_CHECKED", Severity::info, LayerRole::force_mains, c.id, "", nan, nan,
+                                   units::Dimension::dimensionless,
+                                   "force main " + c.id + " belongs to no [[pump_stations]] entry, so its pressure flow "
+                                   "is not checked; the gravity march leaves force mains to their pump station."});
+    }
+  }
   auto solve_stations = [&](const std::vector<double>& receiving) {
     run.pump_stations.clear();
     for (std::size_t i = 0; i < layouts.size(); ++i)

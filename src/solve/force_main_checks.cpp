@@ -115,13 +115,19 @@ Findings check_station(const model::Network& network, const model::PumpStation& 
   if (!r.layout.ok) return out;
   const std::string& first = network.conduits[r.layout.chain.front()].id;
   const bool any = std::any_of(r.cases.begin(), r.cases.end(), [](const PumpCase& c) { return c.exists; });
+  const double shutoff = spec.curve.empty() ? nan : spec.curve.front().head_m;
   for (const auto& c : r.cases) {
     if (c.exists) continue;
-    out.push_back(fm("FM_NO_OPERATING_POINT", any ? Severity::warning : Severity::error, first, c.static_lift_m, nan,
+    const std::string why =
+        c.static_lift_m >= shutoff
+            ? "the static lift " + q(c.static_lift_m, Dimension::length) + " reaches the shut-off head " +
+                  q(shutoff, Dimension::length) + ", so the pumps cannot open their check valves"
+            : "the system needs less head than the pump curve's last point gives, so the pumps would run out beyond "
+              "their curve (static lift " + q(c.static_lift_m, Dimension::length) + ")";
+    out.push_back(fm("FM_NO_OPERATING_POINT", any ? Severity::warning : Severity::error, first, c.static_lift_m, shutoff,
                      Dimension::length,
-                     "pump station " + spec.id + " (" + c.label + "): the pump curve and the system curve do not meet " +
-                         "(static lift " + q(c.static_lift_m, Dimension::length) + "; shut-off head above it and run-out " +
-                         "within the curve are both needed), so the pumps deliver no steady flow in this case."));
+                     "pump station " + spec.id + " (" + c.label + "): the pump and system curves do not meet: " + why +
+                         "; no steady flow is computed for this case."));
   }
   subatmospheric(network, r, settings.pressure_min_m, out);
   rating(network, r, out);
@@ -134,8 +140,8 @@ Findings check_station(const model::Network& network, const model::PumpStation& 
     out.push_back({"PUMP_CAPACITY", Severity::warning, LayerRole::structures, spec.id, "", wet_well_inflow_m3_s, capacity,
                    Dimension::flow,
                    "pump station " + spec.id + ": the design inflow " + q(wet_well_inflow_m3_s, Dimension::flow) +
-                       " exceeds the " + std::to_string(spec.duty_pumps) + " duty pump(s)' " +
-                       q(capacity, Dimension::flow) + " at the low wet-well level; the wet well would overflow."});
+                       " exceeds the " + q(capacity, Dimension::flow) + " that all " + std::to_string(spec.duty_pumps) +
+                       " duty pumps deliver at the low wet-well level; the wet well would fill and overflow."});
   return out;
 }
 

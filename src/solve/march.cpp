@@ -159,7 +159,7 @@ class Marcher {
     const auto& down = out_.structures[c.to];
     r.flow_m3_s = flow_[ci];
     if (c.force_main) {  // pressure flow: solved with its pump station (solve/force_main.hpp)
-      r.note = "force main: pressure flow, see the force_mains layer";
+      r.note = "force main: pressure flow, solved with its pump station ([[pump_stations]])";
       return;
     }
     if (!down.solved) {

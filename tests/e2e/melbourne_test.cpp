@@ -40,6 +40,7 @@ TEST_CASE("Melbourne export: the whole network marches, findings are counted, no
   // The rising mains (RM, EO-RM) run under pressure: the gravity march leaves them to the
   // pump-station solve, so they are not among the solved conduits.
   CHECK(force_mains == 108);       // 81 RM + 27 EO-RM features in the export
+  CHECK(codes["FM_NOT_CHECKED"] == 108);  // the project defines no pump stations: each main says it is unchecked
   CHECK(conduits_solved >= 1900);  // measured 1988 of the 2144 gravity pipes (2026-12-02; 2096 with the mains)
   // Every solved conduit keeps the energy invariants.
   for (const auto& c : r.cases[0].march.conduits) {

@@ -15,7 +15,8 @@
 //   FM_NO_OPERATING_POINT warning/error  a case where pump and system curves do not meet (error
 //                               when no case has an operating point)
 //   FM_NOT_CHECKED     error    (layer project) the station cannot be laid out: unknown wet well,
-//                               no force main leaving it, discharge structure not on the main, no profile
+//                               no force main leaving it, discharge structure not on the main, no profile;
+//                      info     (layer force_mains, from src/run) a force main no station reaches
 //   PUMP_CAPACITY      warning  (layer structures) the wet well's design inflow exceeds what all
 //                               duty pumps deliver at the low wet-well level
 //   FM_NOT_CONVERGED   warning  (run) the pumped flow and the receiving level did not settle

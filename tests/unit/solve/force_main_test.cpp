@@ -220,3 +220,18 @@ TEST_CASE("force main: a station that cannot be laid out is FM_NOT_CHECKED with 
         "x.toml: line 1: key pump_stations[1].id: pump station WW: force main FM has no vertical profile (no usable "
         "line); the station is not checked.");
 }
+
+TEST_CASE("force main: the no-operating-point message says why", "[force_main]") {
+  auto f = fixture();
+  f.spec.discharge_level_m = 40.0;
+  f.spec.duty_pumps = 1;
+  Findings findings;
+  const auto layout = solve::lay_out_stations(f.net, f.topo, {f.spec}, f.profiles, findings).front();
+  const auto r = solve::solve_station(f.net, f.spec, layout, f.settings, NAN);
+  const auto out = solve::check_station(f.net, f.spec, r, f.settings, 0.0);
+  REQUIRE(!out.empty());
+  CHECK(render_message(out.front().message, units::System::si) ==
+        "pump station WW (wet well low (pump off), 1 pump): the pump and system curves do not meet: the static lift "
+        "39.000 m reaches the shut-off head 30.000 m, so the pumps cannot open their check valves; no steady flow is "
+        "computed for this case.");
+}
