@@ -14,11 +14,21 @@ using units::Dimension;
 
 std::string esc(std::string_view s) { return xml_escape(s); }
 
+// Flows of small stations need a fourth decimal (0.0147 m3/s); the rest keeps the report's three.
 std::string val(double si, Dimension d, units::System sys) {
   if (!std::isfinite(si)) return "";
   char buf[48];
-  std::snprintf(buf, sizeof buf, "%.3f", to_report(si, d, sys));
+  std::snprintf(buf, sizeof buf, d == Dimension::flow ? "%.4f" : "%.3f", to_report(si, d, sys));
   return buf;
+}
+
+std::string friction_text(const model::ForceMainSettings& s) {
+  if (s.friction == hydraulics::FrictionLaw::hazen_williams) {
+    char buf[64];
+    std::snprintf(buf, sizeof buf, "Hazen-Williams (C %.0f)", s.hazen_c);
+    return buf;
+  }
+  return "Darcy-Weisbach with Colebrook-White (each pipe's ks)";
 }
 
 std::string unit(Dimension d, units::System sys) { return std::string(units::unit_symbol(units::display_unit(d, sys))); }
@@ -75,7 +85,7 @@ std::string pump_stations_section(const run::CheckRun& run) {
   if (run.pump_stations.empty()) return "";
   std::string h = "<section id=\"pump-stations\"><h2>Pump stations and force mains</h2>\n<p>Operating points where the "
                   "pump curve meets the force main's system curve (static lift to the discharge level, friction by " +
-                  std::string(hydraulics::friction_law_name(run.project.force_mains.friction)) +
+                  friction_text(run.project.force_mains) +
                   ", fittings and exit losses), at the low and the high wet-well level with one and with all duty pumps. "
                   "Pressure heads are steady operating values along the pipe centreline; surge (water hammer) is not "
                   "computed. The force-main profiles are among the drawings below.</p>\n";

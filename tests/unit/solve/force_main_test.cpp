@@ -235,3 +235,19 @@ TEST_CASE("force main: the no-operating-point message says why", "[force_main]")
         "39.000 m reaches the shut-off head 30.000 m, so the pumps cannot open their check valves; no steady flow is "
         "computed for this case.");
 }
+
+TEST_CASE("force main: Darcy-Weisbach friction uses the pipe's ks and the water's viscosity", "[force_main]") {
+  auto f = fixture();
+  f.settings.friction = hydraulics::FrictionLaw::darcy_weisbach;
+  f.net.conduits[1].roughness.ks_m = 0.1e-3;
+  f.net.conduits[1].roughness.kinematic_viscosity_m2_s = 1.139e-6;  // water at 15 degC (from memory)
+  Findings findings;
+  const auto layout = solve::lay_out_stations(f.net, f.topo, {f.spec}, f.profiles, findings).front();
+  const auto r = solve::solve_station(f.net, f.spec, layout, f.settings, NAN);
+  for (const auto& c : r.cases) {
+    REQUIRE(c.exists);
+    // hf = f L/D V^2/2g with f from Colebrook-White at Re = V D / nu and ks / D (the friction module's own solver).
+    const double v = c.flow_m3_s / (M_PI * 0.01), fr = hydraulics::darcy_friction_factor(v * 0.2 / 1.139e-6, 0.1e-3 / 0.2);
+    CHECK(c.egl_m.front() - c.egl_m.back() == Approx(fr * 500.0 / 0.2 * v * v / (2 * g)).epsilon(1e-9));
+  }
+}
