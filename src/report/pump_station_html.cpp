@@ -47,10 +47,24 @@ std::string station_block(const run::CheckRun& run, std::size_t i) {
   std::string h = "<h3 id=\"pump-station-" + esc(spec.id) + "\">Pump station " + esc(spec.id) + "</h3>\n";
   if (!st.layout.ok) return h + "<p>Not checked: " + esc(st.layout.note) + ".</p>\n";
   const auto& net = run.read.network;
-  std::string mains;
-  for (std::size_t ci : st.layout.chain) mains += (mains.empty() ? "" : ", ") + esc(net.conduits[ci].id);
+  std::string mains, profiles;
+  for (std::size_t j = 0; j < st.layout.chain.size(); ++j) {
+    const auto& c = net.conduits[st.layout.chain[j]];
+    const auto source = st.layout.sources[j];
+    mains += (mains.empty() ? "" : ", ") + esc(c.id) + " (" + val(hydraulics::rise_m(c.section), L, sys) + " " +
+             unit(L, sys) + ", " + val(c.length_m, L, sys) + " " + unit(L, sys) +
+             (c.rated_pressure_head_m ? ", rated " + val(*c.rated_pressure_head_m, Dimension::pressure_head, sys) + " " +
+                                            unit(L, sys) + " of head"
+                                      : "") +
+             ")";
+    profiles += (profiles.empty() ? "" : ", ") + esc(c.id) + ": " +
+                (source == model::ProfileSource::vertex_z ? "vertex Z"
+                 : source == model::ProfileSource::dem    ? "ground DEM minus cover"
+                                                          : "end inverts only (coarse: high points between unseen)");
+  }
   h += "<table class=\"kv\">\n";
   h += row({"Force main", mains + " to " + esc(net.structures[st.layout.discharge].id)});
+  h += row({"Vertical profile", profiles + "; " + std::to_string(st.layout.points.size()) + " profile points"});
   h += row({"Wet-well levels", "pump off " + val(spec.pump_off_m, L, sys) + ", pump on " + val(spec.pump_on_m, L, sys) +
                                    " " + unit(L, sys)});
   h += row({"Duty pumps", std::to_string(spec.duty_pumps) + " identical, in parallel"});
