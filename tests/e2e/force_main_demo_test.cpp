@@ -103,7 +103,26 @@ TEST_CASE("demo pump station: results.gpkg layers, and the US variant shows the 
     REQUIRE(l != nullptr);
     CHECK(l->GetFeatureCount() == count);
   }
-  CHECK(fs::exists(out / "profiles" / "WW-1-force-main.svg"));
+  // The force-main drawing: one HGL per case, the envelope, and one red mark per profile point and
+  // case below the 0 m limit (counted from the cases' pressure heads).
+  std::ifstream svg_in(out / "profiles" / "WW-1-force-main.svg");
+  std::stringstream svg;
+  svg << svg_in.rdbuf();
+  const std::string text = svg.str();
+  auto count = [&text](const std::string& what) {
+    std::size_t n = 0;
+    for (auto at = text.find(what); at != std::string::npos; at = text.find(what, at + 1)) ++n;
+    return n;
+  };
+  CHECK(count("<g class=\"hgl-case\">") == 4);
+  CHECK(count("<g class=\"pressure-envelope\">") == 1);
+  std::size_t below = 0;
+  for (const auto& c : r.pump_stations[0].cases)
+    for (double p : c.pressure_head_m) below += p < -1e-3 ? 1 : 0;
+  CHECK(below >= 2);
+  CHECK(count("<g class=\"subatmospheric\">") == below);
+  CHECK(count("nan") == 0);
+  CHECK(text.find("Results are for review by a licensed professional engineer") != std::string::npos);
 
   const auto us = run::run_check(io::load_project(demo("us")), {});
   REQUIRE(us.pump_stations.size() == 1);
