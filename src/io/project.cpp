@@ -334,7 +334,8 @@ Project parse_project(const std::string& toml_text, const std::string& path_for_
   TomlSection pipes = top.table("pipes"), structures = top.table("structures"), flows = top.table("flows"),
               tailwater = top.table("tailwater"), methods = top.table("methods"),
               plausibility = top.table("plausibility"), criteria = top.table("criteria"),
-              force_mains = top.table("force_mains");
+              force_mains = top.table("force_mains"), pump_curves = top.table("pump_curves"),
+              pump_points = top.table("pump_station_points");
   const toml::node* pump_stations = top.node("pump_stations");
   top.finish();  // a misspelt table name first: it explains a "missing" error that would follow
   p.name = proj.string("name").value_or("");
@@ -350,7 +351,9 @@ Project parse_project(const std::string& toml_text, const std::string& path_for_
   read_methods(methods, p);
   read_criteria(criteria, p);
   detail::read_force_main_settings(force_mains, p);
+  detail::read_pump_curves(pump_curves, p);
   detail::read_pump_stations(pump_stations, p);
+  detail::read_pump_station_points(pump_points, p);
   return p;
 }
 

@@ -71,15 +71,16 @@ std::vector<hydraulics::CurvePoint> read_curve_table(TomlSection t, const std::s
   return out;
 }
 
-std::vector<hydraulics::CurvePoint> read_curve_points(TomlSection& s, const toml::node* node) {
+std::vector<hydraulics::CurvePoint> read_curve_points(TomlSection& s, const toml::node* node,
+                                                     std::string_view key = "curve") {
   const toml::array* points = node->as_array();
-  if (!points) s.fail_at(node, "curve", "expected [[\"<flow>\", \"<head>\"], ...]");
+  if (!points) s.fail_at(node, key, "expected [[\"<flow>\", \"<head>\"], ...]");
   std::vector<hydraulics::CurvePoint> out;
   for (const toml::node& item : *points) {
     const toml::array* pair = item.as_array();
     if (!pair || pair->size() != 2 || !(*pair)[0].is_string() || !(*pair)[1].is_string())
-      s.fail_at(&item, "curve", "each point must be a pair of quantity strings [\"<flow>\", \"<head>\"]");
-    const std::string where = s.file() + ": " + s.where(&item, "curve");
+      s.fail_at(&item, key, "each point must be a pair of quantity strings [\"<flow>\", \"<head>\"]");
+    const std::string where = s.file() + ": " + s.where(&item, key);
     out.push_back({parse_quantity(std::string((*pair)[0].as_string()->get()), Dimension::flow, where),
                    head_quantity(std::string((*pair)[1].as_string()->get()), where)});
   }
@@ -130,7 +131,14 @@ model::PumpStation read_station(TomlSection s, const Project& p) {
   TomlSection table = s.table("curve_table");
   if (curve && table.present()) s.fail("curve_table", "give either curve or curve_table, not both");
   if (!curve && !table.present()) s.fail("curve", "the pump curve is missing (curve = [[\"0 L/s\", \"30 m\"], ...])");
-  st.curve = curve ? read_curve_points(s, curve) : read_curve_table(table, p.directory);
+  if (curve && curve->is_string()) {  // the name of a [pump_curves] entry
+    const std::string name(curve->as_string()->get());
+    const auto it = p.pump_curves.find(name);
+    if (it == p.pump_curves.end()) s.fail("curve", "\"" + name + "\" is not a [pump_curves] entry");
+    st.curve = it->second;
+  } else {
+    st.curve = curve ? read_curve_points(s, curve) : read_curve_table(table, p.directory);
+  }
   try {
     hydraulics::PumpCurve check(st.curve);
   } catch (const Error& e) {
@@ -174,6 +182,44 @@ void read_force_main_settings(TomlSection s, Project& p) {
                    .value_or(f.friction);
   f.hazen_c = s.number("hazen_c").value_or(f.hazen_c);
   if (!(f.hazen_c >= 40.0 && f.hazen_c <= 160.0)) s.fail("hazen_c", "must be between 40 and 160");
+  s.finish();
+}
+
+void read_pump_curves(TomlSection s, Project& p) {
+  for (const auto& [name, node] : s.entries()) {
+    auto points = read_curve_points(s, node, name);
+    try {
+      hydraulics::PumpCurve check(points);
+    } catch (const Error& e) {
+      s.fail_at(node, name, e.what());
+    }
+    p.pump_curves[name] = std::move(points);
+  }
+}
+
+void read_pump_station_points(TomlSection s, Project& p) {
+  if (!s.present()) return;
+  const auto source = s.string("source");
+  if (!source || source->empty()) s.fail("source", "the point layer's source is missing");
+  p.pump_station_points.source = resolve(*source, p.directory);
+  p.pump_station_points.layer = s.string("layer").value_or("");
+  p.pump_station_points.open_options = s.strings("open_options");
+  TomlSection f = s.table("fields");
+  PumpStationFields& pf = p.pump_station_fields;
+  for (auto [key, dst] : {std::pair<std::string_view, std::string*>{"id", &pf.id},
+                          {"duty_pumps", &pf.duty_pumps},
+                          {"discharge", &pf.discharge},
+                          {"curve", &pf.curve},
+                          {"fittings_k", &pf.fittings_k}})
+    *dst = f.string(key).value_or("");
+  pf.pump_on = f.field_ref("pump_on", Dimension::length);
+  pf.pump_off = f.field_ref("pump_off", Dimension::length);
+  for (auto [key, mapped] : {std::pair<std::string_view, bool>{"id", !pf.id.empty()},
+                             {"curve", !pf.curve.empty()},
+                             {"pump_on", pf.pump_on.mapped()},
+                             {"pump_off", pf.pump_off.mapped()}})
+    if (!mapped) f.fail(key, "must be mapped (a pump station needs it)");
+  f.finish();
   s.finish();
 }
 

@@ -4,6 +4,7 @@
 #include <cmath>
 
 #include "rimline/io/force_main_profile.hpp"
+#include "rimline/io/read_pump_stations.hpp"
 #include <map>
 #include <tuple>
 
@@ -130,11 +131,15 @@ CheckRun run_check(const io::Project& project, const RunOptions& options) {
   flow_opt.friction = project.methods.friction;
   flow_opt.default_inflow_m3_s = project.default_inflow_m3_s.value_or(0.0);
 
+  // Stations of a point layer join the project file's; run.project holds them all from here on.
+  for (auto& st : io::read_pump_station_points(project, project.pump_stations, run.data_findings))
+    run.project.pump_stations.push_back(std::move(st));
+  const auto& stations = run.project.pump_stations;
   std::vector<solve::StationLayout> layouts;
-  if (!project.pump_stations.empty()) {
+  if (!stations.empty()) {
     stage("force-main profiles");
     run.force_main_profiles = io::force_main_profiles(run.read.network, project.force_mains, run.data_findings);
-    layouts = solve::lay_out_stations(run.read.network, run.topology, project.pump_stations, run.force_main_profiles,
+    layouts = solve::lay_out_stations(run.read.network, run.topology, stations, run.force_main_profiles,
                                       run.data_findings);
   }
   // A force main that no station reaches is left unchecked by both the gravity march and the station solve.
@@ -154,7 +159,7 @@ CheckRun run_check(const io::Project& project, const RunOptions& options) {
   auto solve_stations = [&](const std::vector<double>& receiving) {
     run.pump_stations.clear();
     for (std::size_t i = 0; i < layouts.size(); ++i)
-      run.pump_stations.push_back(solve::solve_station(run.read.network, project.pump_stations[i], layouts[i],
+      run.pump_stations.push_back(solve::solve_station(run.read.network, stations[i], layouts[i],
                                                        project.force_mains, receiving[i]));
   };
   std::vector<double> receiving(layouts.size(), nan);
@@ -246,7 +251,7 @@ CheckRun run_check(const io::Project& project, const RunOptions& options) {
   run.findings = run.data_findings;
   for (auto& f : worst_per_feature(run.cases)) run.findings.push_back(std::move(f));
   for (std::size_t i = 0; i < run.pump_stations.size(); ++i)
-    for (auto& f : solve::check_station(net, project.pump_stations[i], run.pump_stations[i], project.force_mains,
+    for (auto& f : solve::check_station(net, run.project.pump_stations[i], run.pump_stations[i], project.force_mains,
                                         run.wet_well_inflow_m3_s[i]))
       run.findings.push_back(std::move(f));
   sort_findings(run.findings);

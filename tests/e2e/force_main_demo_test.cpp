@@ -206,3 +206,55 @@ TEST_CASE("force mains from their own line layer give the same station as when f
   CHECK(split.pump_stations[0].design_flow_m3_s == Approx(one.pump_stations[0].design_flow_m3_s).epsilon(1e-12));
   CHECK(split.pump_stations[0].layout.points.size() == 7);
 }
+
+TEST_CASE("pump stations from a point layer: the demo's station read from points, bad features left out",
+          "[force_main][e2e]") {
+  const fs::path dir = fs::path(test::binary_dir) / "e2e-pump-station-points";
+  fs::remove_all(dir);
+  fs::create_directories(dir);
+  const fs::path demo_dir = fs::path(test::source_dir) / "data/demo/metric";
+  for (const char* f : {"pipes.geojson", "structures.geojson"}) fs::copy_file(demo_dir / f, dir / f);
+  std::ifstream in(demo_dir / "project.toml");
+  std::stringstream text;
+  text << in.rdbuf();
+  std::string project = text.str();
+  // The [[pump_stations]] table gives way to a named curve and a point layer with the same values.
+  const auto from = project.find("[[pump_stations]]"), to = project.find("[force_mains]");
+  REQUIRE(from != std::string::npos);
+  REQUIRE(to != std::string::npos);
+  const std::string station = project.substr(from, to - from);
+  const auto curve_at = station.find("curve = ");
+  const std::string curve = station.substr(curve_at + 8, station.find('\n', curve_at) - curve_at - 8);
+  project.replace(from, to - from,
+                  "[pump_curves]\nDEMO = " + curve +
+                      "\n\n[pump_station_points]\nsource = \"stations.geojson\"\n[pump_station_points.fields]\n"
+                      "id = \"WW\"\ncurve = \"CURVE\"\nduty_pumps = \"DUTY\"\nfittings_k = \"K\"\n"
+                      "pump_on = { field = \"ON\", unit = \"m\" }\npump_off = { field = \"OFF\", unit = \"m\" }\n\n");
+  {
+    std::ofstream out(dir / "project.toml");
+    out << project;
+  }
+  {
+    std::ofstream out(dir / "stations.geojson");
+    out << R"({"type":"FeatureCollection","crs":{"type":"name","properties":{"name":"urn:ogc:def:crs:EPSG::32631"}},
+"features":[
+{"type":"Feature","properties":{"WW":"WW-1","CURVE":"DEMO","DUTY":2,"K":3.0,"ON":3.0,"OFF":1.8},"geometry":{"type":"Point","coordinates":[451386,5384741]}},
+{"type":"Feature","properties":{"WW":"WW-2","CURVE":"DEMO","DUTY":1,"K":1.0,"ON":null,"OFF":1.8},"geometry":{"type":"Point","coordinates":[451300,5384700]}},
+{"type":"Feature","properties":{"WW":"WW-3","CURVE":"DEM0","DUTY":1,"K":1.0,"ON":3.0,"OFF":1.8},"geometry":{"type":"Point","coordinates":[451300,5384600]}}
+]})";
+  }
+  const auto points = run::run_check(io::load_project((dir / "project.toml").string()), {});
+  const auto table = run::run_check(io::load_project(demo("metric")), {});
+  REQUIRE(points.pump_stations.size() == 1);
+  CHECK(points.project.pump_stations[0].id == "WW-1");
+  CHECK(points.pump_stations[0].design_flow_m3_s == Approx(table.pump_stations[0].design_flow_m3_s).epsilon(1e-12));
+  const Finding* no_level = find(points, "DATA_MISSING", "WW-2");
+  REQUIRE(no_level != nullptr);
+  CHECK(no_level->layer == LayerRole::pump_stations);
+  CHECK(no_level->field == "ON");
+  CHECK(no_level->message == "ON is empty: no pump-on level; the pump station is left out.");
+  const Finding* no_curve = find(points, "DATA_IMPLAUSIBLE", "WW-3");
+  REQUIRE(no_curve != nullptr);
+  CHECK(no_curve->message ==
+        "CURVE \"DEM0\" names no [pump_curves] entry (did you mean \"DEMO\"?); the pump station is left out.");
+}

@@ -52,6 +52,12 @@
 //               cover = "1.2 m" (ground to crown), spacing = "10 m" (DEM samples along the line),
 //               pressure_min = "0 m" (sub-atmospheric limit, pressure head), velocity_min = "0.6 m/s",
 //               velocity_max = "2.5 m/s", friction = "hazen_williams" | "darcy_weisbach", hazen_c = 120
+//   [pump_curves] NAME = [["0 L/s", "32 m"], ...]   (named curves; a station's curve = "NAME" uses one)
+//   [pump_station_points] source, layer, open_options: pump stations as a point layer, besides
+//               [[pump_stations]]; [pump_station_points.fields] id (wet-well structure id), curve (a
+//               [pump_curves] name), duty_pumps, discharge, fittings_k -> "FIELD";
+//               pump_on, pump_off -> { field, unit }. A feature with a data problem is a finding
+//               (layer pump_stations) and is left out; the rest are checked.
 //   pipes.fields.rated_pressure = { field = "CLASS_KPA", unit = "kPa" }  (kPa, psi, bar, m_head, ft_head)
 //   Vertex Z of a force main's line is the pipe invert at that vertex, in the CRS's vertical unit.
 #include <map>
@@ -84,6 +90,12 @@ struct PipeFields {
   std::string id, from, to, shape, material, manning_n, split, force_main;
   FieldRef diameter, width, height, ks, invert_up, invert_down, length, flow;
   FieldRef rated_pressure;  // force mains: pipe class pressure (kPa, psi, bar, m_head, ft_head)
+};
+
+// [pump_station_points.fields]: a point layer of pump stations (one per wet well).
+struct PumpStationFields {
+  std::string id, duty_pumps, discharge, curve, fittings_k;  // curve: names a [pump_curves] entry
+  FieldRef pump_on, pump_off;
 };
 
 struct PipeDefaults {
@@ -180,6 +192,9 @@ struct Project {
   std::vector<model::PumpStation> pump_stations;               // [[pump_stations]]
   model::ForceMainSettings force_mains;                        // [force_mains]
   LayerSource force_main_layer;  // [force_mains] source/layer: a line layer of force mains (pipe field mapping)
+  LayerSource pump_station_points;            // [pump_station_points] source/layer (empty: none)
+  PumpStationFields pump_station_fields;
+  std::map<std::string, std::vector<hydraulics::CurvePoint>> pump_curves;  // [pump_curves] by name
 };
 
 // Parses and validates a project file. Unknown keys and values of the wrong type are errors. Throws rimline::Error(bad_config) naming the file,

@@ -135,3 +135,49 @@ curve = [["0 L/s", "20 m"], ["10 L/s", "12 m"]]
         "/proj/run.toml: line 6: key force_mains.friction: \"manning\" is not one of \"hazen_williams\", "
         "\"darcy_weisbach\"");
 }
+
+TEST_CASE("named pump curves and the pump-station point layer's mapping", "[project][force_main]") {
+  const auto p = io::parse_project(base + R"(
+[pump_curves]
+SMALL = [["0 L/s", "16 m"], ["20 L/s", "2 m"]]
+
+[[pump_stations]]
+id = "WW-1"
+pump_on = "3 m"
+pump_off = "2 m"
+curve = "SMALL"
+
+[pump_station_points]
+source = "stations.gpkg"
+[pump_station_points.fields]
+id = "WW"
+curve = "CURVE"
+pump_on = { field = "ON", unit = "ft" }
+pump_off = { field = "OFF", unit = "ft" }
+)",
+                                   "/proj/run.toml");
+  REQUIRE(p.pump_stations.size() == 1);
+  CHECK(p.pump_stations[0].curve.size() == 2);
+  CHECK(p.pump_stations[0].curve[1].flow_m3_s == Approx(0.02));
+  CHECK(p.pump_station_points.source == "/proj/stations.gpkg");
+  CHECK(p.pump_station_fields.pump_on.unit == units::Unit::ft);
+  CHECK(error_of(base + R"(
+[[pump_stations]]
+id = "WW-1"
+pump_on = "3 m"
+pump_off = "2 m"
+curve = "BIG"
+)") == "/proj/run.toml: line 10: key pump_stations[1].curve: \"BIG\" is not a [pump_curves] entry");
+  CHECK(error_of(base + R"(
+[pump_curves]
+UP = [["0 L/s", "16 m"], ["20 L/s", "18 m"]]
+)") == "/proj/run.toml: line 7: key pump_curves.UP: pump curve heads must fall strictly with flow (point 2)");
+  CHECK(error_of(base + R"(
+[pump_station_points]
+source = "s.gpkg"
+[pump_station_points.fields]
+id = "WW"
+curve = "C"
+pump_on = { field = "ON", unit = "m" }
+)") == "/proj/run.toml: line 8: key pump_station_points.fields.pump_off: must be mapped (a pump station needs it)");
+}
