@@ -132,7 +132,8 @@ CheckRun run_check(const io::Project& project, const RunOptions& options) {
   flow_opt.default_inflow_m3_s = project.default_inflow_m3_s.value_or(0.0);
 
   // Stations of a point layer join the project file's; run.project holds them all from here on.
-  for (auto& st : io::read_pump_station_points(project, project.pump_stations, run.data_findings))
+  for (auto& st : io::read_pump_station_points(project, project.pump_stations, run.data_findings,
+                                                   run.read.input_files))
     run.project.pump_stations.push_back(std::move(st));
   const auto& stations = run.project.pump_stations;
   std::vector<solve::StationLayout> layouts;

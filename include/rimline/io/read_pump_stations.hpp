@@ -13,8 +13,9 @@
 namespace rimline::io {
 
 // The stations of the point layer; `existing` are the [[pump_stations]] entries (for duplicates).
+// The layer's files are added to `input_files` (hashed in the summary) when not there yet.
 std::vector<model::PumpStation> read_pump_station_points(const Project& project,
                                                          const std::vector<model::PumpStation>& existing,
-                                                         Findings& findings);
+                                                         Findings& findings, std::vector<std::string>& input_files);
 
 }  // namespace rimline::io
