@@ -10,7 +10,11 @@ Catchments (catchments.geojson): a rectangle beside each inlet that takes a loca
 left of the pipe leaving it, and an upland catchment beyond the trunk head that names T-20 in its
 OUTLET field; land_use.geojson holds a park and a commercial block for the composite C.
 project-rational.toml runs the same network with the Rational Method (seeded: catchment K-C03 is
-drawn off its inlet, so the nearest structure takes it). Deterministic: no random numbers.
+drawn off its inlet, so the nearest structure takes it).
+A pump station (wet well WW-1) south of the trunk lifts its inflow through the 150 mm force main
+FM-1 over a ridge into T-12 (pump_station() below); with one pump running the HGL passes under the
+ridge, a sub-atmospheric high point.
+Deterministic: no random numbers.
 """
 import json, math, os, sys
 
@@ -267,12 +271,77 @@ def rational_project(text, units):
     extra = RATIONAL.format(search="30 m" if units == "si" else "100 ft", idf=IDF_SI if units == "si" else idf_table_us())
     return text.replace("\n[tailwater]", extra + "\n[tailwater]", 1)
 
+# Pump station WW-1 and force main FM-1 (invented). The main runs 620 m north to T-12; its vertex Z
+# (pipe invert, in the CRS's vertical unit) climbs to a ridge 400 m out, then falls to the outlet.
+FORCE_MAIN_PROFILE = [  # (distance from WW-1 [m], pipe invert [m])
+    (0.0, 6.00), (100.0, 6.80), (250.0, 7.60), (400.0, 8.12), (450.0, 7.95), (520.0, 7.30), (620.0, 6.60)]
+
+def pump_station(nodes, pipes):
+    """Adds the wet well WW-1 (local inflow 15 L/s) and the force main FM-1 to T-12."""
+    t12 = next(n for n in nodes if n["id"] == "T-12")
+    nodes.append(dict(id="WW-1", type="PS", x=t12["x"], y=t12["y"] - 620.0, invert=1.00, rim=8.00, inflow=15.0))
+    pipes.append(dict(id="FM-1", up="WW-1", down="T-12", dia=150, mat="PVC", inv_up=6.00, inv_down=6.60))
+
+def force_main_features(pf, units):
+    """Gives FM-1 its profile vertices with Z, a pipe class and the force-main flag; the rest GRAVITY."""
+    for f in pf:
+        p = f["properties"]
+        p["KIND"] = "FM" if p["PIPE_ID"] == "FM-1" else "GRAVITY"
+        if p["PIPE_ID"] != "FM-1":
+            continue
+        (x0, y0), (x1, y1) = f["geometry"]["coordinates"][0], f["geometry"]["coordinates"][-1]
+        total = FORCE_MAIN_PROFILE[-1][0]
+        z_scale = 1.0 if units == "si" else FT_PER_M_US   # the CRS's vertical unit (US survey feet)
+        f["geometry"]["coordinates"] = [
+            [round(x0 + (x1 - x0) * d / total, 3), round(y0 + (y1 - y0) * d / total, 3), round(z * z_scale, 3)]
+            for d, z in FORCE_MAIN_PROFILE]
+        p["PN"] = 1000 if units == "si" else 150     # PN10 (kPa) / 150 psi pipe class
+
+PUMP_PROJECT = """
+# Pump station WW-1 (invented): two duty pumps lift into T-12 through the force main FM-1.
+[[pump_stations]]
+id = "WW-1"
+pump_on = "{on}"
+pump_off = "{off}"
+duty_pumps = 2
+curve = [{curve}]
+fittings = [{{ k = 0.5, count = 4 }}, {{ k = 0.3, count = 2 }}, {{ k = 0.4, count = 1 }}]
+
+[force_mains]
+friction = "hazen_williams"
+hazen_c = 130
+pressure_min = "0 m"
+velocity_min = "{vmin}"
+velocity_max = "{vmax}"
+"""
+
+def pump_project_text(units):
+    """The project's force-main lines: the field mapping additions and the pump-station tables."""
+    curve_si = [(0, 16.0), (5, 15.0), (10, 12.5), (15, 8.0), (20, 2.0)]   # L/s, m (one pump)
+    if units == "si":
+        curve = ", ".join(f'["{q} L/s", "{h} m"]' for q, h in curve_si)
+        text = PUMP_PROJECT.format(on="3.00 m", off="1.80 m", curve=curve, vmin="0.6 m/s", vmax="2.5 m/s")
+        return 'force_main = "KIND"\nrated_pressure = { field = "PN", unit = "kPa" }\n', text
+    curve = ", ".join(f'["{round(q / 1000.0 * FT_PER_M ** 3, 3)} cfs", "{round(h * FT_PER_M, 2)} ft"]' for q, h in curve_si)
+    text = PUMP_PROJECT.format(on=f"{round(3.0 * FT_PER_M, 2)} ft", off=f"{round(1.8 * FT_PER_M, 2)} ft", curve=curve,
+                               vmin="2 ft/s", vmax="8 ft/s")
+    return 'force_main = "KIND"\nrated_pressure = { field = "PN", unit = "psi" }\n', text
+
+def with_pump_station(text, units):
+    fields, tables = pump_project_text(units)
+    text = text.replace('[pipes]\nsource = "pipes.geojson"\n', '[pipes]\nsource = "pipes.geojson"\nforce_main_values = ["FM"]\n')
+    text = text.replace("[pipes.defaults]\n", fields + "\n[pipes.defaults]\n", 1)
+    text = text.replace('manhole = ["MH"]\n', 'manhole = ["MH"]\npump_station = ["PS"]\n', 1)
+    return text + tables
+
 def main():
     nodes, pipes = build()
     fix_trunk_inverts(nodes, pipes)
+    pump_station(nodes, pipes)
     for units, folder in (("si", "metric"), ("us", "us")):
         d = os.path.join(OUT, folder); os.makedirs(d, exist_ok=True)
         s, p = features(nodes, pipes, units)
+        force_main_features(p["features"], units)
         for name, obj in (("structures.geojson", s), ("pipes.geojson", p)):
             with open(os.path.join(d, name), "w") as f:
                 json.dump(obj, f, indent=1); f.write("\n")
@@ -285,7 +354,7 @@ def main():
                                   flow_unit="cfs", levels='"10.50 ft", "12.80 ft"', freeboard="1 ft",
                                   vmin="3 ft/s", vmax="15 ft/s")
         with open(os.path.join(d, "project.toml"), "w") as f:
-            f.write(text)
+            f.write(with_pump_station(text, units))
         ks, land = catchments(nodes, pipes)
         k_geo = polygon_features(ks, units, lambda k: {"CATCH_ID": k["id"], "RUNOFF_C": k["c"], "INLET_MIN": k["inlet_min"],
                                                        "POP": k["pop"], "OUTLET": k["outlet"]})
@@ -294,7 +363,7 @@ def main():
             with open(os.path.join(d, name), "w") as f:
                 json.dump(obj, f, indent=1); f.write("\n")
         with open(os.path.join(d, "project-rational.toml"), "w") as f:
-            f.write(rational_project(text, units))
+            f.write(with_pump_station(rational_project(text, units), units))
     print(f"{len(nodes)} structures, {len(pipes)} pipes written to {os.path.normpath(OUT)}")
 
 if __name__ == "__main__":

@@ -14,7 +14,7 @@ enum class Severity { info = 0, warning = 1, error = 2 };
 std::string_view severity_name(Severity s);  // "info" | "warning" | "error"
 
 // Which layer a finding belongs to, so the exception list names the source layer.
-enum class LayerRole { conduits, structures, force_mains, catchments, project };
+enum class LayerRole { conduits, structures, force_mains, catchments, project, pump_stations };
 std::string_view layer_role_name(LayerRole r);
 
 struct Finding {

@@ -45,12 +45,13 @@ enum class Unit {
   mm_h, in_h,                                // rainfall intensity
   l_d, gpd,                                  // flow (per-capita sewage flows)
   l_s_km, gpd_mi,                            // flow per length of sewer
-  l_s_ha, gpd_acre                           // flow per contributing area
+  l_s_ha, gpd_acre,                          // flow per contributing area
+  m_head, ft_head, kpa, psi, bar             // pressure, held as head of water [m]
 };
 
 Dimension dimension_of(Unit u);
 // Accepts the usual spellings: "m", "mm", "ft", "us_ft" / "ftUS", "in", "m3/s", "L/s", "cfs", "MGD",
-// "gpm", "m/s", "ft/s", "ha", "acre", "%", "C", "F" ... Returns nullopt for an unknown spelling.
+// "gpm", "m/s", "ft/s", "ha", "acre", "%", "C", "F", "kPa", "psi", "bar", "m_head", "ft_head" ... Returns nullopt for an unknown spelling.
 std::optional<Unit> parse_unit(std::string_view text);
 std::string_view unit_symbol(Unit u);
 

@@ -21,6 +21,7 @@ std::string_view layer_role_name(LayerRole r) {
     case LayerRole::force_mains: return "force_mains";
     case LayerRole::catchments: return "catchments";
     case LayerRole::project: return "project";
+    case LayerRole::pump_stations: return "pump_stations";
   }
   return "project";
 }

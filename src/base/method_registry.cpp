@@ -5,7 +5,7 @@
 namespace rimline {
 namespace {
 
-constexpr std::array<MethodRow, 19> rows{{
+constexpr std::array<MethodRow, 24> rows{{
     {"friction", "manning", "Manning", "V = (1/n) R^(2/3) S^(1/2) on the hydraulic radius of the wetted section",
      "Manning (1891); SI form, and the US form with 1.486 = (1/0.3048)^(1/3) ft^(1/3)/m^(1/3)"},
     {"friction", "darcy_weisbach", "Darcy-Weisbach with Colebrook-White",
@@ -61,6 +61,23 @@ constexpr std::array<MethodRow, 19> rows{{
     {"criterion", "capacity_ratio_max", "Capacity ratio", "design flow over full-flow capacity at the pipe slope",
      "common practice, no source"},
     {"criterion", "cover_min", "Minimum cover", "rim minus crown at each end (off unless set)",
+     "common practice, no source (set from the local standard)"},
+    {"pump", "operating_point", "Pump operating point on the force-main system curve",
+     "n identical duty pumps in parallel: H_pump(Q/n) = static lift + friction + (K_fittings + 1) V^2/2g, at the low "
+     "and high wet-well level with one and all duty pumps; pump curve interpolated monotone",
+     "Fritsch & Carlson (1980), SIAM J. Numer. Anal. 17(2) 238-246 (curve); system curve and cases: common practice, "
+     "no source"},
+    {"criterion", "fm_pressure_min", "Force-main minimum pressure head",
+     "0 m: where the HGL runs below the pipe the main is sub-atmospheric (air entry, column separation), an "
+     "air-release valve candidate at the high point",
+     "common practice, no source"},
+    {"criterion", "fm_velocity_min", "Force-main minimum (scour) velocity", "0.6 m/s (2 ft/s) in every operating case",
+     "Fair, Geyer & Okun, Water and Wastewater Engineering, 3rd ed., 14.14.4.2; Ten States Standards, section 48 "
+     "(2 ft/s) - both from memory"},
+    {"criterion", "fm_velocity_max", "Force-main maximum velocity", "2.5 m/s (8 ft/s) in every operating case",
+     "Fair, Geyer & Okun, Water and Wastewater Engineering, 3rd ed., 14.14.4.2 - from memory"},
+    {"criterion", "fm_cover", "Force-main cover for a DEM profile",
+     "1.2 m from ground to crown where the profile comes from a DEM (centreline = ground - cover - D/2)",
      "common practice, no source (set from the local standard)"},
 }};
 

@@ -19,7 +19,11 @@ constexpr double hectare_m2 = 1.0e4;
 // Acre = 43,560 ft^2 (NIST SP 811, 2008 ed., B.8).
 constexpr double acre_m2 = 43560.0 * metres_per_foot * metres_per_foot;
 
-constexpr std::array<Row, 32> rows{{
+// Pressure is held as head of water [m]: the conventional metre of water, 9.80665 kPa (NIST SP 811,
+// 2008 ed., B.8, "meter of water, conventional"); psi = 6.894757 kPa (same table); bar = 100 kPa exactly.
+constexpr double pa_per_m_head = 9806.65;
+
+constexpr std::array<Row, 37> rows{{
     {Unit::m, Dimension::length, 1.0, "m"},
     {Unit::mm, Dimension::length, 1.0e-3, "mm"},
     {Unit::cm, Dimension::length, 1.0e-2, "cm"},
@@ -52,6 +56,11 @@ constexpr std::array<Row, 32> rows{{
     {Unit::gpd_mi, Dimension::flow_per_length, cubic_metres_per_us_gallon / seconds_per_day / metres_per_mile, "gpd/mi"},
     {Unit::l_s_ha, Dimension::flow_per_area, 1.0e-3 / hectare_m2, "L/s/ha"},
     {Unit::gpd_acre, Dimension::flow_per_area, cubic_metres_per_us_gallon / seconds_per_day / acre_m2, "gpd/acre"},
+    {Unit::m_head, Dimension::pressure_head, 1.0, "m_head"},
+    {Unit::ft_head, Dimension::pressure_head, metres_per_foot, "ft_head"},
+    {Unit::kpa, Dimension::pressure_head, 1000.0 / pa_per_m_head, "kPa"},
+    {Unit::psi, Dimension::pressure_head, 6894.757 / pa_per_m_head, "psi"},
+    {Unit::bar, Dimension::pressure_head, 1.0e5 / pa_per_m_head, "bar"},
 }};
 
 const Row& row_of(Unit u) {
@@ -73,7 +82,7 @@ Dimension dimension_of(Unit u) { return row_of(u).dimension; }
 std::string_view unit_symbol(Unit u) { return row_of(u).symbol; }
 
 std::optional<Unit> parse_unit(std::string_view text) {
-  static const std::array<std::pair<std::string_view, Unit>, 63> spellings{{
+  static const std::array<std::pair<std::string_view, Unit>, 70> spellings{{
       {"m", Unit::m},          {"metre", Unit::m},       {"meter", Unit::m},     {"metres", Unit::m},
       {"meters", Unit::m},     {"mm", Unit::mm},         {"cm", Unit::cm},       {"ft", Unit::ft},
       {"foot", Unit::ft},      {"feet", Unit::ft},       {"us_ft", Unit::us_ft}, {"ftus", Unit::us_ft},
@@ -90,6 +99,8 @@ std::optional<Unit> parse_unit(std::string_view text) {
       {"in/hr", Unit::in_h},   {"l/d", Unit::l_d},       {"l/cap/d", Unit::l_d}, {"lpcd", Unit::l_d},
       {"gpd", Unit::gpd},      {"gpcd", Unit::gpd},      {"l/s/km", Unit::l_s_km}, {"gpd/mi", Unit::gpd_mi},
       {"l/s/ha", Unit::l_s_ha}, {"gpd/acre", Unit::gpd_acre}, {"gpd/ac", Unit::gpd_acre},
+      {"m_head", Unit::m_head}, {"mh2o", Unit::m_head},  {"ft_head", Unit::ft_head}, {"fth2o", Unit::ft_head},
+      {"kpa", Unit::kpa},      {"psi", Unit::psi},       {"bar", Unit::bar},
   }};
   const std::string key = lower(text);
   for (const auto& [name, unit] : spellings)

@@ -80,6 +80,11 @@ DesignFlows design_flows(const model::Network& network, const topology::Topology
 
   for (std::size_t ci : upstream_first_order(network, topo)) {
     const auto& c = network.conduits[ci];
+    if (const auto fixed = options.fixed_conduit_flow_m3_s.find(ci); fixed != options.fixed_conduit_flow_m3_s.end()) {
+      out.flow_m3_s[ci] = fixed->second;
+      arriving[c.to] += fixed->second;
+      continue;
+    }
     const std::size_t s = c.from;
     const auto& node = topo.nodes[s];
     double q = nan;

@@ -74,10 +74,15 @@ double SystemCurve::head_m(double flow_m3_s) const {
 }
 
 OperatingPoint operating_point(const PumpCurve& pump, int pumps_in_parallel, const SystemCurve& system) {
+  return operating_point(pump, pumps_in_parallel, [&system](double q) { return system.head_m(q); });
+}
+
+OperatingPoint operating_point(const PumpCurve& pump, int pumps_in_parallel,
+                               const std::function<double(double flow_m3_s)>& system_head_m) {
   if (pumps_in_parallel < 1) bad("at least one pump is needed, got " + std::to_string(pumps_in_parallel));
   const double n = pumps_in_parallel;
   // Identical pumps in parallel deliver n times the flow at the same head: H(Q) = H_pump(Q/n).
-  auto surplus = [&](double q) { return pump.head_m(q / n) - system.head_m(q); };
+  auto surplus = [&](double q) { return pump.head_m(q / n) - system_head_m(q); };
   const double q_lo = n * pump.min_flow_m3_s(), q_hi = n * pump.max_flow_m3_s();
   const double f_lo = surplus(q_lo), f_hi = surplus(q_hi);
   OperatingPoint op;
@@ -85,7 +90,7 @@ OperatingPoint operating_point(const PumpCurve& pump, int pumps_in_parallel, con
   const auto root = detail::brent_root(surplus, q_lo, q_hi, f_lo, f_hi, 1e-12 * std::max(q_hi, 1e-9), 200);
   op.exists = root.converged;
   op.flow_m3_s = root.x;
-  op.head_m = system.head_m(root.x);
+  op.head_m = system_head_m(root.x);
   op.iterations = root.iterations;
   return op;
 }

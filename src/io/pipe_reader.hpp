@@ -17,7 +17,7 @@ inline constexpr double zero_length_m = 1e-3;
 
 struct PipeColumns {
   int id, from, to, shape, material, manning_n, split, force_main;
-  int diameter, width, height, ks, invert_up, invert_down, length, flow;
+  int diameter, width, height, ks, invert_up, invert_down, length, flow, rated_pressure;
 };
 
 // Column of every mapped pipe field (-1: not mapped); throws for a mapped field the layer lacks.

@@ -9,6 +9,7 @@
 #include <sstream>
 
 #include "io/project_catchments.hpp"
+#include "io/project_force_mains.hpp"
 #include "io/toml_guard.hpp"
 #include "io/toml_section.hpp"
 #include "rimline/error.hpp"
@@ -136,6 +137,7 @@ void read_pipes(TomlSection s, Project& p) {
                           {"length", &pf.length}})
     *dst = f.field_ref(key, Dimension::length);
   pf.flow = f.field_ref("flow", Dimension::flow);
+  pf.rated_pressure = f.field_ref("rated_pressure", Dimension::pressure_head);
   f.finish();
   if (p.shape_from_height && !pf.shape.empty())
     s.fail("shape_from_height", "cannot be used together with pipes.fields.shape; choose one way to give the shape");
@@ -335,7 +337,10 @@ Project parse_project(const std::string& toml_text, const std::string& path_for_
   TomlSection proj = top.table("project");
   TomlSection pipes = top.table("pipes"), structures = top.table("structures"), flows = top.table("flows"),
               tailwater = top.table("tailwater"), methods = top.table("methods"),
-              plausibility = top.table("plausibility"), criteria = top.table("criteria");
+              plausibility = top.table("plausibility"), criteria = top.table("criteria"),
+              force_mains = top.table("force_mains"), pump_curves = top.table("pump_curves"),
+              pump_points = top.table("pump_station_points");
+  const toml::node* pump_stations = top.node("pump_stations");
   detail::CatchmentSections catchment_sections{top.table("catchments"), top.table("land_use"), top.table("rational"),
                                                top.table("sanitary")};
   top.finish();  // a misspelt table name first: it explains a "missing" error that would follow
@@ -352,6 +357,10 @@ Project parse_project(const std::string& toml_text, const std::string& path_for_
   detail::read_catchment_sections(catchment_sections, p, &read_layer_source);
   read_methods(methods, p);
   read_criteria(criteria, p);
+  detail::read_force_main_settings(force_mains, p);
+  detail::read_pump_curves(pump_curves, p);
+  detail::read_pump_stations(pump_stations, p);
+  detail::read_pump_station_points(pump_points, p);
   return p;
 }
 

@@ -50,7 +50,8 @@ const std::vector<std::string>& unit_suggestions() {
   static const std::vector<std::string> names{"m",   "mm",  "cm",   "ft", "us_ft", "in",  "m3/s", "L/s", "cfs", "MGD",
                                               "gpm", "m/s", "ft/s", "m2", "ha",    "ft2", "acre", "%",   "C",   "F",
                                               "s",   "min", "h",    "mm/h", "in/h", "L/d", "gpd", "L/s/km",
-                                              "gpd/mi", "L/s/ha", "gpd/acre"};
+                                              "gpd/mi", "L/s/ha", "gpd/acre",
+                                              "kPa", "psi", "bar", "m_head", "ft_head"};
   return names;
 }
 

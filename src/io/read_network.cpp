@@ -34,6 +34,29 @@ void GdalMessageSink::finish(GdalErrorCapture& capture) {
   findings_.push_back(std::move(f));
 }
 
+// A separate line layer of force mains, read with the pipe mapping: every feature is a force main,
+// and its data findings name the force_mains layer.
+void read_force_main_layer(const Project& project, const RunCrs& crs, DefaultTally& defaults, ReadResult& result) {
+  OpenLayer mains = open_layer(project.force_main_layer, "force_mains");
+  require_geometry_and_features(mains, "force_mains");
+  check_pipe_mapping(project, mains);
+  const TransformPtr to_run = transform_into_run(mains, crs, project.crs_override);
+  const std::size_t first_finding = result.findings.size();
+  std::vector<model::Conduit> read;
+  LayerRead main_read{project, mains, Placement{to_run.get(), crs.metres_per_unit, crs.z_metres_per_unit},
+                      result.findings, defaults};
+  read_pipes(main_read, read);
+  for (std::size_t k = first_finding; k < result.findings.size(); ++k)
+    if (result.findings[k].layer == LayerRole::conduits) result.findings[k].layer = LayerRole::force_mains;
+  for (auto& c : read) {
+    c.force_main = true;
+    result.network.conduits.push_back(std::move(c));
+  }
+  for (const auto& f : mains.files)
+    if (std::find(result.input_files.begin(), result.input_files.end(), f) == result.input_files.end())
+      result.input_files.push_back(f);
+}
+
 }  // namespace detail
 
 ReadResult read_network(const Project& project) {
@@ -55,6 +78,7 @@ ReadResult read_network(const Project& project) {
   LayerRead pipe_read{project, pipes, Placement{crs.to_run.get(), crs.metres_per_unit, crs.z_metres_per_unit},
                       result.findings, defaults};
   read_pipes(pipe_read, result.network.conduits);
+  if (!project.force_main_layer.source.empty()) read_force_main_layer(project, crs, defaults, result);
 
   if (!project.structures.source.empty()) {
     OpenLayer structures = open_layer(project.structures, "structures");

@@ -33,7 +33,9 @@ PipeColumns resolve_pipe_columns(const PipeFields& f, const OpenLayer& l) {
           idx(f.invert_up.field, "invert_up"),
           idx(f.invert_down.field, "invert_down"),
           idx(f.length.field, "length"),
-          idx(f.flow.field, "flow")};
+          idx(f.flow.field, "flow"),
+          // Only force mains carry a pipe class: a gravity layer without the field is fine.
+          f.rated_pressure.mapped() ? l.layer->GetLayerDefn()->GetFieldIndex(f.rated_pressure.field.c_str()) : -1};
 }
 
 const FieldRef& diameter_ref(const Project& p) {
@@ -189,6 +191,22 @@ void PipeReader::read_flow(OGRFeature& feature, model::Conduit& c, const Feature
                 0.0, Dimension::flow);
       else
         c.flow_m3_s = si;
+    }
+  }
+  if (col_.rated_pressure >= 0) {
+    const RawNumber raw = read_number(feature, col_.rated_pressure);
+    const char* none = "its peak pressure is not checked against a rating";
+    if (raw.state != RawNumber::State::null) {
+      if (const auto v = checked_number(raw, f_.rated_pressure.field, none, who)) {
+        const double si = units::to_si(*v, f_.rated_pressure.unit);
+        if (!(si > 0.0))
+          who.add("DATA_IMPLAUSIBLE", Severity::warning, f_.rated_pressure.field,
+                  f_.rated_pressure.field + " " + format_value(*v, f_.rated_pressure.unit) + " is not positive; " +
+                      std::string(none) + ".",
+                  si, 0.0, Dimension::pressure_head);
+        else
+          c.rated_pressure_head_m = si;
+      }
     }
   }
   if (col_.split >= 0) {

@@ -32,6 +32,9 @@ class TomlSection {
   std::vector<std::string> strings(std::string_view key);  // a string or an array of strings
   FieldRef field_ref(std::string_view key, units::Dimension dimension);
   TomlSection table(std::string_view key);  // absent -> an empty section
+  // Any node under `key` (marked known), for values whose shape the caller checks (arrays of tables).
+  const toml::node* node(std::string_view key) { return get(key); }
+  const std::string& file() const { return file_; }
 
   // A string key restricted to the listed values (error names the choices, "did you mean").
   template <typename E>

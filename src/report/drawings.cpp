@@ -4,10 +4,12 @@
 #include <fstream>
 #include <set>
 
+#include "report/force_main_drawing.hpp"
 #include "report/profile_scene.hpp"
 #include "report/sheet_text.hpp"
 #include "report/svg_canvas.hpp"
 #include "rimline/error.hpp"
+#include "rimline/report/outputs.hpp"
 #include "rimline/report/profile_pdf.hpp"
 #include "rimline/report/report_html.hpp"
 
@@ -68,6 +70,22 @@ void write_drawings(const run::CheckRun& run, StagedFiles& files, const DrawingO
         r.least_freeboard_at = st.id;
       }
     }
+    write_file(files.path_for("profiles/" + stem + ".svg"), "<?xml version=\"1.0\" encoding=\"UTF-8\"?>\n" + r.svg);
+    rendered.push_back(std::move(r));
+  }
+  // Force-main profiles, one per laid-out pump station, listed with the others.
+  for (std::size_t i = 0; i < run.pump_stations.size(); ++i) {
+    RenderedProfile r;
+    r.svg = force_main_svg(run, i);
+    if (r.svg.empty()) continue;
+    std::string stem = file_stem(run.project.pump_stations[i].id + "-force-main");
+    while (!stems.insert(stem).second) stem += "_";
+    r.name = stem;
+    const auto& st = run.pump_stations[i];
+    r.caption = "force main of pump station " + run.project.pump_stations[i].id + " to " +
+                run.read.network.structures[st.layout.discharge].id + ", every operating case";
+    r.length = to_report(st.layout.points.back().station_m, units::Dimension::length, run.report_units);
+    fs::create_directories(dir / "profiles", ec);
     write_file(files.path_for("profiles/" + stem + ".svg"), "<?xml version=\"1.0\" encoding=\"UTF-8\"?>\n" + r.svg);
     rendered.push_back(std::move(r));
   }

@@ -2,6 +2,7 @@
 
 #include <cmath>
 
+#include "report/force_main_drawing.hpp"
 #include "report/profile_draw.hpp"
 #include "report/sheet_text.hpp"
 #include "report/title_block.hpp"
@@ -110,6 +111,9 @@ void write_profiles_pdf(const run::CheckRun& run, const std::vector<ProfileSheet
   const Panel panel{m + 4.0, m + 4.0, sheet_width_mm - 2 * m - 8.0,
                     sheet_height_mm - 2 * m - title_block_h_mm - 8.0};
   int k = 0;
+  int stations = 0;
+  for (const auto& st : run.pump_stations) stations += st.layout.ok ? 1 : 0;
+  const int pages = static_cast<int>(sheets.size()) + stations;
   const FindingIndex index(run);  // once for every page
   for (const auto& sheet : sheets) {
     const ProfileScene scene = build_scene(run, sheet.path, sheet.case_index, sheet.number, &index);
@@ -122,7 +126,16 @@ void write_profiles_pdf(const run::CheckRun& run, const std::vector<ProfileSheet
                    scale_text(f),
                    date,
                    ++k,
-                   static_cast<int>(sheets.size())};
+                   pages};
+    draw_title_block(info, sheet_width_mm, sheet_height_mm, canvas);
+    cairo_show_page(cr);
+  }
+  // One page per pump station: its force main over every operating case.
+  for (std::size_t i = 0; i < run.pump_stations.size(); ++i) {
+    if (!run.pump_stations[i].layout.ok) continue;
+    draw_force_main(run, i, panel, canvas);
+    TitleInfo info{run.project.name, force_main_title(run, i), "every operating case", flow_case_text(run),
+                   units_text(run.report_units), "scales as drawn (no stated scale)", date, ++k, pages};
     draw_title_block(info, sheet_width_mm, sheet_height_mm, canvas);
     cairo_show_page(cr);
   }

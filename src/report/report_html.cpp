@@ -9,6 +9,7 @@
 
 #include "report/design_flows_html.hpp"
 #include "report/html_style.hpp"
+#include "report/pump_station_html.hpp"
 #include "report/sheet_text.hpp"
 #include "rimline/hydraulics/friction.hpp"
 #include "rimline/method_registry.hpp"
@@ -315,9 +316,10 @@ std::string report_html(const run::CheckRun& run, const std::vector<RenderedProf
   h += "<header><div class=\"mark\">rimline</div><h1>Hydraulic grade line review: " + esc(run.project.name) +
        "</h1>\n<p class=\"caution\" id=\"caution-top\">" + esc(caution) + "</p></header>\n<main>\n";
   h += "<nav><a href=\"#summary\">Summary</a> <a href=\"#inputs\">Inputs</a> <a href=\"#methods\">Methods</a> "
-       "<a href=\"#exceptions\">Exceptions</a> <a href=\"#profiles\">Profiles</a> <a href=\"#data-findings\">Data "
-       "findings</a>" + std::string(run.catchment_flows ? " <a href=\"#design-flows\">Design flows</a>" : "") +
-       "</nav>\n";
+       "<a href=\"#exceptions\">Exceptions</a> " +
+       std::string(run.pump_stations.empty() ? "" : "<a href=\"#pump-stations\">Pump stations</a> ") +
+       "<a href=\"#profiles\">Profiles</a> <a href=\"#data-findings\">Data findings</a>" +
+       std::string(run.catchment_flows ? " <a href=\"#design-flows\">Design flows</a>" : "") + "</nav>\n";
   h += summary_section(run, date);
   h += inputs_section(run);
   h += methods_section(run);
@@ -327,6 +329,7 @@ std::string report_html(const run::CheckRun& run, const std::vector<RenderedProf
        "outfall.</p>\n";
   h += findings_table(run, criteria, "exception-table", true);
   h += "</section>\n";
+  h += pump_stations_section(run);
   h += profiles_section(profiles, pdf_written, unit(Dimension::length, run.report_units), selection);
   h += data_findings_section(run, data);
   h += "</main>\n<footer><p class=\"caution\" id=\"caution\">" + esc(caution) + "</p></footer>\n</body>\n</html>\n";

@@ -2,6 +2,7 @@
 #include <ogr_spatialref.h>
 #include <ogrsf_frmts.h>
 
+#include <algorithm>
 #include <cmath>
 #include <exception>
 #include <map>
@@ -52,6 +53,11 @@ class Writer {
     write_conduits();
     write_cases();
     write_catchments();
+    if (!run_.pump_stations.empty()) {
+      write_force_mains();
+      write_force_main_points();
+      write_pump_cases();
+    }
     if (ds_->CommitTransaction() != OGRERR_NONE)
       throw Error(ErrorKind::bad_config, ErrorContext{path_, "", "", ""}, "cannot be written");
   }
@@ -307,6 +313,126 @@ class Writer {
         set(f, "hgl", r.solved ? r.hgl_m : NAN, Dimension::length);
         const auto& rim = net.structures[s].rim_m;
         set(f, "freeboard", r.solved && rim ? *rim - r.hgl_m : NAN, Dimension::length);
+        add(l, f);
+      }
+    }
+  }
+
+  // Force mains: one row per force-main conduit of a laid-out station, with its envelope over the
+  // operating cases; the profile points with HGL / EGL / pressure head envelopes; the cases.
+  void write_force_mains() {
+    OGRLayer* l = layer("force_mains", wkbLineString);
+    for (const char* n : {"id", "pump_station", "from_id", "to_id", "profile_source", "discharge_basis"}) field(l, n, OFTString);
+    for (const char* n : {"diameter", "length", "rated_pressure", "design_flow", "velocity_min", "velocity_max",
+                          "pressure_head_min", "pressure_head_max", "discharge_level"})
+      field(l, n, OFTReal);
+    const auto& net = run_.read.network;
+    for (std::size_t i = 0; i < run_.pump_stations.size(); ++i) {
+      const auto& st = run_.pump_stations[i];
+      for (std::size_t j = 0; j < st.layout.chain.size(); ++j) {
+        const auto& c = net.conduits[st.layout.chain[j]];
+        OGRFeature f(l->GetLayerDefn());
+        f.SetField(ix(f, "id"), c.id.c_str());
+        f.SetField(ix(f, "pump_station"), run_.project.pump_stations[i].id.c_str());
+        f.SetField(ix(f, "from_id"), net.structures[c.from].id.c_str());
+        f.SetField(ix(f, "to_id"), net.structures[c.to].id.c_str());
+        f.SetField(ix(f, "profile_source"), std::string(model::profile_source_name(st.layout.sources[j])).c_str());
+        f.SetField(ix(f, "discharge_basis"), st.discharge_basis.c_str());
+        set(f, "diameter", hydraulics::rise_m(c.section), Dimension::length);
+        set(f, "length", c.length_m, Dimension::length);
+        set(f, "rated_pressure", c.rated_pressure_head_m.value_or(NAN), Dimension::pressure_head);
+        set(f, "design_flow", st.design_flow_m3_s, Dimension::flow);
+        set(f, "discharge_level", st.discharge_level_m, Dimension::length);
+        double v_lo = INFINITY, v_hi = -INFINITY, p_lo = INFINITY, p_hi = -INFINITY;
+        for (const auto& k : st.cases) {
+          if (!k.exists) continue;
+          v_lo = std::min(v_lo, k.velocity_m_s[j]);
+          v_hi = std::max(v_hi, k.velocity_m_s[j]);
+          for (std::size_t p = 0; p < st.layout.points.size(); ++p)
+            if (st.layout.points[p].conduit == st.layout.chain[j])
+              p_lo = std::min(p_lo, k.pressure_head_m[p]), p_hi = std::max(p_hi, k.pressure_head_m[p]);
+        }
+        set(f, "velocity_min", v_lo, Dimension::velocity);
+        set(f, "velocity_max", v_hi, Dimension::velocity);
+        set(f, "pressure_head_min", p_lo, Dimension::pressure_head);
+        set(f, "pressure_head_max", p_hi, Dimension::pressure_head);
+        OGRLineString line;
+        for (const auto& v : c.vertices) {
+          double x = v.x, y = v.y;
+          place(x, y);
+          line.addPoint(x, y);
+        }
+        if (line.getNumPoints() >= 2) f.SetGeometry(&line);
+        add(l, f);
+      }
+    }
+  }
+
+  void write_force_main_points() {
+    OGRLayer* l = layer("force_main_points", wkbPoint);
+    for (const char* n : {"force_main_id", "pump_station"}) field(l, n, OFTString);
+    for (const char* n : {"station", "pipe_elevation", "hgl_min", "hgl_max", "egl_max", "pressure_head_min",
+                          "pressure_head_max"})
+      field(l, n, OFTReal);
+    const auto& net = run_.read.network;
+    for (std::size_t i = 0; i < run_.pump_stations.size(); ++i) {
+      const auto& st = run_.pump_stations[i];
+      for (std::size_t p = 0; p < st.layout.points.size(); ++p) {
+        const auto& pt = st.layout.points[p];
+        double h_lo = INFINITY, h_hi = -INFINITY, e_hi = -INFINITY, p_lo = INFINITY, p_hi = -INFINITY;
+        for (const auto& k : st.cases) {
+          if (!k.exists) continue;
+          h_lo = std::min(h_lo, k.hgl_m[p]), h_hi = std::max(h_hi, k.hgl_m[p]), e_hi = std::max(e_hi, k.egl_m[p]);
+          p_lo = std::min(p_lo, k.pressure_head_m[p]), p_hi = std::max(p_hi, k.pressure_head_m[p]);
+        }
+        OGRFeature f(l->GetLayerDefn());
+        f.SetField(ix(f, "force_main_id"), net.conduits[pt.conduit].id.c_str());
+        f.SetField(ix(f, "pump_station"), run_.project.pump_stations[i].id.c_str());
+        set(f, "station", pt.station_m, Dimension::length);
+        set(f, "pipe_elevation", pt.centreline_m, Dimension::length);
+        set(f, "hgl_min", h_lo, Dimension::length);
+        set(f, "hgl_max", h_hi, Dimension::length);
+        set(f, "egl_max", e_hi, Dimension::length);
+        set(f, "pressure_head_min", p_lo, Dimension::pressure_head);
+        set(f, "pressure_head_max", p_hi, Dimension::pressure_head);
+        double x = pt.xy.x, y = pt.xy.y;
+        place(x, y);
+        OGRPoint g(x, y);
+        f.SetGeometry(&g);
+        add(l, f);
+      }
+    }
+  }
+
+  void write_pump_cases() {
+    OGRLayer* l = layer("pump_cases", wkbNone);
+    for (const char* n : {"pump_station", "operating_case"}) field(l, n, OFTString);
+    for (const char* n : {"pumps", "operating_point", "design"}) field(l, n, OFTInteger);
+    for (const char* n : {"wet_well_level", "discharge_level", "static_lift", "flow", "head", "velocity",
+                          "pressure_head_min", "pressure_head_max"})
+      field(l, n, OFTReal);
+    for (std::size_t i = 0; i < run_.pump_stations.size(); ++i) {
+      const auto& st = run_.pump_stations[i];
+      for (std::size_t k = 0; k < st.cases.size(); ++k) {
+        const auto& c = st.cases[k];
+        OGRFeature f(l->GetLayerDefn());
+        f.SetField(ix(f, "pump_station"), run_.project.pump_stations[i].id.c_str());
+        f.SetField(ix(f, "operating_case"), c.label.c_str());
+        f.SetField(ix(f, "pumps"), c.pumps);
+        f.SetField(ix(f, "operating_point"), c.exists ? 1 : 0);
+        f.SetField(ix(f, "design"), c.exists && k == st.design_case ? 1 : 0);
+        set(f, "wet_well_level", c.wet_well_m, Dimension::length);
+        set(f, "discharge_level", st.discharge_level_m, Dimension::length);
+        set(f, "static_lift", c.static_lift_m, Dimension::length);
+        if (c.exists) {
+          set(f, "flow", c.flow_m3_s, Dimension::flow);
+          set(f, "head", c.head_m, Dimension::length);
+          set(f, "velocity", c.velocity_m_s.front(), Dimension::velocity);
+          set(f, "pressure_head_min", *std::min_element(c.pressure_head_m.begin(), c.pressure_head_m.end()),
+              Dimension::pressure_head);
+          set(f, "pressure_head_max", *std::max_element(c.pressure_head_m.begin(), c.pressure_head_m.end()),
+              Dimension::pressure_head);
+        }
         add(l, f);
       }
     }

@@ -18,6 +18,10 @@ ordered_json length(double si, units::System s) {
   return std::round(to_report(si, units::Dimension::length, s) * 1e4) / 1e4;
 }
 
+ordered_json flow(double si, units::System s) {
+  return std::round(to_report(si, units::Dimension::flow, s) * 1e6) / 1e6;
+}
+
 ordered_json velocity(double si, units::System s) {
   return std::round(to_report(si, units::Dimension::velocity, s) * 1e4) / 1e4;
 }
@@ -122,6 +126,25 @@ std::string summary_json(const run::CheckRun& run) {
       worst = fb;
       worst_id = net.structures[s].id;
     }
+  }
+  // Pump stations: the operating point of every case (only when the project has stations).
+  if (!run.pump_stations.empty()) {
+    ordered_json stations = ordered_json::array();
+    for (std::size_t i = 0; i < run.pump_stations.size(); ++i) {
+      const auto& st = run.pump_stations[i];
+      ordered_json cs = ordered_json::array();
+      for (const auto& c : st.cases)
+        cs.push_back({{"case", c.label},
+                      {"operating_point", c.exists},
+                      {"flow", c.exists ? flow(c.flow_m3_s, sys) : ordered_json()},
+                      {"head", c.exists ? ordered_json(length(c.head_m, sys)) : ordered_json()}});
+      stations.push_back({{"id", run.project.pump_stations[i].id},
+                          {"checked", st.layout.ok},
+                          {"design_flow", flow(st.design_flow_m3_s, sys)},
+                          {"discharge_level", st.layout.ok ? ordered_json(length(st.discharge_level_m, sys)) : ordered_json()},
+                          {"cases", cs}});
+    }
+    j["pump_stations"] = stations;
   }
   j["worst_freeboard"] = std::isfinite(worst) ? ordered_json{{"structure", worst_id}, {"freeboard", length(worst, sys)}}
                                               : ordered_json();

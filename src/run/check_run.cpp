@@ -3,6 +3,9 @@
 #include <algorithm>
 #include <cmath>
 #include <iterator>
+
+#include "rimline/io/force_main_profile.hpp"
+#include "rimline/io/read_pump_stations.hpp"
 #include <map>
 #include <tuple>
 
@@ -153,24 +156,117 @@ CheckRun run_check(const io::Project& project, const RunOptions& options) {
   flow_opt.split = project.split_rule == io::SplitRule::field ? flows::Split::field : flows::Split::capacity;
   flow_opt.friction = project.methods.friction;
   flow_opt.default_inflow_m3_s = project.default_inflow_m3_s.value_or(0.0);
-  stage("design flows");
-  if (from_catchments)
-    run.flows = catchment_design_flows(project, flow_opt.split, run);
-  else
-    run.flows = flows::design_flows(run.read.network, run.topology, flow_opt, run.data_findings);
+
+  // Stations of a point layer join the project file's; run.project holds them all from here on.
+  for (auto& st : io::read_pump_station_points(project, project.pump_stations, run.data_findings,
+                                                   run.read.input_files))
+    run.project.pump_stations.push_back(std::move(st));
+  const auto& stations = run.project.pump_stations;
+  std::vector<solve::StationLayout> layouts;
+  if (!stations.empty()) {
+    stage("force-main profiles");
+    run.force_main_profiles = io::force_main_profiles(run.read.network, project.force_mains, run.data_findings);
+    layouts = solve::lay_out_stations(run.read.network, run.topology, stations, run.force_main_profiles,
+                                      run.data_findings);
+  }
+  // A force main that no station reaches is left unchecked by both the gravity march and the station solve.
+  {
+    std::vector<bool> in_station(run.read.network.conduits.size(), false);
+    for (const auto& l : layouts)
+      for (std::size_t ci : l.chain) in_station[ci] = true;
+    for (std::size_t ci = 0; ci < run.read.network.conduits.size(); ++ci) {
+      const auto& c = run.read.network.conduits[ci];
+      if (!c.force_main || !model::marched(c) || in_station[ci]) continue;
+      run.data_findings.push_back({"FM_NOT_CHECKED", Severity::info, LayerRole::force_mains, c.id, "", nan, nan,
+                                   units::Dimension::dimensionless,
+                                   "force main " + c.id + " belongs to no [[pump_stations]] entry, so its pressure flow "
+                                   "is not checked; the gravity march leaves force mains to their pump station."});
+    }
+  }
+  auto solve_stations = [&](const std::vector<double>& receiving) {
+    run.pump_stations.clear();
+    for (std::size_t i = 0; i < layouts.size(); ++i)
+      run.pump_stations.push_back(solve::solve_station(run.read.network, stations[i], layouts[i],
+                                                       project.force_mains, receiving[i]));
+  };
+  std::vector<double> receiving(layouts.size(), nan);
+  solve_stations(receiving);
 
   std::vector<double> levels = options.tailwater_levels_m.empty() ? project.tailwater_levels_m : options.tailwater_levels_m;
   if (levels.empty()) levels.push_back(nan);  // outfall fields or free outfalls decide
-  for (double tw : levels) {
-    stage("march " + std::to_string(run.cases.size() + 1) + "/" + std::to_string(levels.size()));
-    Case c;
-    c.tailwater_m = tw;
-    c.label = case_label(tw);
-    auto opt = run.march_options;
-    opt.tailwater_m = tw;
-    c.march = solve::march(run.read.network, run.topology, run.flows.flow_m3_s, opt);
-    c.findings = checks::run_checks(run.read.network, c.march, run.criteria, run.overrides);
-    run.cases.push_back(std::move(c));
+  constexpr int max_pump_iterations = 10;
+  Findings flow_findings;
+  bool settled = layouts.empty();
+  for (run.pump_iterations = 1;; ++run.pump_iterations) {
+    flow_opt.fixed_conduit_flow_m3_s.clear();
+    for (const auto& st : run.pump_stations)
+      for (std::size_t ci : st.layout.chain) flow_opt.fixed_conduit_flow_m3_s[ci] = st.design_flow_m3_s;
+    stage("design flows");
+    flow_findings.clear();
+    if (!from_catchments)
+      run.flows = flows::design_flows(run.read.network, run.topology, flow_opt, flow_findings);
+    else if (run.pump_iterations == 1)  // catchment flows do not take the pumped flow (yet): computed once
+      run.flows = catchment_design_flows(project, flow_opt.split, run);
+    run.cases.clear();
+    for (double tw : levels) {
+      stage("march " + std::to_string(run.cases.size() + 1) + "/" + std::to_string(levels.size()));
+      Case c;
+      c.tailwater_m = tw;
+      c.label = case_label(tw);
+      auto opt = run.march_options;
+      opt.tailwater_m = tw;
+      c.march = solve::march(run.read.network, run.topology, run.flows.flow_m3_s, opt);
+      c.findings = checks::run_checks(run.read.network, c.march, run.criteria, run.overrides);
+      run.cases.push_back(std::move(c));
+    }
+    if (layouts.empty() || run.pump_iterations >= max_pump_iterations) break;
+    // The receiving structure's level (highest over the cases) is the next discharge level.
+    std::vector<double> before;
+    for (const auto& st : run.pump_stations) before.push_back(st.design_flow_m3_s);
+    for (std::size_t i = 0; i < layouts.size(); ++i) {
+      receiving[i] = nan;
+      if (!layouts[i].ok) continue;
+      for (const auto& c : run.cases) {
+        const auto& r = c.march.structures[layouts[i].discharge];
+        if (r.solved && std::isfinite(r.hgl_m) && !(receiving[i] >= r.hgl_m)) receiving[i] = r.hgl_m;
+      }
+    }
+    solve_stations(receiving);
+    if (from_catchments) break;  // stations solved once against the march, see FM_NOT_COUPLED
+    settled = true;
+    for (std::size_t i = 0; i < before.size(); ++i)
+      if (std::abs(run.pump_stations[i].design_flow_m3_s - before[i]) > 0.005 * std::max(before[i], 1e-9)) settled = false;
+    if (settled) break;
+  }
+  for (auto& f : flow_findings) run.data_findings.push_back(std::move(f));
+  if (from_catchments && !layouts.empty()) {
+    settled = true;
+    run.data_findings.push_back({"FM_NOT_COUPLED", Severity::warning, LayerRole::project, "pump_stations", "", nan, nan,
+                                 units::Dimension::dimensionless,
+                                 "with catchment design flows (rational, sanitary) the pumped flow is not fed back into "
+                                 "the gravity network: the pipes below each force main carry the catchment flow "
+                                 "accumulated through it, and each station is solved once against that march."});
+  }
+  if (!settled)
+    run.data_findings.push_back({"FM_NOT_CONVERGED", Severity::warning, LayerRole::project, "pump_stations", "", nan, nan,
+                                 units::Dimension::dimensionless,
+                                 "the pumped flows and the receiving structures' levels did not settle within " +
+                                     std::to_string(max_pump_iterations) +
+                                     " rounds (flow change 0.5 % or more); the pump-station figures are approximate."});
+  const auto& network = run.read.network;
+  for (std::size_t i = 0; i < layouts.size(); ++i) {
+    double inflow = 0.0;
+    if (layouts[i].ok) {
+      const std::size_t ww = layouts[i].wet_well;
+      for (std::size_t ci = 0; ci < network.conduits.size(); ++ci) {
+        const auto& c = network.conduits[ci];
+        if (model::marched(c) && !c.force_main && c.to == ww && std::isfinite(run.flows.flow_m3_s[ci]))
+          inflow += run.flows.flow_m3_s[ci];
+      }
+      if (flow_opt.mode == flows::Mode::structure_inflows)
+        inflow += network.structures[ww].inflow_m3_s.value_or(flow_opt.default_inflow_m3_s);
+    }
+    run.wet_well_inflow_m3_s.push_back(inflow);
   }
   // March problems (blocked, not converged) are the same in every case but the first is kept.
   auto& march_findings = run.cases.front().march.findings;
@@ -194,7 +290,12 @@ CheckRun run_check(const io::Project& project, const RunOptions& options) {
         run.envelope_conduit_case[ci] = k;
     }
   }
-  merge_findings(run, worst_per_feature(run.cases));
+  Findings criteria = worst_per_feature(run.cases);
+  for (std::size_t i = 0; i < run.pump_stations.size(); ++i)
+    for (auto& f : solve::check_station(net, run.project.pump_stations[i], run.pump_stations[i], project.force_mains,
+                                        run.wet_well_inflow_m3_s[i]))
+      criteria.push_back(std::move(f));
+  merge_findings(run, std::move(criteria));
   return run;
 }
 

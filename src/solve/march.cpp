@@ -154,6 +154,10 @@ class Marcher {
     auto& r = out_.conduits[ci];
     const auto& down = out_.structures[c.to];
     r.flow_m3_s = flow_[ci];
+    if (c.force_main) {  // pressure flow: solved with its pump station (solve/force_main.hpp)
+      r.note = "force main: pressure flow, solved with its pump station ([[pump_stations]])";
+      return;
+    }
     if (!down.solved) {
       r.note = "not checked: the level downstream is unknown";
       return;

@@ -69,7 +69,7 @@ class Orienter {
       b = con_.ids[i] == IdDirection::last_vertex_upstream ? Basis::ids_turned : Basis::ids;
     } else if (is_outfall(first) != is_outfall(last)) {
       b = is_outfall(first) ? Basis::outfall_turned : Basis::outfall;
-    } else if (rises(c, opt_.invert_tolerance_m)) {
+    } else if (rises(c, opt_.invert_tolerance_m) && !c.force_main) {  // a force main may rise: it is pumped
       b = Basis::inverts_turned;
     }
     basis_[i] = b;

@@ -2,6 +2,7 @@
 #include <sys/wait.h>
 
 #include <catch2/catch.hpp>
+#include <algorithm>
 #include <cstdio>
 #include <filesystem>
 #include <fstream>
@@ -48,7 +49,7 @@ TEST_CASE("cli: --version and --help") {
 TEST_CASE("cli: the dry run prints the network summary and the data findings") {
   const auto r = run("check " + demo("metric") + " --dry-run");
   INFO(r.out);
-  CHECK(r.out.find("network: 42 structures, 41 conduits (41 usable), 1 outfalls, 1 trees") != std::string::npos);
+  CHECK(r.out.find("network: 43 structures, 42 conduits (42 usable), 1 outfalls, 1 trees") != std::string::npos);
   CHECK(r.out.find("REVERSED: conduits:C-02") != std::string::npos);
   CHECK(r.out.find("DATA_MISSING: structures:B-05:field RIM") != std::string::npos);
 }
@@ -118,4 +119,20 @@ TEST_CASE("cli: --profile-from draws one structure's path; an unknown id is exit
   const auto bad = run("check " + demo("metric") + " --out " + out + " -q --profile-from B-99");
   CHECK(bad.code == 2);
   CHECK(bad.out.find("B-99") != std::string::npos);
+}
+
+TEST_CASE("cli: a pump curve whose head rises is a bad project file (exit 2) naming file, line and key") {
+  std::ifstream in(demo("metric"));
+  std::string text((std::istreambuf_iterator<char>(in)), std::istreambuf_iterator<char>());
+  const std::string good = R"(["0 L/s", "16.0 m"], ["5 L/s", "15.0 m"])";
+  const auto at = text.find(good);
+  REQUIRE(at != std::string::npos);
+  text.replace(at, good.size(), R"(["0 L/s", "16.0 m"], ["5 L/s", "17.0 m"])");
+  const std::string path = temp_file("rising_pump_curve.toml", text);
+  const auto line = 1 + std::count(text.begin(), text.begin() + static_cast<std::ptrdiff_t>(at), '\n');
+  const auto r = run("check " + path + " --dry-run");
+  CHECK(r.code == 2);
+  CHECK(r.out.find(path + ": line " + std::to_string(line) +
+                   ": key pump_stations[1].curve: pump curve heads must fall strictly with flow (point 2)") !=
+        std::string::npos);
 }

@@ -1,6 +1,7 @@
 #pragma once
 // Design flow in every conduit: read per pipe, or local inflows at structures accumulated
 // downstream through the network, split at diversions by a rule.
+#include <map>
 #include <vector>
 
 #include "rimline/finding.hpp"
@@ -17,6 +18,9 @@ struct FlowOptions {
   Split split = Split::capacity;
   hydraulics::FrictionLaw friction = hydraulics::FrictionLaw::manning;
   double default_inflow_m3_s = 0.0;  // structures without an inflow value (structure_inflows mode)
+  // Conduits whose flow is set from outside, by conduit index: force mains carry the pumped flow
+  // (solve/force_main.hpp), which replaces the field or the accumulated flow in every mode.
+  std::map<std::size_t, double> fixed_conduit_flow_m3_s;
 };
 
 struct DesignFlows {

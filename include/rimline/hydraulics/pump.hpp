@@ -1,5 +1,6 @@
 #pragma once
 // Pump curve from points, system curve, and their intersection (operating point).
+#include <functional>
 #include <vector>
 
 #include "rimline/hydraulics/friction.hpp"
@@ -45,5 +46,8 @@ struct OperatingPoint {
 // n identical pumps in parallel: each carries Q/n at the same head. exists = false when the
 // static lift exceeds the shut-off head or the system would draw more than the curve covers.
 OperatingPoint operating_point(const PumpCurve& pump, int pumps_in_parallel, const SystemCurve& system);
+// The same against any rising system curve H(Q) [m] (e.g. a force main of several sections).
+OperatingPoint operating_point(const PumpCurve& pump, int pumps_in_parallel,
+                               const std::function<double(double flow_m3_s)>& system_head_m);
 
 }  // namespace rimline::hydraulics

@@ -49,6 +49,30 @@
 //               capacity_ratio_max = 1.0, cover_min = "0.6 m"
 //   [criteria.structures."T-04"] freeboard = "0.5 m"          (per structure id)
 //   [criteria.conduits."D-05"]   velocity_min = "0.6 m/s", velocity_max, capacity_ratio_max, cover_min
+//   [[pump_stations]]  one per pump station (parsed in src/io/project_force_mains.cpp):
+//               id = "WW-1" (the wet-well structure; the force main leaves it),
+//               pump_on = "14.2 m", pump_off = "12.8 m" (wet-well levels, datum of the inverts),
+//               duty_pumps = 2 (identical pumps in parallel, standby excluded),
+//               curve = [["0 L/s", "32 m"], ["40 L/s", "27 m"], ...] (one pump, head falling with flow)
+//                 or curve_table = { source = "pump.csv", flow_unit = "L/s", head_unit = "m" } (two
+//                 numeric columns flow,head; a first line that is not numeric is a header),
+//               discharge = "T-12" (receiving structure; default: where the force-main chain ends),
+//               discharge_level = "9.5 m" (a fixed discharge HGL instead of the gravity march's level),
+//               fittings = [{ k = 0.5, count = 4 }, ...] or k_total = 3.2 (exit loss K = 1 is added)
+//   [force_mains] source, layer, open_options (optional: a line layer of force mains read with the
+//               [pipes.fields] mapping, every feature a force main, besides those flagged in the pipe layer),
+//               dem = "ground.tif", dem_unit = "m" (ground raster for mains without vertex Z),
+//               cover = "1.2 m" (ground to crown), spacing = "10 m" (DEM samples along the line),
+//               pressure_min = "0 m" (sub-atmospheric limit, pressure head), velocity_min = "0.6 m/s",
+//               velocity_max = "2.5 m/s", friction = "hazen_williams" | "darcy_weisbach", hazen_c = 120
+//   [pump_curves] NAME = [["0 L/s", "32 m"], ...]   (named curves; a station's curve = "NAME" uses one)
+//   [pump_station_points] source, layer, open_options: pump stations as a point layer, besides
+//               [[pump_stations]]; [pump_station_points.fields] id (wet-well structure id), curve (a
+//               [pump_curves] name), duty_pumps, discharge, fittings_k -> "FIELD";
+//               pump_on, pump_off -> { field, unit }. A feature with a data problem is a finding
+//               (layer pump_stations) and is left out; the rest are checked.
+//   pipes.fields.rated_pressure = { field = "CLASS_KPA", unit = "kPa" }  (kPa, psi, bar, m_head, ft_head)
+//   Vertex Z of a force main's line is the pipe invert at that vertex, in the CRS's vertical unit.
 #include <map>
 #include <optional>
 #include <string>
@@ -58,6 +82,7 @@
 #include "rimline/hydraulics/losses.hpp"
 #include "rimline/hydraulics/section.hpp"
 #include "rimline/model/catchment.hpp"
+#include "rimline/model/pump_station.hpp"
 #include "rimline/units.hpp"
 
 namespace rimline::io {
@@ -78,6 +103,13 @@ struct LayerSource {
 struct PipeFields {
   std::string id, from, to, shape, material, manning_n, split, force_main;
   FieldRef diameter, width, height, ks, invert_up, invert_down, length, flow;
+  FieldRef rated_pressure;  // force mains: pipe class pressure (kPa, psi, bar, m_head, ft_head)
+};
+
+// [pump_station_points.fields]: a point layer of pump stations (one per wet well).
+struct PumpStationFields {
+  std::string id, duty_pumps, discharge, curve, fittings_k;  // curve: names a [pump_curves] entry
+  FieldRef pump_on, pump_off;
 };
 
 struct PipeDefaults {
@@ -203,6 +235,12 @@ struct Project {
   Criteria criteria;
   std::map<std::string, CriteriaOverride> structure_criteria;  // by structure id
   std::map<std::string, CriteriaOverride> conduit_criteria;    // by pipe id
+  std::vector<model::PumpStation> pump_stations;               // [[pump_stations]]
+  model::ForceMainSettings force_mains;                        // [force_mains]
+  LayerSource force_main_layer;  // [force_mains] source/layer: a line layer of force mains (pipe field mapping)
+  LayerSource pump_station_points;            // [pump_station_points] source/layer (empty: none)
+  PumpStationFields pump_station_fields;
+  std::map<std::string, std::vector<hydraulics::CurvePoint>> pump_curves;  // [pump_curves] by name
 };
 
 // Parses and validates a project file. Unknown keys and values of the wrong type are errors. Throws rimline::Error(bad_config) naming the file,

@@ -61,6 +61,7 @@ struct Conduit {
   std::vector<double> vertex_z_m; // Z of the vertices when the source has it, else empty
   bool reversed = false;          // digitised against the flow, turned by topology
   bool force_main = false;
+  std::optional<double> rated_pressure_head_m;  // force mains: rated (class) pressure as head of water
   bool usable = true;             // false when a data problem keeps it out of the march
 };
 

@@ -13,6 +13,7 @@
 #include "rimline/flows/design_flows.hpp"
 #include "rimline/io/project.hpp"
 #include "rimline/io/read_network.hpp"
+#include "rimline/solve/force_main.hpp"
 #include "rimline/solve/march.hpp"
 #include "rimline/topology/build.hpp"
 
@@ -54,6 +55,14 @@ struct CheckRun {
   std::vector<Case> cases;
   std::vector<std::size_t> envelope_structure_case;  // per structure: the case with the highest HGL
   std::vector<std::size_t> envelope_conduit_case;    // per conduit: the case with the highest inlet HGL
+  // Pump stations (aligned with project.pump_stations) and the force-main profiles they use. The
+  // design flow of each station (its largest operating flow) runs down its force main into the
+  // gravity network; the receiving structure's HGL (the highest over the tailwater cases) is the
+  // discharge level of the next operating-point solve, repeated until the flow changes < 0.5 %.
+  std::vector<model::ForceMainProfile> force_main_profiles;
+  std::vector<solve::StationResult> pump_stations;
+  std::vector<double> wet_well_inflow_m3_s;  // design inflow reaching each station's wet well
+  int pump_iterations = 0;
   Findings data_findings;  // reading, topology, flows, march problems
   Findings findings;       // every finding of the run: data + the worst criteria finding per feature and code
   std::vector<bool> data_finding;  // aligned with findings: true for those of data_findings

@@ -25,7 +25,7 @@
 //        confirming neighbour on one side, so both are turned.)
 //     A pipe turned by (a) or (b) is REVERSED (the inverts turn with it). A pipe whose inverts
 //     rise along the direction fixed by (a) or (d) is ADVERSE_SLOPE and is not turned.
-//  Force mains may rise (pumped); no ADVERSE_SLOPE for them.
+//  Force mains may rise (pumped): rule (b) does not turn them and they get no ADVERSE_SLOPE.
 //
 // Trees. A conduit is marched when usable, connected at both ends to different structures
 // and not cut from a loop. A directed loop is cut at the pipe that closes it in a depth-first
