@@ -83,6 +83,17 @@ class Writer {
     return l;
   }
 
+  // The pipe's plan line in the output CRS (a line of fewer than two points is left without geometry).
+  void set_line(OGRFeature& f, const model::Conduit& c) const {
+    OGRLineString line;
+    for (const auto& v : c.vertices) {
+      double x = v.x, y = v.y;
+      place(x, y);
+      line.addPoint(x, y);
+    }
+    if (line.getNumPoints() >= 2) f.SetGeometry(&line);
+  }
+
   void add(OGRLayer* l, OGRFeature& f) {
     if (l->CreateFeature(&f) != OGRERR_NONE)
       throw Error(ErrorKind::bad_config, ErrorContext{path_, l->GetName(), "", ""}, "a feature cannot be written");
@@ -284,13 +295,7 @@ class Writer {
           f.SetField(ix(f, "profile_class"), p.profile_class.c_str());
         }
       }
-      OGRLineString line;
-      for (const auto& v : c.vertices) {
-        double x = v.x, y = v.y;
-        place(x, y);
-        line.addPoint(x, y);
-      }
-      if (line.getNumPoints() >= 2) f.SetGeometry(&line);
+      set_line(f, c);
       add(l, f);
     }
   }
@@ -356,13 +361,7 @@ class Writer {
         set(f, "velocity_max", v_hi, Dimension::velocity);
         set(f, "pressure_head_min", p_lo, Dimension::pressure_head);
         set(f, "pressure_head_max", p_hi, Dimension::pressure_head);
-        OGRLineString line;
-        for (const auto& v : c.vertices) {
-          double x = v.x, y = v.y;
-          place(x, y);
-          line.addPoint(x, y);
-        }
-        if (line.getNumPoints() >= 2) f.SetGeometry(&line);
+        set_line(f, c);
         add(l, f);
       }
     }
