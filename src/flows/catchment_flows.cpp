@@ -27,7 +27,8 @@ double longest(double a, double b) {
 // structure; `pipe_flow` sets the pipe's design flow (and its travel time) from that share.
 template <typename PipeFlow>
 CatchmentFlows along_tree(const model::Network& net, const topology::Topology& topo,
-                          const std::vector<LocalInflow>& local, Split split, PipeFlow&& pipe_flow) {
+                          const std::vector<LocalInflow>& local, Split split, const FixedFlows& fixed,
+                          PipeFlow&& pipe_flow) {
   const std::size_t nc = net.conduits.size();
   CatchmentFlows out;
   out.flows.flow_m3_s.assign(nc, nan);
@@ -36,6 +37,11 @@ CatchmentFlows along_tree(const model::Network& net, const topology::Topology& t
   std::vector<Arriving> at(net.structures.size());
   for (std::size_t ci : upstream_first_order(net, topo)) {
     const auto& c = net.conduits[ci];
+    if (const auto f = fixed.find(ci); f != fixed.end()) {
+      out.pipes[ci].flow_m3_s = out.flows.flow_m3_s[ci] = f->second;
+      at[c.to].inflow_m3_s += f->second;
+      continue;
+    }
     const std::size_t s = c.from;
     const auto& outs = topo.nodes[s].outflows;
     const auto shares = diversion_shares(net, outs, split);
@@ -84,8 +90,9 @@ std::vector<LocalInflow> local_inflows(const model::Network& network, const std:
 
 CatchmentFlows storm_along_tree(const model::Network& network, const topology::Topology& topo,
                                 const std::vector<LocalInflow>& local, const model::IdfCurve& idf,
-                                const TravelTimeFn& travel, Split split, Findings& findings) {
-  auto out = along_tree(network, topo, local, split, [&](std::size_t ci, PipeDesign& p, double, double inflow) {
+                                const TravelTimeFn& travel, Split split, Findings& findings,
+                                const FixedFlows& fixed) {
+  auto out = along_tree(network, topo, local, split, fixed, [&](std::size_t ci, PipeDesign& p, double, double inflow) {
     p.flow_m3_s = inflow;
     if (!std::isnan(p.tc_s)) {
       const IdfValue i = idf_intensity(idf, p.tc_s);
@@ -107,8 +114,9 @@ CatchmentFlows storm_along_tree(const model::Network& network, const topology::T
 }
 
 CatchmentFlows sanitary_along_tree(const model::Network& network, const topology::Topology& topo,
-                                   const std::vector<LocalInflow>& local, const SanitaryOptions& o, Split split) {
-  auto out = along_tree(network, topo, local, split, [&](std::size_t, PipeDesign& p, double length_m, double inflow) {
+                                   const std::vector<LocalInflow>& local, const SanitaryOptions& o, Split split,
+                                   const FixedFlows& fixed) {
+  auto out = along_tree(network, topo, local, split, fixed, [&](std::size_t, PipeDesign& p, double length_m, double inflow) {
     p.peaking_factor = o.peaking == Peaking::harmon ? harmon_peaking_factor(p.population) : o.peaking_constant;
     p.infiltration_m3_s = o.infiltration_per_length_m3_s_m.value_or(0.0) * length_m +
                           o.infiltration_per_area_m3_s_m2.value_or(0.0) * p.area_m2;

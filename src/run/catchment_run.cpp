@@ -22,7 +22,8 @@ void assign_catchment_outlets(const io::Project& project, CheckRun& run) {
                         run.data_findings);
 }
 
-flows::DesignFlows catchment_design_flows(const io::Project& project, flows::Split split, CheckRun& run) {
+flows::DesignFlows catchment_design_flows(const io::Project& project, flows::Split split,
+                                          const flows::FixedFlows& fixed, CheckRun& run, Findings& findings) {
   const auto& net = run.read.network;
   const auto local = flows::local_inflows(net, run.catchments);
   flows::CatchmentFlows cf;
@@ -30,8 +31,7 @@ flows::DesignFlows catchment_design_flows(const io::Project& project, flows::Spl
     const auto velocity =
         project.rational.full_flow_velocity ? flows::TravelVelocity::full_flow : flows::TravelVelocity::normal_depth;
     cf = flows::storm_along_tree(net, run.topology, local, project.rational.idf,
-                                 flows::velocity_travel_time(net, velocity, run.data_findings), split,
-                                 run.data_findings);
+                                 flows::velocity_travel_time(net, velocity, findings), split, findings, fixed);
     cf.method = "Rational Method Q = C i A along the network; IDF " + flows::idf_description(project.rational.idf) +
                 "; pipe travel time from the " +
                 (velocity == flows::TravelVelocity::full_flow ? "full-flow velocity"
@@ -43,7 +43,7 @@ flows::DesignFlows catchment_design_flows(const io::Project& project, flows::Spl
     o.peaking_constant = project.sanitary.peaking_constant.value_or(1.0);
     o.infiltration_per_length_m3_s_m = project.sanitary.infiltration_per_length_m3_s_m;
     o.infiltration_per_area_m3_s_m2 = project.sanitary.infiltration_per_area_m3_s_m2;
-    cf = flows::sanitary_along_tree(net, run.topology, local, o, split);
+    cf = flows::sanitary_along_tree(net, run.topology, local, o, split, fixed);
     char per_capita[64];
     std::snprintf(per_capita, sizeof per_capita, "%.4g L/d (%.4g gpd)",
                   units::from_si(o.per_capita_m3_s, units::Unit::l_d),

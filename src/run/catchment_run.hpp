@@ -10,6 +10,7 @@ namespace rimline::run {
 void assign_catchment_outlets(const io::Project& project, CheckRun& run);
 
 // Fills run.catchment_flows (after assign_catchment_outlets); returns the design flows for the march.
-flows::DesignFlows catchment_design_flows(const io::Project& project, flows::Split split, CheckRun& run);
+flows::DesignFlows catchment_design_flows(const io::Project& project, flows::Split split,
+                                          const flows::FixedFlows& fixed, CheckRun& run, Findings& findings);
 
 }  // namespace rimline::run

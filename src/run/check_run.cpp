@@ -203,10 +203,10 @@ CheckRun run_check(const io::Project& project, const RunOptions& options) {
       for (std::size_t ci : st.layout.chain) flow_opt.fixed_conduit_flow_m3_s[ci] = st.design_flow_m3_s;
     stage("design flows");
     flow_findings.clear();
-    if (!from_catchments)
+    if (from_catchments)
+      run.flows = catchment_design_flows(project, flow_opt.split, flow_opt.fixed_conduit_flow_m3_s, run, flow_findings);
+    else
       run.flows = flows::design_flows(run.read.network, run.topology, flow_opt, flow_findings);
-    else if (run.pump_iterations == 1)  // catchment flows do not take the pumped flow (yet): computed once
-      run.flows = catchment_design_flows(project, flow_opt.split, run);
     run.cases.clear();
     for (double tw : levels) {
       stage("march " + std::to_string(run.cases.size() + 1) + "/" + std::to_string(levels.size()));
@@ -232,21 +232,12 @@ CheckRun run_check(const io::Project& project, const RunOptions& options) {
       }
     }
     solve_stations(receiving);
-    if (from_catchments) break;  // stations solved once against the march, see FM_NOT_COUPLED
     settled = true;
     for (std::size_t i = 0; i < before.size(); ++i)
       if (std::abs(run.pump_stations[i].design_flow_m3_s - before[i]) > 0.005 * std::max(before[i], 1e-9)) settled = false;
     if (settled) break;
   }
   for (auto& f : flow_findings) run.data_findings.push_back(std::move(f));
-  if (from_catchments && !layouts.empty()) {
-    settled = true;
-    run.data_findings.push_back({"FM_NOT_COUPLED", Severity::warning, LayerRole::project, "pump_stations", "", nan, nan,
-                                 units::Dimension::dimensionless,
-                                 "with catchment design flows (rational, sanitary) the pumped flow is not fed back into "
-                                 "the gravity network: the pipes below each force main carry the catchment flow "
-                                 "accumulated through it, and each station is solved once against that march."});
-  }
   if (!settled)
     run.data_findings.push_back({"FM_NOT_CONVERGED", Severity::warning, LayerRole::project, "pump_stations", "", nan, nan,
                                  units::Dimension::dimensionless,

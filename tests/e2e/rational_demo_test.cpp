@@ -84,10 +84,15 @@ TEST_CASE("Rational demo (metric): contract holds and a head pipe checks by hand
   CHECK(p.tc_s == Approx(720.0));
   CHECK(p.intensity_m_s * 3.6e6 == Approx(110.7400).epsilon(1e-6));
   CHECK(p.flow_m3_s == Approx(0.0716611).epsilon(1e-4));
-  // At the outfall pipe Q = i(Tc) x sum(C A) over all 28 catchments, and Tc is at least the
-  // upland catchment's 20 min inlet time plus the trunk's travel time from T-20.
+  // At the outfall pipe Q = i(Tc) x sum(C A) over all 28 catchments plus the pump station's design
+  // flow (WW-1 lifts through FM-1 into T-12, upstream of P-T01; a constant inflow from there on),
+  // and Tc is at least the upland catchment's 20 min inlet time plus the trunk's travel time from T-20.
   const auto& out = r.catchment_flows->pipes[conduit(r, "P-T01")];
-  CHECK(out.flow_m3_s == Approx(out.intensity_m_s * out.ca_m2).epsilon(1e-12));
+  REQUIRE(r.pump_stations.size() == 1);
+  const double pumped = r.pump_stations[0].design_flow_m3_s;
+  CHECK(pumped > 0.02);
+  CHECK(r.catchment_flows->pipes[conduit(r, "FM-1")].flow_m3_s == pumped);
+  CHECK(out.flow_m3_s == Approx(out.intensity_m_s * out.ca_m2 + pumped).epsilon(1e-12));
   CHECK(out.tc_s > 20.0 * 60.0);
   double ca = 0.0;
   for (const auto& k : r.catchments) ca += k.runoff_c * k.area_m2;

@@ -10,12 +10,16 @@
 //  - sanitary: population accumulated downstream; Q = PF(P) * q * P + infiltration allowance (per
 //    length of the pipes upstream, this one included, or per contributing catchment area).
 // Both add the structures' own inflows (Structure::inflow_m3_s) accumulated downstream.
+// A conduit with a fixed flow (a force main carrying its pump station's design flow) passes that
+// flow on as a constant inflow and stops the catchment quantities (area, C A, Tc, population): the
+// wet well's storage decouples the pumped flow from the storm's timing.
 // At a diversion every accumulated quantity (area, C A, population, lengths, inflows) is split by
 // the same shares as the design flows (flows::diversion_shares).
 // Findings: IDF_EXTRAPOLATED (warning) Tc outside the IDF table; TRAVEL_VELOCITY (info) a pipe whose
 // travel time falls back as above.
 #include <functional>
 #include <limits>
+#include <map>
 #include <optional>
 #include <string>
 #include <vector>
@@ -77,11 +81,14 @@ struct CatchmentFlows {
 using TravelTimeFn = std::function<double(std::size_t conduit, double flow_m3_s, PipeDesign& out)>;
 
 // The accumulation itself, on given local inflows (aligned with structures).
+using FixedFlows = std::map<std::size_t, double>;  // conduit index -> flow [m3/s]
 CatchmentFlows storm_along_tree(const model::Network& network, const topology::Topology& topo,
                                 const std::vector<LocalInflow>& local, const model::IdfCurve& idf,
-                                const TravelTimeFn& travel, Split split, Findings& findings);
+                                const TravelTimeFn& travel, Split split, Findings& findings,
+                                const FixedFlows& fixed = {});
 CatchmentFlows sanitary_along_tree(const model::Network& network, const topology::Topology& topo,
-                                   const std::vector<LocalInflow>& local, const SanitaryOptions& options, Split split);
+                                   const std::vector<LocalInflow>& local, const SanitaryOptions& options, Split split,
+                                   const FixedFlows& fixed = {});
 
 // Local inflows from the catchments (each with its outlet structure set) and the structures' own
 // inflows and populations.

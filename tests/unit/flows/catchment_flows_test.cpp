@@ -280,3 +280,44 @@ TEST_CASE("a Tc outside the IDF table is reported on the pipe", "[flows][idf]") 
         "pipe P1: the time of concentration 5.00 min lies outside the IDF table; its end segment was extended "
         "(log-log) to give 141.42 mm/h.");
 }
+
+// A pump station's force main inside a Rational tree: WW -FM-> J <-P1- A, J -P2-> O.
+// WW carries 2 ha at C 0.5 (its own catchment, stopped by the wet well), A 1 ha at C 0.6,
+// inlet time 10 min; travel times 0 (flat test function) so Tc at P2 = 10 min.
+//   i(10 min) = 3330 / (10 + 19) = 114.828 mm/h = 3.18966e-5 m/s
+//   P1: Q = 3.18966e-5 x 6000 m^2 = 0.191379 m3/s
+//   FM: the pumped design flow, 0.040 m3/s (fixed, replaces its catchment accumulation)
+//   P2: Q = i(10 min) x 6000 m^2 + 0.040 = 0.231379 m3/s; C A = 6000 m^2 (WW's 10000 m^2 not passed on)
+TEST_CASE("a force main passes its pumped flow on as a constant inflow and stops the catchment sums",
+          "[flows][rational]") {
+  test::Tree t;
+  const auto ww = t.structure("WW", model::StructureKind::pump_station);
+  const auto a = t.structure("A", model::StructureKind::inlet);
+  const auto j = t.structure("J");
+  const auto o = t.structure("O", model::StructureKind::outfall);
+  const auto fm = t.pipe("FM", ww, j, 300.0, 0.15);
+  const auto p1 = t.pipe("P1", a, j);
+  const auto p2 = t.pipe("P2", j, o);
+  t.net.conduits[fm].force_main = true;
+  std::vector<flows::LocalInflow> local(4);
+  local[ww].area_m2 = 2.0e4;
+  local[ww].ca_m2 = 1.0e4;
+  local[ww].inlet_time_s = 10.0 * minute;
+  local[a].area_m2 = 1.0e4;
+  local[a].ca_m2 = 0.6e4;
+  local[a].inlet_time_s = 10.0 * minute;
+  Findings findings;
+  const auto zero = [](std::size_t, double, flows::PipeDesign&) { return 0.0; };
+  const auto r = flows::storm_along_tree(t.net, t.topo, local, formula_3330_19(), zero, flows::Split::capacity,
+                                         findings, {{fm, 0.040}});
+  CHECK(r.pipes[fm].flow_m3_s == 0.040);
+  CHECK(r.pipes[p1].flow_m3_s == Approx(0.191379).epsilon(1e-5));
+  CHECK(r.pipes[p2].flow_m3_s == Approx(0.231379).epsilon(1e-5));
+  CHECK(r.pipes[p2].ca_m2 == Approx(6000.0));
+  CHECK(r.pipes[p2].tc_s == Approx(600.0));
+  // Sanitary: the pumped flow is added below the receiving structure the same way.
+  flows::SanitaryOptions so;
+  so.per_capita_m3_s = 0.0;
+  const auto s = flows::sanitary_along_tree(t.net, t.topo, local, so, flows::Split::capacity, {{fm, 0.040}});
+  CHECK(s.pipes[p2].flow_m3_s == Approx(0.040));
+}
