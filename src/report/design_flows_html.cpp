@@ -3,6 +3,7 @@
 #include <cmath>
 #include <cstdio>
 
+#include "report/html_cells.hpp"
 #include "rimline/report/outputs.hpp"
 #include "rimline/report/profile_svg.hpp"
 
@@ -12,14 +13,11 @@ namespace {
 using units::Dimension;
 
 std::string cell(double si, Dimension d, units::System sys, const char* format = "%.3f") {
-  if (!std::isfinite(si)) return "<td></td>";
-  char buf[48];
-  std::snprintf(buf, sizeof buf, format, d == Dimension::dimensionless ? si : to_report(si, d, sys));
-  return std::string("<td>") + buf + "</td>";
+  return "<td>" + html::value(si, d, sys, format) + "</td>";
 }
 
 std::string head(const char* name, Dimension d, units::System sys) {
-  return std::string("<th>") + name + " (" + std::string(units::unit_symbol(units::display_unit(d, sys))) + ")</th>";
+  return std::string("<th>") + name + " (" + html::unit(d, sys) + ")</th>";
 }
 
 }  // namespace

@@ -4,6 +4,7 @@
 #include <cmath>
 #include <cstdio>
 
+#include "report/html_cells.hpp"
 #include "rimline/report/outputs.hpp"
 #include "rimline/report/profile_svg.hpp"
 
@@ -16,10 +17,7 @@ std::string esc(std::string_view s) { return xml_escape(s); }
 
 // Flows of small stations need a fourth decimal (0.0147 m3/s); the rest keeps the report's three.
 std::string val(double si, Dimension d, units::System sys) {
-  if (!std::isfinite(si)) return "";
-  char buf[48];
-  std::snprintf(buf, sizeof buf, d == Dimension::flow ? "%.4f" : "%.3f", to_report(si, d, sys));
-  return buf;
+  return html::value(si, d, sys, d == Dimension::flow ? "%.4f" : "%.3f");
 }
 
 std::string friction_text(const model::ForceMainSettings& s) {
@@ -31,13 +29,8 @@ std::string friction_text(const model::ForceMainSettings& s) {
   return "Darcy-Weisbach with Colebrook-White (each pipe's ks)";
 }
 
-std::string unit(Dimension d, units::System sys) { return std::string(units::unit_symbol(units::display_unit(d, sys))); }
-
-std::string row(std::initializer_list<std::string> cells, const char* tag = "td") {
-  std::string r = "<tr>";
-  for (const auto& c : cells) r += std::string("<") + tag + ">" + c + "</" + tag + ">";
-  return r + "</tr>\n";
-}
+using html::row;
+using html::unit;
 
 std::string station_block(const run::CheckRun& run, std::size_t i) {
   const auto sys = run.report_units;

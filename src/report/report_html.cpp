@@ -8,6 +8,7 @@
 #include <unordered_map>
 
 #include "report/design_flows_html.hpp"
+#include "report/html_cells.hpp"
 #include "report/html_style.hpp"
 #include "report/pump_station_html.hpp"
 #include "report/sheet_text.hpp"
@@ -26,22 +27,9 @@ using units::Dimension;
 
 std::string esc(std::string_view s) { return xml_escape(s); }
 
-std::string value(double si, Dimension d, units::System sys) {
-  if (!std::isfinite(si)) return "";
-  char buf[48];
-  std::snprintf(buf, sizeof buf, "%.3f", to_report(si, d, sys));
-  return buf;
-}
-
-std::string unit(Dimension d, units::System sys) {
-  return d == Dimension::dimensionless ? "" : std::string(units::unit_symbol(units::display_unit(d, sys)));
-}
-
-std::string row(std::initializer_list<std::string> cells, const char* tag = "td") {
-  std::string r = "<tr>";
-  for (const auto& c : cells) r += std::string("<") + tag + ">" + c + "</" + tag + ">";
-  return r + "</tr>\n";
-}
+using html::row;
+using html::unit;
+using html::value;
 
 std::string finding_key(const Finding& f) {
   return f.code + '\x1f' + std::to_string(static_cast<int>(f.layer)) + '\x1f' + f.feature_id + '\x1f' + f.field +
