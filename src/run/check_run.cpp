@@ -191,6 +191,8 @@ CheckRun run_check(const io::Project& project, const RunOptions& options) {
   };
   std::vector<double> receiving(layouts.size(), nan);
   solve_stations(receiving);
+  for (std::size_t i = 0; i < layouts.size(); ++i)
+    if (layouts[i].ok) run.march_options.wet_well_level_m[layouts[i].wet_well] = stations[i].pump_on_m;
 
   std::vector<double> levels = options.tailwater_levels_m.empty() ? project.tailwater_levels_m : options.tailwater_levels_m;
   if (levels.empty()) levels.push_back(nan);  // outfall fields or free outfalls decide

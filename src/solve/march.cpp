@@ -72,7 +72,10 @@ class Marcher {
     if (outs.empty() && pumped) {
       r.pumped = true;
       r.solved = true;
-      r.hgl_m = r.egl_m = free_level_m;  // the inflows discharge freely into the wet well
+      const auto level = opt_.wet_well_level_m.find(s);
+      // At its pump-on level the wet well backs water up into the incoming sewers; without one the
+      // inflows discharge freely into it.
+      r.hgl_m = r.egl_m = level != opt_.wet_well_level_m.end() ? level->second : free_level_m;
       return;
     }
     if (outs.empty()) {

@@ -27,6 +27,9 @@ struct MarchOptions {
   double default_k = 0.5;                   // common practice, no source
   double default_structure_diameter_m = 1.2;
   hydraulics::GvfOptions gvf;
+  // Water level of pump wet wells by structure index: the pump-on level, the highest the incoming
+  // sewers see in operation. A wet well without one takes the inflows freely (the pipes' own outlet levels).
+  std::map<std::size_t, double> wet_well_level_m;
   // Worker threads over the network's connected components (0: one per core). Results do not
   // depend on it; small networks run on one thread.
   unsigned threads = 0;

@@ -192,3 +192,42 @@ TEST_CASE("flows: structure inflows accumulate downstream and split at a diversi
   CHECK(f.flow_m3_s[0] == Approx(0.3 * std::pow(2.0, 8.0 / 3.0) / (1.0 + std::pow(2.0, 8.0 / 3.0))).epsilon(1e-9));
   CHECK(f.flow_m3_s[0] + f.flow_m3_s[1] == Approx(0.3));
 }
+
+// A pump wet well at its pump-on level backs water up into the arriving sewer:
+// MH-1 -P1-> WW =FM=> OF. P1 0.3 m, outlet invert 10.0 m; pump-on level 10.5 m, above P1's crown
+// (10.3 m), so P1's outlet runs full with its HGL at 10.5 m, and WW reports 10.5 m. Without a
+// level the wet well takes P1's free outfall (its outlet level, below the crown).
+TEST_CASE("a wet well at its pump-on level sets the arriving pipe's downstream level", "[march][pump]") {
+  model::Network net;
+  net.structures = {structure("OF", model::StructureKind::outfall, 14.0, 16.0),
+                    structure("WW", model::StructureKind::pump_station, 9.0, 14.0),
+                    structure("MH-1", model::StructureKind::manhole, 10.4, 14.0)};
+  auto p1 = pipe("P1", 2, 1, 0.3, 10.4, 10.0, 80.0, 0.03);
+  auto fm = pipe("FM", 1, 0, 0.15, 9.5, 14.0, 300.0, 0.03);
+  fm.force_main = true;
+  net.conduits = {p1, fm};
+  topology::Topology topo;
+  topo.nodes.resize(3);
+  topo.nodes[0].inflows = {1};
+  topo.nodes[0].outfall = true;
+  topo.nodes[1].inflows = {0};
+  topo.nodes[1].outflows = {1};
+  topo.nodes[2].outflows = {0};
+  topo.deflection_deg = {0.0, 0.0};
+  const std::vector<double> q{0.03, 0.03};
+
+  solve::MarchOptions free_ww;
+  const auto a = solve::march(net, topo, q, free_ww);
+  REQUIRE(a.structures[1].pumped);
+  REQUIRE(a.conduits[0].solved);
+  CHECK(a.conduits[0].profile.outlet().hgl_m < 10.3);
+
+  solve::MarchOptions at_level;
+  at_level.wet_well_level_m[1] = 10.5;
+  const auto b = solve::march(net, topo, q, at_level);
+  CHECK(b.structures[1].hgl_m == Approx(10.5));
+  CHECK(b.conduits[0].downstream_level_m == Approx(10.5));
+  CHECK(b.conduits[0].profile.outlet().hgl_m == Approx(10.5));
+  CHECK(b.conduits[0].profile.outlet().full);
+  CHECK(b.structures[2].hgl_m > 10.5);  // MH-1 above the backed-up pipe
+}
