@@ -4,12 +4,11 @@
 #include <cmath>
 #include <iterator>
 
-#include "rimline/io/force_main_profile.hpp"
-#include "rimline/io/read_pump_stations.hpp"
 #include <map>
 #include <tuple>
 
 #include "run/catchment_run.hpp"
+#include "run/pump_run.hpp"
 
 namespace rimline::run {
 namespace {
@@ -157,40 +156,10 @@ CheckRun run_check(const io::Project& project, const RunOptions& options) {
   flow_opt.friction = project.methods.friction;
   flow_opt.default_inflow_m3_s = project.default_inflow_m3_s.value_or(0.0);
 
-  // Stations of a point layer join the project file's; run.project holds them all from here on.
-  for (auto& st : io::read_pump_station_points(project, project.pump_stations, run.data_findings,
-                                                   run.read.input_files))
-    run.project.pump_stations.push_back(std::move(st));
+  if (!project.pump_stations.empty() || !project.pump_station_points.source.empty()) stage("force-main profiles");
+  const auto layouts = lay_out_pump_stations(project, run);
   const auto& stations = run.project.pump_stations;
-  std::vector<solve::StationLayout> layouts;
-  if (!stations.empty()) {
-    stage("force-main profiles");
-    run.force_main_profiles = io::force_main_profiles(run.read.network, project.force_mains, run.data_findings);
-    layouts = solve::lay_out_stations(run.read.network, run.topology, stations, run.force_main_profiles,
-                                      run.data_findings);
-  }
-  // A force main that no station reaches is left unchecked by both the gravity march and the station solve.
-  {
-    std::vector<bool> in_station(run.read.network.conduits.size(), false);
-    for (const auto& l : layouts)
-      for (std::size_t ci : l.chain) in_station[ci] = true;
-    for (std::size_t ci = 0; ci < run.read.network.conduits.size(); ++ci) {
-      const auto& c = run.read.network.conduits[ci];
-      if (!c.force_main || !model::marched(c) || in_station[ci]) continue;
-      run.data_findings.push_back({"FM_NOT_CHECKED", Severity::info, LayerRole::force_mains, c.id, "", nan, nan,
-                                   units::Dimension::dimensionless,
-                                   "force main " + c.id + " belongs to no [[pump_stations]] entry, so its pressure flow "
-                                   "is not checked; the gravity march leaves force mains to their pump station."});
-    }
-  }
-  auto solve_stations = [&](const std::vector<double>& receiving) {
-    run.pump_stations.clear();
-    for (std::size_t i = 0; i < layouts.size(); ++i)
-      run.pump_stations.push_back(solve::solve_station(run.read.network, stations[i], layouts[i],
-                                                       project.force_mains, receiving[i]));
-  };
-  std::vector<double> receiving(layouts.size(), nan);
-  solve_stations(receiving);
+  solve_pump_stations(project, layouts, std::vector<double>(layouts.size(), nan), run);
   for (std::size_t i = 0; i < layouts.size(); ++i)
     if (layouts[i].ok) run.march_options.wet_well_level_m[layouts[i].wet_well] = stations[i].pump_on_m;
 
@@ -225,15 +194,7 @@ CheckRun run_check(const io::Project& project, const RunOptions& options) {
     // The receiving structure's level (highest over the cases) is the next discharge level.
     std::vector<double> before;
     for (const auto& st : run.pump_stations) before.push_back(st.design_flow_m3_s);
-    for (std::size_t i = 0; i < layouts.size(); ++i) {
-      receiving[i] = nan;
-      if (!layouts[i].ok) continue;
-      for (const auto& c : run.cases) {
-        const auto& r = c.march.structures[layouts[i].discharge];
-        if (r.solved && std::isfinite(r.hgl_m) && !(receiving[i] >= r.hgl_m)) receiving[i] = r.hgl_m;
-      }
-    }
-    solve_stations(receiving);
+    solve_pump_stations(project, layouts, receiving_levels(layouts, run), run);
     settled = true;
     for (std::size_t i = 0; i < before.size(); ++i)
       if (std::abs(run.pump_stations[i].design_flow_m3_s - before[i]) > 0.005 * std::max(before[i], 1e-9)) settled = false;
@@ -246,21 +207,7 @@ CheckRun run_check(const io::Project& project, const RunOptions& options) {
                                  "the pumped flows and the receiving structures' levels did not settle within " +
                                      std::to_string(max_pump_iterations) +
                                      " rounds (flow change 0.5 % or more); the pump-station figures are approximate."});
-  const auto& network = run.read.network;
-  for (std::size_t i = 0; i < layouts.size(); ++i) {
-    double inflow = 0.0;
-    if (layouts[i].ok) {
-      const std::size_t ww = layouts[i].wet_well;
-      for (std::size_t ci = 0; ci < network.conduits.size(); ++ci) {
-        const auto& c = network.conduits[ci];
-        if (model::marched(c) && !c.force_main && c.to == ww && std::isfinite(run.flows.flow_m3_s[ci]))
-          inflow += run.flows.flow_m3_s[ci];
-      }
-      if (flow_opt.mode == flows::Mode::structure_inflows)
-        inflow += network.structures[ww].inflow_m3_s.value_or(flow_opt.default_inflow_m3_s);
-    }
-    run.wet_well_inflow_m3_s.push_back(inflow);
-  }
+  run.wet_well_inflow_m3_s = wet_well_inflows(layouts, flow_opt, run);
   // March problems (blocked, not converged) are the same in every case but the first is kept.
   auto& march_findings = run.cases.front().march.findings;
   run.data_findings.insert(run.data_findings.end(), std::make_move_iterator(march_findings.begin()),
