@@ -7,7 +7,7 @@ build="${1:-$here/build}"
 shift || true
 
 packages=(cmake g++ make pkg-config
-          libgdal-dev gdal-bin python3-gdal libgeos-dev libproj-dev proj-bin
+          libgdal-dev libsqlite3-dev gdal-bin python3-gdal libgeos-dev libproj-dev proj-bin
           libcli11-dev catch2 libtomlplusplus-dev nlohmann-json3-dev libcairo2-dev
           poppler-utils libxml2-utils)
 missing=()

@@ -18,6 +18,7 @@
 #include "rimline/report/outputs.hpp"
 #include "rimline/report/report_html.hpp"
 #include "rimline/report/staged_files.hpp"
+#include "report/gpkg_rtree.hpp"
 
 namespace rimline::report {
 namespace {
@@ -60,6 +61,10 @@ class Writer {
     }
     if (ds_->CommitTransaction() != OGRERR_NONE)
       throw Error(ErrorKind::bad_config, ErrorContext{path_, "", "", ""}, "cannot be written");
+    ds_.reset();  // closed before SQLite opens it again for the indexes
+    std::vector<SpatialIndexRequest> indexes;
+    for (auto& [name, rq] : indexes_) indexes.push_back(std::move(rq));
+    add_gpkg_spatial_indexes(path_, indexes);
   }
 
  private:
@@ -74,6 +79,8 @@ class Writer {
   OGRLayer* layer(const char* name, OGRwkbGeometryType type) {
     char** opts = nullptr;
     opts = CSLSetNameValue(opts, "FID", "fid");
+    // The spatial index is packed in one pass after the rows (gpkg_rtree.hpp), not grown per row.
+    opts = CSLSetNameValue(opts, "SPATIAL_INDEX", "NO");
     OGRLayer* l = ds_->CreateLayer(name, type == wkbNone ? nullptr : &out_srs_, type, opts);
     CSLDestroy(opts);
     if (!l) throw Error(ErrorKind::bad_config, ErrorContext{path_, name, "", ""}, "layer cannot be created");
@@ -97,6 +104,16 @@ class Writer {
   void add(OGRLayer* l, OGRFeature& f) {
     if (l->CreateFeature(&f) != OGRERR_NONE)
       throw Error(ErrorKind::bad_config, ErrorContext{path_, l->GetName(), "", ""}, "a feature cannot be written");
+    const OGRGeometry* g = f.GetGeometryRef();
+    if (!g || g->IsEmpty()) return;
+    OGREnvelope e;
+    g->getEnvelope(&e);
+    auto it = std::find_if(indexes_.begin(), indexes_.end(), [l](const auto& x) { return x.first == l; });
+    if (it == indexes_.end()) {
+      indexes_.emplace_back(l, SpatialIndexRequest{l->GetName(), l->GetGeometryColumn(), "fid", {}});
+      it = indexes_.end() - 1;
+    }
+    it->second.envelopes.push_back(Envelope{f.GetFID(), e.MinX, e.MaxX, e.MinY, e.MaxY});
   }
 
   static void field(OGRLayer* l, const char* name, OGRFieldType t) {
@@ -446,6 +463,7 @@ class Writer {
   std::unique_ptr<OGRCoordinateTransformation> to_source_;
   std::map<std::pair<const OGRFeatureDefn*, const char*>, int> field_ix_;
   std::vector<std::string> case_labels_;
+  std::vector<std::pair<const OGRLayer*, SpatialIndexRequest>> indexes_;  // in layer creation order
 };
 
 }  // namespace
