@@ -131,6 +131,7 @@ void draw_line(const SceneLine& line, const PlotFrame& f, Canvas& c, const std::
   for (const auto& part : line.parts) {
     std::vector<Pt> pts;
     for (const auto& q : part) pts.push_back({f.px(q.x), f.py(q.y)});
+    pts = simplified_polyline(pts, drawing_tolerance_mm);
     if (pts.size() == 1) pts.push_back({pts[0].x + 0.01, pts[0].y});
     c.polyline(pts, pen_for(line.stroke));
   }
@@ -339,6 +340,34 @@ PlotFrame draw_profile(const ProfileScene& scene, const Panel& panel, Canvas& ca
   draw_band(scene, f, panel, labelled, canvas);
   draw_finding_list(scene, f, panel, canvas);
   return f;
+}
+
+std::vector<Pt> simplified_polyline(const std::vector<Pt>& pts, double tolerance_mm) {
+  if (pts.size() < 3) return pts;
+  std::vector<bool> keep(pts.size(), false);
+  keep.front() = keep.back() = true;
+  std::vector<std::pair<std::size_t, std::size_t>> todo{{0, pts.size() - 1}};
+  while (!todo.empty()) {
+    const auto [a, b] = todo.back();
+    todo.pop_back();
+    const double dx = pts[b].x - pts[a].x, dy = pts[b].y - pts[a].y, len = std::hypot(dx, dy);
+    double worst = -1.0;
+    std::size_t at = a;
+    for (std::size_t k = a + 1; k < b; ++k) {
+      const double ex = pts[k].x - pts[a].x, ey = pts[k].y - pts[a].y;
+      const double d = len > 0.0 ? std::abs(ex * dy - ey * dx) / len : std::hypot(ex, ey);
+      if (d > worst) worst = d, at = k;
+    }
+    if (worst > tolerance_mm) {
+      keep[at] = true;
+      if (at - a > 1) todo.emplace_back(a, at);
+      if (b - at > 1) todo.emplace_back(at, b);
+    }
+  }
+  std::vector<Pt> out;
+  for (std::size_t k = 0; k < pts.size(); ++k)
+    if (keep[k]) out.push_back(pts[k]);
+  return out;
 }
 
 }  // namespace rimline::report

@@ -34,4 +34,12 @@ std::string stroke_label(Stroke s, const ProfileScene& scene);
 // "H 1:2000  V 1:200  vertical exaggeration 10:1"
 std::string scale_text(const PlotFrame& f);
 
+// Douglas-Peucker (1973) on sheet coordinates: the points of `pts` farther than `tolerance_mm`
+// from the chords of the kept ones, ends always kept. A trunk's HGL carries a step point every
+// few metres, thousands per line, most closer than a hundredth of a millimetre to that chord;
+// dropping them leaves the drawing unchanged at any zoom a reader uses and keeps a city's
+// profiles small and quick to write.
+inline constexpr double drawing_tolerance_mm = 0.01;
+std::vector<Pt> simplified_polyline(const std::vector<Pt>& pts, double tolerance_mm);
+
 }  // namespace rimline::report

@@ -16,7 +16,6 @@
 #include "rimline/method_registry.hpp"
 #include "rimline/report/outputs.hpp"
 #include "rimline/report/profile_svg.hpp"
-#include "rimline/sha256.hpp"
 #include "rimline/topology/summary.hpp"
 #include "rimline/version.hpp"
 
@@ -74,16 +73,9 @@ std::string summary_section(const run::CheckRun& run, const std::string& date) {
 std::string inputs_section(const run::CheckRun& run) {
   std::string h = "<section id=\"inputs\"><h2>Inputs</h2>\n<table class=\"grid\">\n";
   h += row({"File", "SHA-256"}, "th");
-  std::vector<std::string> files = run.read.input_files;
-  files.insert(files.begin(), run.project.file);
-  for (const auto& f : files) {
-    std::string hash;
-    try {
-      hash = sha256_file_hex(f);
-    } catch (const std::exception&) {
-      hash = "(not a file: not hashed)";
-    }
-    h += row({"<code>" + esc(f) + "</code>", "<code class=\"hash\">" + esc(hash) + "</code>"});
+  for (const auto& f : run.inputs) {
+    const std::string hash = f.sha256.empty() ? "(not a file: not hashed)" : f.sha256;
+    h += row({"<code>" + esc(f.path) + "</code>", "<code class=\"hash\">" + esc(hash) + "</code>"});
   }
   h += "</table>\n";
   if (!run.read.defaults_used.empty()) {

@@ -4,7 +4,6 @@
 
 #include "rimline/hydraulics/friction.hpp"
 #include "rimline/report/outputs.hpp"
-#include "rimline/sha256.hpp"
 #include "rimline/topology/summary.hpp"
 #include "rimline/version.hpp"
 
@@ -65,17 +64,7 @@ std::string summary_json(const run::CheckRun& run) {
   j["caution"] = caution;
   j["project"] = {{"name", run.project.name}, {"file", run.project.file}};
   ordered_json inputs = ordered_json::array();
-  std::vector<std::string> files = run.read.input_files;
-  files.insert(files.begin(), run.project.file);
-  for (const auto& f : files) {
-    std::string hash;
-    try {
-      hash = sha256_file_hex(f);
-    } catch (const std::exception&) {
-      hash = "";  // a database source has no file to hash
-    }
-    inputs.push_back({{"path", f}, {"sha256", hash}});
-  }
+  for (const auto& f : run.inputs) inputs.push_back({{"path", f.path}, {"sha256", f.sha256}});
   j["inputs"] = inputs;
   j["units"] = {{"system", sys == units::System::us ? "us" : "si"},
                 {"length", units::unit_symbol(units::display_unit(units::Dimension::length, sys))},

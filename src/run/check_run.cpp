@@ -8,6 +8,7 @@
 #include <tuple>
 
 #include "run/catchment_run.hpp"
+#include "run/input_hashes.hpp"
 #include "run/pump_run.hpp"
 
 namespace rimline::run {
@@ -130,6 +131,12 @@ CheckRun run_check(const io::Project& project, const RunOptions& options) {
   };
   stage("reading the layers");
   run.read = io::read_network(project);
+  auto files_read = [&run] {
+    std::vector<std::string> files = run.read.input_files;
+    files.insert(files.begin(), run.project.file);
+    return files;
+  };
+  InputHashes hashes(files_read());
   stage("connecting the network");
   run.data_findings = run.read.findings;
   topology::TopologyOptions topo_opt;
@@ -144,6 +151,7 @@ CheckRun run_check(const io::Project& project, const RunOptions& options) {
   if (from_catchments) assign_catchment_outlets(project, run);
   if (options.dry_run) {
     merge_findings(run, {});
+    run.inputs = hashes.finish(files_read());
     return run;
   }
 
@@ -236,6 +244,7 @@ CheckRun run_check(const io::Project& project, const RunOptions& options) {
                                         run.wet_well_inflow_m3_s[i]))
       criteria.push_back(std::move(f));
   merge_findings(run, std::move(criteria));
+  run.inputs = hashes.finish(files_read());
   return run;
 }
 

@@ -11,6 +11,7 @@
 #include "rimline/io/project.hpp"
 #include "rimline/report/outputs.hpp"
 #include "rimline/run/check_run.hpp"
+#include "rimline/sha256.hpp"
 #include "test_paths.hpp"
 
 using namespace rimline;
@@ -67,6 +68,16 @@ TEST_CASE("demo (metric): outputs contract and energy invariants hold") {
   CHECK(rc == 0);
   // No temporary file is left behind.
   for (const auto& e : fs::directory_iterator(out)) CHECK(e.path().filename().string().rfind(".", 0) != 0);
+  // Every input is listed once with the SHA-256 of its bytes (FIPS 180-4, rimline::sha256_file_hex),
+  // the project file first and the pipe layer's file among them.
+  REQUIRE(r.inputs.size() >= 2);
+  CHECK(r.inputs.front().path == project.file);
+  bool network = false;
+  for (const auto& f : r.inputs) {
+    CHECK(f.sha256 == sha256_file_hex(f.path));
+    network = network || fs::path(f.path).filename() == "pipes.geojson";
+  }
+  CHECK(network);
 }
 
 TEST_CASE("demo (US customary): outputs contract and energy invariants hold in feet") {

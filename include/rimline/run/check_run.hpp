@@ -39,9 +39,16 @@ struct Case {
   Findings findings;       // criteria findings of this case
 };
 
+// A file the run read, with the SHA-256 of its bytes ("" when the source is not a file, e.g. a database).
+struct InputFile {
+  std::string path;
+  std::string sha256;
+};
+
 struct CheckRun {
   io::Project project;
   io::ReadResult read;
+  std::vector<InputFile> inputs;  // the project file, then every file read (hashed once, beside the march)
   topology::Topology topology;
   flows::DesignFlows flows;
   // Flows modes "rational" / "sanitary": the catchments with their outlets and the per-pipe design

@@ -11,6 +11,7 @@
 #include <string>
 
 #include "rimline/run/check_run.hpp"
+#include "rimline/sha256.hpp"
 
 namespace rimline::test {
 
@@ -30,6 +31,7 @@ inline run::CheckRun fixture_run(const std::string& project_file = "") {
   run::CheckRun run;
   run.project.name = "Fixture network";
   run.project.file = project_file;
+  if (!project_file.empty()) run.inputs.push_back({project_file, sha256_file_hex(project_file)});  // as run_check hashes it
   auto& net = run.read.network;
   auto structure = [&](const char* id, double x, double y, double rim, double invert, model::StructureKind k) {
     model::Structure s;
