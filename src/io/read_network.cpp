@@ -1,6 +1,9 @@
 #include "rimline/io/read_network.hpp"
 
 #include <algorithm>
+#include <exception>
+#include <iterator>
+#include <thread>
 
 #include "io/read_catchments.hpp"
 #include "io/read_layers.hpp"
@@ -75,25 +78,48 @@ ReadResult read_network(const Project& project) {
   result.network.crs_note = crs.note;
   result.network.crs_metres_per_unit = crs.metres_per_unit;
 
-  LayerRead pipe_read{project, pipes, Placement{crs.to_run.get(), crs.metres_per_unit, crs.z_metres_per_unit},
-                      result.findings, defaults};
-  read_pipes(pipe_read, result.network.conduits);
-  if (!project.force_main_layer.source.empty()) read_force_main_layer(project, crs, defaults, result);
-
-  if (!project.structures.source.empty()) {
-    OpenLayer structures = open_layer(project.structures, "structures");
-    require_geometry_and_features(structures, "structures");
-    check_structure_mapping(project, structures);
-    const TransformPtr to_run = transform_into_run(structures, crs, project.crs_override);
-    LayerRead structure_read{project, structures, Placement{to_run.get(), crs.metres_per_unit, crs.z_metres_per_unit},
-                             result.findings, defaults};
-    read_structures(structure_read, result.network.structures);
-    for (const auto& f : structures.files)  // both layers may live in one file
-      if (std::find(result.input_files.begin(), result.input_files.end(), f) == result.input_files.end())
-        result.input_files.push_back(f);
+  // The structures layer is read on its own thread beside the pipes (a city's export: a million
+  // features each), with its own dataset handle, findings and tally, appended after the pipes'
+  // so the result is the same as reading one after the other.
+  Findings structure_findings;
+  DefaultTally structure_defaults;
+  std::vector<std::string> structure_files;
+  std::exception_ptr structures_failed;
+  std::thread structure_reader;
+  if (!project.structures.source.empty())
+    structure_reader = std::thread([&] {
+      try {
+        OpenLayer structures = open_layer(project.structures, "structures");
+        require_geometry_and_features(structures, "structures");
+        check_structure_mapping(project, structures);
+        const TransformPtr to_run = transform_into_run(structures, crs, project.crs_override);
+        LayerRead structure_read{project, structures, Placement{to_run.get(), crs.metres_per_unit, crs.z_metres_per_unit},
+                                 structure_findings, structure_defaults};
+        read_structures(structure_read, result.network.structures);
+        structure_files = structures.files;
+      } catch (...) {
+        structures_failed = std::current_exception();
+      }
+    });
+  try {
+    LayerRead pipe_read{project, pipes, Placement{crs.to_run.get(), crs.metres_per_unit, crs.z_metres_per_unit},
+                        result.findings, defaults};
+    read_pipes(pipe_read, result.network.conduits);
+    if (!project.force_main_layer.source.empty()) read_force_main_layer(project, crs, defaults, result);
+  } catch (...) {
+    if (structure_reader.joinable()) structure_reader.join();
+    throw;  // a problem with the pipes is reported first, as when the layers were read in turn
   }
+  if (structure_reader.joinable()) structure_reader.join();
+  if (structures_failed) std::rethrow_exception(structures_failed);
+  result.findings.insert(result.findings.end(), std::make_move_iterator(structure_findings.begin()),
+                         std::make_move_iterator(structure_findings.end()));
+  for (const auto& f : structure_files)  // both layers may live in one file
+    if (std::find(result.input_files.begin(), result.input_files.end(), f) == result.input_files.end())
+      result.input_files.push_back(f);
   read_catchment_layers(project, crs, result);
   result.defaults_used = defaults.take();
+  for (auto& n : structure_defaults.take()) result.defaults_used.push_back(std::move(n));
   return result;
 }
 

@@ -1,8 +1,10 @@
 // write_drawings: the profile SVGs, the PDF set and the HTML report, staged for one commit.
 #include <cmath>
+#include <exception>
 #include <filesystem>
 #include <fstream>
 #include <set>
+#include <thread>
 
 #include "report/force_main_drawing.hpp"
 #include "report/profile_scene.hpp"
@@ -49,6 +51,21 @@ void write_drawings(const run::CheckRun& run, StagedFiles& files, const DrawingO
 
   std::error_code ec;
   if (!sheets.empty()) fs::create_directories(dir / "profiles", ec);  // rename() needs the final folder
+  // The PDF set (cairo) shares nothing with the SVGs and the page but the finished run: it is
+  // drawn beside them, on another core (a city's 400 sheets are the longest drawing step).
+  const bool pdf = pdf_supported() && !sheets.empty();
+  if (!pdf) fs::remove(dir / "profiles.pdf", ec);
+  std::exception_ptr pdf_failed;
+  std::jthread pdf_writer;
+  const std::string pdf_path = pdf ? files.path_for("profiles.pdf") : "";  // StagedFiles is not shared across threads
+  if (pdf)
+    pdf_writer = std::jthread([&] {
+      try {
+        write_profiles_pdf(run, sheets, date, pdf_path);
+      } catch (...) {
+        pdf_failed = std::current_exception();
+      }
+    });
   std::vector<RenderedProfile> rendered;
   std::set<std::string> stems;
   const FindingIndex index(run);  // once for every sheet
@@ -94,10 +111,9 @@ void write_drawings(const run::CheckRun& run, StagedFiles& files, const DrawingO
     if (e.path().extension() == ".svg" && !stems.count(e.path().stem().string())) fs::remove(e.path(), ec);
   }
 
-  const bool pdf = pdf_supported() && !sheets.empty();
-  if (pdf) write_profiles_pdf(run, sheets, date, files.path_for("profiles.pdf"));
-  else fs::remove(dir / "profiles.pdf", ec);
   write_file(html_tmp, report_html(run, rendered, date, pdf, selection_text(options, run.report_units)));
+  if (pdf_writer.joinable()) pdf_writer.join();
+  if (pdf_failed) std::rethrow_exception(pdf_failed);
 }
 
 }  // namespace rimline::report
