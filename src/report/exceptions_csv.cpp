@@ -1,5 +1,7 @@
 #include <cmath>
 #include <cstdio>
+#include <ostream>
+#include <sstream>
 
 #include "rimline/report/outputs.hpp"
 
@@ -34,17 +36,22 @@ double to_report(double si_value, units::Dimension d, units::System s) {
   return units::from_si(si_value, units::display_unit(d, s));
 }
 
-std::string exceptions_csv(const run::CheckRun& run) {
+void write_exceptions_csv(const run::CheckRun& run, std::ostream& out) {
   const auto sys = run.report_units;
-  std::string out = "code,severity,layer,feature_id,field,value,limit,unit,message\n";
+  out << "code,severity,layer,feature_id,field,value,limit,unit,message\n";
   for (const auto& f : run.findings) {
-    out += csv_cell(f.code) + ',' + std::string(severity_name(f.severity)) + ',' +
+    out << csv_cell(f.code) + ',' + std::string(severity_name(f.severity)) + ',' +
            std::string(layer_role_name(f.layer)) + ',' + csv_cell(f.feature_id) + ',' + csv_cell(f.field) + ',' +
            number(f.value, f.dimension, sys) + ',' + number(f.limit, f.dimension, sys) + ',' +
            csv_cell(std::isfinite(f.value) || std::isfinite(f.limit) ? unit_text(f.dimension, sys) : "") + ',' +
            csv_cell(render_message(f.message, sys)) + '\n';
   }
-  return out;
+}
+
+std::string exceptions_csv(const run::CheckRun& run) {
+  std::ostringstream out;
+  write_exceptions_csv(run, out);
+  return out.str();
 }
 
 }  // namespace rimline::report

@@ -6,6 +6,7 @@
 #include <cmath>
 #include <exception>
 #include <map>
+#include <ostream>
 #include <memory>
 #include <string>
 #include <thread>
@@ -484,7 +485,7 @@ void write_outputs(const run::CheckRun& run, const std::string& out_dir, const O
         gpkg_failed = std::current_exception();
       }
     });
-    files.write_text("exceptions.csv", exceptions_csv(run));
+    files.write_stream("exceptions.csv", [&run](std::ostream& out) { write_exceptions_csv(run, out); });
     files.write_text("summary.json", summary_json(run));
     if (options.drawings) write_drawings(run, files, options.profiles);
   }

@@ -58,9 +58,13 @@ std::string StagedFiles::path_for(const std::string& name) {
 }
 
 void StagedFiles::write_text(const std::string& name, const std::string& text) {
+  write_stream(name, [&text](std::ostream& out) { out << text; });
+}
+
+void StagedFiles::write_stream(const std::string& name, const std::function<void(std::ostream&)>& fill) {
   const std::string tmp = path_for(name);
   std::ofstream out(tmp, std::ios::binary | std::ios::trunc);
-  out << text;
+  fill(out);
   out.flush();
   if (!out) throw Error(ErrorKind::bad_config, ErrorContext{tmp, "", "", ""}, "cannot be written");
 }

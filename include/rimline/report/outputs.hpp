@@ -8,6 +8,7 @@
 //   DIR/report.html     the self-contained review report
 // Every file is written under a temporary name in DIR and renamed into place, so an interrupted
 // run leaves the previous file or the new one, never a partial one.
+#include <iosfwd>
 #include <string>
 
 #include "rimline/report/profile_path.hpp"
@@ -29,6 +30,7 @@ void write_outputs(const run::CheckRun& run, const std::string& out_dir, const O
 
 // Pieces, for tests and for other writers.
 std::string exceptions_csv(const run::CheckRun& run);
+void write_exceptions_csv(const run::CheckRun& run, std::ostream& out);  // the same, row by row
 std::string summary_json(const run::CheckRun& run);
 void write_results_gpkg(const run::CheckRun& run, const std::string& path);
 

@@ -1,6 +1,8 @@
 #pragma once
 // Writes files under temporary names in the output directory and renames them into place
 // only when all are complete (rename is atomic within one file system).
+#include <functional>
+#include <iosfwd>
 #include <string>
 #include <vector>
 
@@ -17,6 +19,8 @@ class StagedFiles {
   // Temporary path to write `name` to.
   std::string path_for(const std::string& name);
   void write_text(const std::string& name, const std::string& text);
+  // Streams a file's content as it is made (a city's exceptions.csv is ~150 MB: not held in memory).
+  void write_stream(const std::string& name, const std::function<void(std::ostream&)>& fill);
   // Renames every staged file to its final name.
   void commit();
 
