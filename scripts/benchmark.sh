@@ -215,7 +215,7 @@ lines = ["# rimline scale benchmark", "",
          % (seed, os.cpu_count(), cpu, round(os.sysconf("SC_PAGE_SIZE") * os.sysconf("SC_PHYS_PAGES") / 2**30)),
          "%s at the end: **the 2 cores are shared with other engineers' builds**, so the wall times are noisy and"
          % sh("cut -d' ' -f1-3 /proc/loadavg"),
-         "pessimistic (rimline's threads wait for cores the baseline, on one thread, does not need); the CPU",
+         "pessimistic for rimline, whose threads want both cores (the baseline uses about 1.5, its R-tree on a thread); the CPU",
          "times (user + system, all threads) do not depend on the load and are the steadier comparison.", "",
          "| pipes N | GPKG MiB | baseline ogr2ogr s | baseline RSS MiB | rimline check s | rimline RSS MiB | rimline / baseline (wall) | baseline CPU s | rimline CPU s | rimline / baseline (CPU) | exponent vs previous N (wall) | profiles drawn |",
          "|---:|---:|---:|---:|---:|---:|---:|---:|---:|---:|---:|---:|"]
