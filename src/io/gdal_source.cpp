@@ -1,5 +1,7 @@
 #include "io/gdal_source.hpp"
 
+#include <algorithm>
+
 #include <cpl_string.h>
 
 #include <mutex>
@@ -132,6 +134,11 @@ int field_index(const OpenLayer& l, const std::string& field, const std::string&
   const std::string near = closest_name(field, names);
   if (!near.empty()) msg += "; did you mean \"" + near + "\"?";
   throw Error(ErrorKind::bad_config, ErrorContext{l.source, l.layer_name, "", field}, msg);
+}
+
+void add_input_files(std::vector<std::string>& input_files, const std::vector<std::string>& files) {
+  for (const auto& f : files)
+    if (std::find(input_files.begin(), input_files.end(), f) == input_files.end()) input_files.push_back(f);
 }
 
 }  // namespace rimline::io::detail

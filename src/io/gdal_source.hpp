@@ -47,6 +47,9 @@ struct OpenLayer {
   std::vector<std::string> files;  // files behind the dataset (shapefile: .shp/.dbf/.shx/.prj ...)
 };
 
+// Adds the files behind a layer to the run's list of inputs, each once (layers may share a file).
+void add_input_files(std::vector<std::string>& input_files, const std::vector<std::string>& files);
+
 // Opens `src` as a vector data source read-only. Throws Error(bad_input) when it cannot be opened.
 GDALDatasetUniquePtr open_dataset(const LayerSource& src, const std::string& role);
 

@@ -285,11 +285,7 @@ void read_catchment_layers(const Project& project, const RunCrs& crs, ReadResult
   // run whose flows come from elsewhere.
   const bool used = project.flow_mode == FlowMode::rational || project.flow_mode == FlowMode::sanitary;
   if (project.catchments.source.source.empty() || !used) return;
-  auto add_files = [&result](const OpenLayer& l) {
-    for (const auto& f : l.files)
-      if (std::find(result.input_files.begin(), result.input_files.end(), f) == result.input_files.end())
-        result.input_files.push_back(f);
-  };
+  auto add_files = [&result](const OpenLayer& l) { add_input_files(result.input_files, l.files); };
   OpenLayer k = open_layer(project.catchments.source, "catchments");
   require_geometry_and_features(k, "catchments");
   const TransformPtr k_to_run = transform_into_run(k, crs, project.crs_override);

@@ -55,9 +55,7 @@ void read_force_main_layer(const Project& project, const RunCrs& crs, DefaultTal
     c.force_main = true;
     result.network.conduits.push_back(std::move(c));
   }
-  for (const auto& f : mains.files)
-    if (std::find(result.input_files.begin(), result.input_files.end(), f) == result.input_files.end())
-      result.input_files.push_back(f);
+  add_input_files(result.input_files, mains.files);
 }
 
 }  // namespace detail
@@ -83,7 +81,7 @@ ReadResult read_network(const Project& project) {
   // so the result is the same as reading one after the other.
   Findings structure_findings;
   DefaultTally structure_defaults;
-  std::vector<std::string> structure_files;
+  std::vector<std::string> structure_files;  // added after the pipes' files, in the serial order
   std::exception_ptr structures_failed;
   std::thread structure_reader;
   if (!project.structures.source.empty())
@@ -114,9 +112,7 @@ ReadResult read_network(const Project& project) {
   if (structures_failed) std::rethrow_exception(structures_failed);
   result.findings.insert(result.findings.end(), std::make_move_iterator(structure_findings.begin()),
                          std::make_move_iterator(structure_findings.end()));
-  for (const auto& f : structure_files)  // both layers may live in one file
-    if (std::find(result.input_files.begin(), result.input_files.end(), f) == result.input_files.end())
-      result.input_files.push_back(f);
+  add_input_files(result.input_files, structure_files);  // both layers may live in one file
   read_catchment_layers(project, crs, result);
   result.defaults_used = defaults.take();
   for (auto& n : structure_defaults.take()) result.defaults_used.push_back(std::move(n));

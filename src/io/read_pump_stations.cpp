@@ -116,8 +116,7 @@ std::vector<model::PumpStation> read_pump_station_points(const Project& project,
   std::vector<model::PumpStation> out;
   if (project.pump_station_points.source.empty()) return out;
   detail::OpenLayer layer = detail::open_layer(project.pump_station_points, "pump_station_points");
-  for (const auto& f : layer.files)
-    if (std::find(input_files.begin(), input_files.end(), f) == input_files.end()) input_files.push_back(f);
+  detail::add_input_files(input_files, layer.files);
   PointReader reader(project, layer, findings);
   detail::GdalErrorCapture capture;
   layer.layer->ResetReading();

@@ -6,8 +6,8 @@
 #include <cmath>
 #include <exception>
 #include <map>
-#include <ostream>
 #include <memory>
+#include <ostream>
 #include <string>
 #include <thread>
 #include <utility>
@@ -64,7 +64,7 @@ class Writer {
       throw Error(ErrorKind::bad_config, ErrorContext{path_, "", "", ""}, "cannot be written");
     ds_.reset();  // closed before SQLite opens it again for the indexes
     std::vector<SpatialIndexRequest> indexes;
-    for (auto& [name, rq] : indexes_) indexes.push_back(std::move(rq));
+    for (auto& [layer, rq] : indexes_) indexes.push_back(std::move(rq));
     add_gpkg_spatial_indexes(path_, indexes);
   }
 
