@@ -8,6 +8,7 @@
 #include <cmath>
 #include <string>
 
+#include "hydraulics/cube_root.hpp"
 #include "hydraulics/kernels.hpp"
 #include "hydraulics/solve_1d.hpp"
 #include "rimline/error.hpp"
@@ -101,7 +102,7 @@ double friction_slope_of(const Roughness& r, double q, double area, double radiu
   switch (r.law) {
     case FrictionLaw::manning: {
       const double nv = r.manning_n * v;
-      return nv * nv / (radius * std::cbrt(radius));  // R^(4/3)
+      return nv * nv / (radius * cube_root(radius));  // R^(4/3)
     }
     case FrictionLaw::darcy_weisbach: {
       const double dh = 4.0 * radius;
@@ -116,7 +117,7 @@ double friction_slope_of(const Roughness& r, double q, double area, double radiu
 
 double uniform_flow_of(const Roughness& r, double area, double radius, double slope) {
   switch (r.law) {
-    case FrictionLaw::manning: return area * std::cbrt(radius * radius) * std::sqrt(slope) / r.manning_n;
+    case FrictionLaw::manning: return area * cube_root(radius * radius) * std::sqrt(slope) / r.manning_n;
     case FrictionLaw::hazen_williams: return area * 0.849 * r.hazen_c * std::pow(radius, 0.63) * std::pow(slope, 0.54);
     case FrictionLaw::darcy_weisbach: {
       const double dh = 4.0 * radius, nu = r.kinematic_viscosity_m2_s;

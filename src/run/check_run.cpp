@@ -4,8 +4,8 @@
 #include <cmath>
 #include <iterator>
 
-#include <map>
-#include <tuple>
+#include <string_view>
+#include <unordered_map>
 
 #include "run/catchment_run.hpp"
 #include "run/input_hashes.hpp"
@@ -51,21 +51,48 @@ checks::CriteriaOverrides overrides_from(const io::Project& p) {
   return out;
 }
 
+// The worst criteria finding per feature and question over the cases. Only the winners are
+// copied (a city's run has ~10^6 findings; a map of copies was a transient ~0.4 GB).
 Findings worst_per_feature(const std::vector<Case>& cases) {
-  std::map<std::tuple<std::string, int, std::string>, Finding> worst;
-  for (const auto& c : cases) {
-    for (auto f : c.findings) {
-      if (cases.size() > 1) f.message += " (" + c.label + ")";
+  struct Key {
+    std::string_view code, id;
+    LayerRole layer;
+    bool operator==(const Key&) const = default;
+  };
+  struct KeyHash {
+    std::size_t operator()(const Key& k) const {
+      const std::size_t h = std::hash<std::string_view>{}(k.id);
+      return h ^ (std::hash<std::string_view>{}(k.code) * 31 + static_cast<std::size_t>(k.layer) + 0x9e3779b97f4a7c15ULL + (h << 6) + (h >> 2));
+    }
+  };
+  struct Winner {
+    std::size_t case_index, finding;
+    double badness;
+  };
+  std::size_t total = 0;
+  for (const auto& c : cases) total += c.findings.size();
+  std::unordered_map<Key, std::size_t, KeyHash> slot;  // key -> index into winners
+  slot.reserve(total);
+  std::vector<Winner> winners;
+  winners.reserve(total);
+  for (std::size_t k = 0; k < cases.size(); ++k) {
+    const auto& list = cases[k].findings;
+    for (std::size_t i = 0; i < list.size(); ++i) {
+      const Finding& f = list[i];
       // FLOODED and FREEBOARD are one question at one structure: keep the worse of the two.
-      const std::string key_code = f.code == "FLOODED" ? "FREEBOARD" : f.code;
-      const auto key = std::make_tuple(key_code, static_cast<int>(f.layer), f.feature_id);
-      auto it = worst.find(key);
-      if (it == worst.end() || badness(f) > badness(it->second)) worst[key] = f;
+      const std::string_view key_code = f.code == "FLOODED" ? std::string_view("FREEBOARD") : std::string_view(f.code);
+      const double b = badness(f);
+      const auto [it, fresh] = slot.try_emplace(Key{key_code, f.feature_id, f.layer}, winners.size());
+      if (fresh) winners.push_back({k, i, b});
+      else if (b > winners[it->second].badness) winners[it->second] = {k, i, b};
     }
   }
   Findings out;
-  out.reserve(worst.size());
-  for (auto& [k, f] : worst) out.push_back(std::move(f));
+  out.reserve(winners.size());
+  for (const auto& w : winners) {
+    out.push_back(cases[w.case_index].findings[w.finding]);
+    if (cases.size() > 1) out.back().message += " (" + cases[w.case_index].label + ")";
+  }
   return out;
 }
 
