@@ -37,6 +37,8 @@ void sort_findings(Findings& findings) { std::stable_sort(findings.begin(), find
 #include <cstdio>
 #include <cstdlib>
 
+#include "base/number_text.hpp"
+
 namespace rimline {
 namespace {
 
@@ -87,9 +89,12 @@ int decimals_for(units::Dimension d) {
 }  // namespace
 
 std::string q(double si_value, units::Dimension d) {
-  char buf[64];
-  std::snprintf(buf, sizeof buf, "{{%.9g|%c}}", si_value, dimension_letter(d));
-  return buf;
+  std::string s = "{{";
+  append_general(s, si_value, 9);
+  s += '|';
+  s += dimension_letter(d);
+  s += "}}";
+  return s;
 }
 
 std::string render_message(const std::string& message, units::System system) {
@@ -105,12 +110,11 @@ std::string render_message(const std::string& message, units::System system) {
       break;
     }
     out.append(message, i, open - i);
-    const double si = std::strtod(message.c_str() + open + 2, nullptr);
+    double si = 0.0;
+    std::from_chars(message.data() + open + 2, message.data() + bar, si);
     const auto dim = dimension_from_letter(message[bar + 1]);
     const auto unit = units::display_unit(dim, system);
-    char buf[64];
-    std::snprintf(buf, sizeof buf, "%.*f", decimals_for(dim), units::from_si(si, unit));
-    out += buf;
+    append_fixed(out, units::from_si(si, unit), decimals_for(dim));
     if (dim != units::Dimension::dimensionless && dim != units::Dimension::slope) {
       out += ' ';
       out += units::unit_symbol(unit);

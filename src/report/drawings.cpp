@@ -55,20 +55,20 @@ void write_drawings(const run::CheckRun& run, StagedFiles& files, const DrawingO
   // drawn beside them, on another core (a city's 400 sheets are the longest drawing step).
   const bool pdf = pdf_supported() && !sheets.empty();
   if (!pdf) fs::remove(dir / "profiles.pdf", ec);
+  const FindingIndex index(run, &sheets);  // once for every sheet, shared by the SVGs and the PDF
   std::exception_ptr pdf_failed;
   std::jthread pdf_writer;
   const std::string pdf_path = pdf ? files.path_for("profiles.pdf") : "";  // StagedFiles is not shared across threads
   if (pdf)
     pdf_writer = std::jthread([&] {
       try {
-        write_profiles_pdf(run, sheets, date, pdf_path);
+        write_profiles_pdf(run, sheets, date, pdf_path, &index);
       } catch (...) {
         pdf_failed = std::current_exception();
       }
     });
   std::vector<RenderedProfile> rendered;
   std::set<std::string> stems;
-  const FindingIndex index(run);  // once for every sheet
   for (const auto& sheet : sheets) {
     const ProfileScene scene = build_scene(run, sheet.path, sheet.case_index, sheet.number, &index);
     std::string stem = file_stem(scene.name());

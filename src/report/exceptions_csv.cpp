@@ -3,6 +3,7 @@
 #include <ostream>
 #include <sstream>
 
+#include "base/number_text.hpp"
 #include "rimline/report/outputs.hpp"
 
 namespace rimline::report {
@@ -20,9 +21,7 @@ std::string csv_cell(const std::string& s) {
 
 std::string number(double v, units::Dimension d, units::System sys) {
   if (!std::isfinite(v)) return "";
-  char buf[48];
-  std::snprintf(buf, sizeof buf, "%.4f", to_report(v, d, sys));
-  return buf;
+  return fixed_text(to_report(v, d, sys), 4);
 }
 
 std::string unit_text(units::Dimension d, units::System sys) {

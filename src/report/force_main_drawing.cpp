@@ -4,6 +4,7 @@
 #include <cmath>
 #include <cstdio>
 
+#include "base/number_text.hpp"
 #include "report/svg_canvas.hpp"
 #include "rimline/report/outputs.hpp"
 #include "rimline/report/profile_svg.hpp"
@@ -16,9 +17,7 @@ using units::Dimension;
 constexpr double width = 400.0, height = 170.0;
 
 std::string fixed(double v, int decimals) {
-  char buf[48];
-  std::snprintf(buf, sizeof buf, "%.*f", decimals, v);
-  return buf;
+  return fixed_text(v, decimals);
 }
 
 // Pens by case: weight and dash carry the case so a greyscale print stays readable.

@@ -5,6 +5,8 @@
 #include <cstdio>
 #include <map>
 
+#include "base/number_text.hpp"
+
 namespace rimline::report {
 namespace {
 
@@ -27,9 +29,7 @@ const Rgb label_grey{0.35, 0.35, 0.35};
 
 std::string fixed(double v, int decimals) {
   if (!std::isfinite(v)) return "-";
-  char buf[48];
-  std::snprintf(buf, sizeof buf, "%.*f", decimals, v);
-  return buf;
+  return fixed_text(v, decimals);
 }
 
 double text_width(const std::string& s, double size) { return char_w * size * static_cast<double>(s.size()); }

@@ -1,6 +1,7 @@
 #include "rimline/report/profile_pdf.hpp"
 
 #include <cmath>
+#include <optional>
 
 #include "report/force_main_drawing.hpp"
 #include "report/profile_draw.hpp"
@@ -94,7 +95,7 @@ class CairoCanvas final : public Canvas {
 bool pdf_supported() { return true; }
 
 void write_profiles_pdf(const run::CheckRun& run, const std::vector<ProfileSheet>& sheets, const std::string& date,
-                        const std::string& path) {
+                        const std::string& path, const FindingIndex* shared_index) {
   RIMLINE_IGNORE_LIBRARY_CACHES;
   cairo_surface_t* surface =
       cairo_pdf_surface_create(path.c_str(), sheet_width_mm * points_per_mm, sheet_height_mm * points_per_mm);
@@ -114,7 +115,8 @@ void write_profiles_pdf(const run::CheckRun& run, const std::vector<ProfileSheet
   int stations = 0;
   for (const auto& st : run.pump_stations) stations += st.layout.ok ? 1 : 0;
   const int pages = static_cast<int>(sheets.size()) + stations;
-  const FindingIndex index(run);  // once for every page
+  std::optional<FindingIndex> own_index;
+  const FindingIndex& index = shared_index ? *shared_index : own_index.emplace(run, &sheets);  // once for every page
   for (const auto& sheet : sheets) {
     const ProfileScene scene = build_scene(run, sheet.path, sheet.case_index, sheet.number, &index);
     const PlotFrame f = draw_profile(scene, panel, canvas);
@@ -153,7 +155,7 @@ void write_profiles_pdf(const run::CheckRun& run, const std::vector<ProfileSheet
 bool pdf_supported() { return false; }
 
 void write_profiles_pdf(const run::CheckRun&, const std::vector<ProfileSheet>&, const std::string&,
-                        const std::string& path) {
+                        const std::string& path, const FindingIndex*) {
   throw Error(ErrorKind::bad_config, ErrorContext{path, "", "", ""}, "this rimline was built without cairo: no PDF");
 }
 

@@ -6,6 +6,8 @@
 #include <limits>
 #include <optional>
 #include <set>
+#include <string_view>
+#include <unordered_set>
 
 #include "rimline/report/outputs.hpp"
 
@@ -110,16 +112,24 @@ std::vector<SceneMarker> number_markers(std::vector<SceneMarker> out) {
 
 }  // namespace
 
-FindingIndex::FindingIndex(const run::CheckRun& run) {
-  for (std::size_t k = 0; k < run.cases.size(); ++k)
-    for (std::size_t i = 0; i < run.cases[k].findings.size(); ++i) {
-      const auto& f = run.cases[k].findings[i];
-      by_feature_[feature_key(f.layer, f.feature_id)].push_back({k, i, &f});
+FindingIndex::FindingIndex(const run::CheckRun& run, const std::vector<ProfileSheet>* sheets) {
+  // Ids on the sheets (structures, and conduits or force mains by the conduit's id): a superset
+  // of what build_scene asks for, matched by id whatever the layer.
+  std::unordered_set<std::string_view> wanted;
+  if (sheets) {
+    const auto& net = run.read.network;
+    for (const auto& sheet : *sheets) {
+      for (std::size_t s : sheet.path.structures) wanted.insert(net.structures[s].id);
+      for (std::size_t c : sheet.path.conduits) wanted.insert(net.conduits[c].id);
     }
-  for (std::size_t i = 0; i < run.data_findings.size(); ++i) {
-    const auto& f = run.data_findings[i];
-    by_feature_[feature_key(f.layer, f.feature_id)].push_back({data_list, i, &f});
   }
+  auto add = [&](const Finding& f, std::size_t list, std::size_t i) {
+    if (sheets && !wanted.count(f.feature_id)) return;
+    by_feature_[feature_key(f.layer, f.feature_id)].push_back({list, i, &f});
+  };
+  for (std::size_t k = 0; k < run.cases.size(); ++k)
+    for (std::size_t i = 0; i < run.cases[k].findings.size(); ++i) add(run.cases[k].findings[i], k, i);
+  for (std::size_t i = 0; i < run.data_findings.size(); ++i) add(run.data_findings[i], data_list, i);
 }
 
 std::vector<FindingIndex::Entry> FindingIndex::concerning(std::size_t case_index, LayerRole layer,

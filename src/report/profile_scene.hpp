@@ -77,10 +77,11 @@ struct ProfileScene {
 };
 
 // The findings of a run looked up by the feature they concern, built once per drawing pass so a
-// scene costs what its path holds, not what the whole run holds (10^6-pipe exports).
+// scene costs what its path holds, not what the whole run holds (10^6-pipe exports). Given the
+// sheets, only findings of features on them are indexed (a city's 10^6 findings, a few thousand drawn).
 class FindingIndex {
  public:
-  explicit FindingIndex(const run::CheckRun& run);
+  explicit FindingIndex(const run::CheckRun& run, const std::vector<ProfileSheet>* sheets = nullptr);
   struct Entry {
     std::size_t list;      // case index, or data_list for the run's data findings
     std::size_t position;  // in that list

@@ -4,6 +4,7 @@
 #include <cmath>
 #include <cstdio>
 
+#include "base/number_text.hpp"
 #include "report/profile_draw.hpp"
 #include "report/svg_canvas.hpp"
 #include "rimline/report/outputs.hpp"
@@ -14,9 +15,7 @@ namespace {
 constexpr double sheet_w = 420.0, sheet_h = 270.0, margin = 10.0;
 
 std::string num(double v) {
-  char buf[32];
-  std::snprintf(buf, sizeof buf, "%.2f", std::isfinite(v) ? v : 0.0);
-  return buf;
+  return fixed_text(std::isfinite(v) ? v : 0.0, 2);
 }
 
 std::string rgb(const Rgb& c) {

@@ -3,10 +3,12 @@
 #include <algorithm>
 #include <cmath>
 #include <cstdio>
+#include <limits>
 #include <map>
 #include <set>
 #include <unordered_map>
 
+#include "base/number_text.hpp"
 #include "report/design_flows_html.hpp"
 #include "report/html_cells.hpp"
 #include "report/html_style.hpp"
@@ -195,9 +197,17 @@ std::string findings_table(const run::CheckRun& run, const std::vector<const Fin
     for (auto& [code, rows] : by_code) {
       const std::size_t total = rows.size();
       if (total > rows_per_code) {
-        std::stable_sort(rows.begin(), rows.end(),
-                         [](const Finding* a, const Finding* b) { return run::badness(*a) > run::badness(*b); });
-        rows.resize(rows_per_code);
+        // The worst first, ties in list order: a partial sort on (badness, position), each badness
+        // worked out once (a city has ~10^6 findings of one code; only the first rows are shown).
+        std::vector<std::pair<double, std::size_t>> keyed(total);
+        for (std::size_t k = 0; k < total; ++k) {
+          const double b = run::badness(*rows[k]);
+          keyed[k] = {std::isnan(b) ? std::numeric_limits<double>::infinity() : -b, k};  // unknown: last
+        }
+        std::partial_sort(keyed.begin(), keyed.begin() + static_cast<std::ptrdiff_t>(rows_per_code), keyed.end());
+        std::vector<const Finding*> worst(rows_per_code);
+        for (std::size_t k = 0; k < rows_per_code; ++k) worst[k] = rows[keyed[k].second];
+        rows = std::move(worst);
       }
       for (const Finding* f : rows) {
         h += finding_row(*f, sys);
@@ -235,9 +245,7 @@ std::string data_findings_section(const run::CheckRun& run, const std::vector<co
 
 std::string fixed3(double v) {
   if (!std::isfinite(v)) return "";
-  char buf[48];
-  std::snprintf(buf, sizeof buf, "%.3f", v);
-  return buf;
+  return fixed_text(v, 3);
 }
 
 // One row per drawing, so a reviewer sees where the tightest freeboard of each path is.
