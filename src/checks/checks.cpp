@@ -2,7 +2,10 @@
 
 #include <algorithm>
 #include <cmath>
+#include <exception>
+#include <iterator>
 #include <sstream>
+#include <thread>
 
 #include "rimline/hydraulics/friction.hpp"
 #include "rimline/hydraulics/section.hpp"
@@ -11,6 +14,7 @@ namespace rimline::checks {
 namespace {
 
 constexpr double nan = std::numeric_limits<double>::quiet_NaN();
+constexpr std::size_t parallel_from = 4096;  // conduits; below, a thread costs more than it saves
 constexpr auto L = units::Dimension::length;
 constexpr auto V = units::Dimension::velocity;
 
@@ -112,15 +116,34 @@ void check_conduit(const model::Network& net, std::size_t ci, const solve::Condu
 
 Findings run_checks(const model::Network& network, const solve::MarchResult& result, const Criteria& criteria,
                     const CriteriaOverrides& overrides) {
-  Findings out;
+  auto conduits = [&](Findings& out) {
+    for (std::size_t ci = 0; ci < network.conduits.size(); ++ci)
+      check_conduit(network, ci, result.conduits[ci],
+                    criteria_for(criteria, overrides.conduits, network.conduits[ci].id), out);
+  };
+  // A city's conduits are checked on a second core beside its structures (each check reads only
+  // its own feature and result); the lists are joined in the serial order.
+  Findings out, conduit_findings;
+  std::exception_ptr conduit_failed;
+  std::jthread conduit_checks;
+  if (network.conduits.size() >= parallel_from)
+    conduit_checks = std::jthread([&] {
+      try {
+        conduits(conduit_findings);
+      } catch (...) {
+        conduit_failed = std::current_exception();
+      }
+    });
   for (std::size_t s = 0; s < network.structures.size(); ++s) {
     const auto& id = network.structures[s].id;
     check_structure(network.structures[s], result.structures[s],
                     criteria_for(criteria, overrides.structures, id).freeboard_m, out);
   }
-  for (std::size_t ci = 0; ci < network.conduits.size(); ++ci)
-    check_conduit(network, ci, result.conduits[ci], criteria_for(criteria, overrides.conduits, network.conduits[ci].id),
-                  out);
+  if (conduit_checks.joinable()) conduit_checks.join();
+  else conduits(conduit_findings);
+  if (conduit_failed) std::rethrow_exception(conduit_failed);
+  out.reserve(out.size() + conduit_findings.size());
+  std::move(conduit_findings.begin(), conduit_findings.end(), std::back_inserter(out));
   return out;
 }
 

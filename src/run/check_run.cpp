@@ -97,22 +97,21 @@ Findings worst_per_feature(const std::vector<Case>& cases) {
 }
 
 // run.findings: the data findings and the criteria findings in output order, each marked by origin
-// (sorted through an index, so the findings themselves are moved once).
+// (sorted through an index, so each finding is copied or moved once, straight to its place).
 void merge_findings(CheckRun& run, Findings criteria) {
   const std::size_t nd = run.data_findings.size();
-  Findings all;
-  all.reserve(nd + criteria.size());
-  all.insert(all.end(), run.data_findings.begin(), run.data_findings.end());
-  all.insert(all.end(), std::make_move_iterator(criteria.begin()), std::make_move_iterator(criteria.end()));
-  std::vector<std::size_t> order(all.size());
+  auto at = [&](std::size_t k) -> const Finding& { return k < nd ? run.data_findings[k] : criteria[k - nd]; };
+  std::vector<std::size_t> order(nd + criteria.size());
   for (std::size_t k = 0; k < order.size(); ++k) order[k] = k;
-  std::stable_sort(order.begin(), order.end(), [&all](std::size_t a, std::size_t b) { return finding_before(all[a], all[b]); });
+  std::stable_sort(order.begin(), order.end(), [&at](std::size_t a, std::size_t b) { return finding_before(at(a), at(b)); });
   run.findings.clear();
-  run.findings.reserve(all.size());
-  run.data_finding.assign(all.size(), false);
+  run.findings.reserve(order.size());
+  run.data_finding.assign(order.size(), false);
   for (std::size_t k = 0; k < order.size(); ++k) {
-    run.findings.push_back(std::move(all[order[k]]));
-    run.data_finding[k] = order[k] < nd;
+    const std::size_t from = order[k];
+    if (from < nd) run.findings.push_back(run.data_findings[from]);
+    else run.findings.push_back(std::move(criteria[from - nd]));
+    run.data_finding[k] = from < nd;
   }
 }
 
