@@ -49,10 +49,15 @@ struct StepResult {
 StepResult standard_step(const PreparedReach& r, double x0, double head0, double sf0, double x1, Side side,
                          double guess = -1.0, double width = 0.0) {
   const double dx = x1 - x0, z1 = r.invert(x1);
+  // The state of the last depth tried is kept: the converged depth is the last one tried, and
+  // its state is the step's result (one geometry and friction evaluation fewer per step).
+  State last;
+  last.y = -1.0;
   auto residual = [&](double y) {
-    const State s = free_state(r, y);
-    return z1 + s.e - head0 - 0.5 * dx * (sf0 + s.sf);
+    last = free_state(r, y);
+    return z1 + last.e - head0 - 0.5 * dx * (sf0 + last.sf);
   };
+  auto state_at = [&](double y) { return y == last.y ? last : free_state(r, y); };
   // Closure relative to the depth: in very shallow, fast flow E changes by 2E/y per metre of depth.
   const double tol = r.closure * std::clamp(guess > 0.0 ? guess : r.yc, 1e-6 * r.rise, r.rise);
   // Residual rises with y on the subcritical limb (dE/dy = 1 - Fr^2 > 0, Sf falls with y) and
@@ -70,7 +75,7 @@ StepResult standard_step(const PreparedReach& r, double x0, double head0, double
       fa = fb;
       yb = y_next;
       fb = residual(yb);
-      if (std::fabs(yb - ya) <= tol) return {StepOutcome::ok, free_state(r, yb)};
+      if (std::fabs(yb - ya) <= tol) return {StepOutcome::ok, state_at(yb)};
     }
   }
   if (side == Side::sub) {
@@ -78,11 +83,11 @@ StepResult standard_step(const PreparedReach& r, double x0, double head0, double
     if (f_lo > 0.0) return {StepOutcome::critical, {}};
     const double f_hi = residual(r.rise);
     if (f_hi < 0.0) return {StepOutcome::crown, {}};
-    return {StepOutcome::ok, free_state(r, brent_root(residual, r.yc, r.rise, f_lo, f_hi, tol, 200).x)};
+    return {StepOutcome::ok, state_at(brent_root(residual, r.yc, r.rise, f_lo, f_hi, tol, 200).x)};
   }
   const double f_hi = residual(r.yc);
   if (f_hi > 0.0) return {StepOutcome::critical, {}};
-  return {StepOutcome::ok, free_state(r, brent_root(residual, lo_limit, r.yc, residual(lo_limit), f_hi, tol, 200).x)};
+  return {StepOutcome::ok, state_at(brent_root(residual, lo_limit, r.yc, residual(lo_limit), f_hi, tol, 200).x)};
 }
 
 // Direct step: the signed distance from (x0, state0) to where the depth is y_target.

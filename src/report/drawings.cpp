@@ -88,6 +88,7 @@ void write_drawings(const run::CheckRun& run, StagedFiles& files, const DrawingO
       }
     }
     write_file(files.path_for("profiles/" + stem + ".svg"), "<?xml version=\"1.0\" encoding=\"UTF-8\"?>\n" + r.svg);
+    if (rendered.size() >= inline_profiles) std::string().swap(r.svg);  // linked, not inlined: a city's 400 are 0.1 GB
     rendered.push_back(std::move(r));
   }
   // Force-main profiles, one per laid-out pump station, listed with the others.

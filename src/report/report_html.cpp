@@ -165,7 +165,7 @@ std::string budget(const run::CheckRun& run, std::size_t s) {
 constexpr std::size_t rows_per_code = 200;
 // Past a city's first few dozen outfalls inline figures would make the page unwieldy; the rest are
 // linked from the profile index (each is its own SVG file and a PDF sheet).
-constexpr std::size_t max_inline_profiles = 40;
+constexpr std::size_t max_inline_profiles = inline_profiles;
 
 std::string finding_row(const Finding& f, units::System sys) {
   const bool has_value = std::isfinite(f.value) || std::isfinite(f.limit);

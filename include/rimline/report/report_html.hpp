@@ -26,6 +26,10 @@ struct RenderedProfile {
   std::size_t findings = 0;        // findings marked on the drawing
 };
 
+// The page shows the first profiles inline; the others are linked to their SVG files (and need
+// no `svg` text here).
+inline constexpr std::size_t inline_profiles = 40;
+
 // `selection` says which paths the profiles follow (selection_text).
 std::string report_html(const run::CheckRun& run, const std::vector<RenderedProfile>& profiles,
                         const std::string& date, bool pdf_written, const std::string& selection = "");
