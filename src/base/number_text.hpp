@@ -8,10 +8,11 @@
 
 namespace rimline {
 
-// printf("%.*f", decimals, v)
+// printf("%.*f", decimals, v), decimals taken within 0..17
 inline void append_fixed(std::string& out, double v, int decimals) {
-  char buf[400];  // the longest fixed double (1.8e308 with its sign and decimals) fits
-  const auto r = std::to_chars(buf, buf + sizeof buf, v, std::chars_format::fixed, decimals < 0 ? 0 : decimals > 17 ? 17 : decimals);
+  char buf[400];  // the longest fixed double (1.8e308 with its sign and 17 decimals) fits
+  const int d = decimals < 0 ? 0 : decimals > 17 ? 17 : decimals;
+  const auto r = std::to_chars(buf, buf + sizeof buf, v, std::chars_format::fixed, d);
   out.append(buf, r.ptr);
 }
 

@@ -5,6 +5,8 @@
 // the exponent divided by three in the bit pattern (an estimate within a few per cent), two
 // Halley steps (cubic convergence) and one Newton step to polish, for a result within a few ulp
 // of std::cbrt (tests/unit/hydraulics/cube_root_test.cpp). Outside the normal range, std::cbrt.
+// Twice the library's throughput in a loop; in the march, whose trial depths wait on each other,
+// its three divisions cost about what the library did (bench/RESULTS.md).
 #include <bit>
 #include <cmath>
 #include <cstdint>

@@ -1,0 +1,42 @@
+// Number text of the outputs against the C library's printf (ISO C 7.21.6.1, "%.*f" and "%.*g"),
+// which wrote these files before: the same characters for every value and precision used.
+#include <catch2/catch.hpp>
+
+#include <cmath>
+#include <cstdio>
+#include <limits>
+#include <random>
+#include <string>
+
+#include "base/number_text.hpp"
+
+namespace {
+std::string printf_text(const char* format, int precision, double v) {
+  char buf[512];
+  std::snprintf(buf, sizeof buf, format, precision, v);
+  return buf;
+}
+}  // namespace
+
+TEST_CASE("fixed_text and append_general print what printf prints", "[number_text]") {
+  std::mt19937_64 rng(20261202);
+  std::uniform_real_distribution<double> mantissa(-1.0, 1.0);
+  std::uniform_int_distribution<int> exponent(-12, 9);
+  int mismatches = 0;
+  for (int i = 0; i < 100000; ++i) {
+    const double v = mantissa(rng) * std::pow(10.0, exponent(rng));
+    for (int d : {0, 2, 3, 4}) mismatches += rimline::fixed_text(v, d) != printf_text("%.*f", d, v);
+    std::string g;
+    rimline::append_general(g, v, 9);
+    mismatches += g != printf_text("%.*g", 9, v);
+  }
+  CHECK(mismatches == 0);
+  // Halfway cases round on the exact binary value, as printf does: 0.125 is exact (ties to even).
+  CHECK(rimline::fixed_text(0.125, 2) == printf_text("%.*f", 2, 0.125));
+  CHECK(rimline::fixed_text(2.675, 2) == printf_text("%.*f", 2, 2.675));
+  CHECK(rimline::fixed_text(-0.0001, 2) == printf_text("%.*f", 2, -0.0001));  // "-0.00"
+  CHECK(rimline::fixed_text(1e300, 3) == printf_text("%.*f", 3, 1e300));
+  std::string nan_text;
+  rimline::append_general(nan_text, std::numeric_limits<double>::quiet_NaN(), 9);
+  CHECK(nan_text == printf_text("%.*g", 9, std::numeric_limits<double>::quiet_NaN()));
+}
