@@ -2,7 +2,6 @@
 
 #include <algorithm>
 #include <cmath>
-#include <cstdio>
 
 #include "base/number_text.hpp"
 #include "report/svg_canvas.hpp"
@@ -15,10 +14,6 @@ namespace {
 using units::Dimension;
 
 constexpr double width = 400.0, height = 170.0;
-
-std::string fixed(double v, int decimals) {
-  return fixed_text(v, decimals);
-}
 
 // Pens by case: weight and dash carry the case so a greyscale print stays readable.
 Pen case_pen(std::size_t k) {
@@ -58,12 +53,12 @@ void draw_force_main(const run::CheckRun& run, std::size_t station, const Panel&
   for (double x = 0.0; x <= x_hi + 1e-9; x += xs) {
     const double px = left + pw * x / x_hi;
     c.polyline({{px, top}, {px, top + ph}}, grid);
-    c.text({px, top + ph + 4.0}, fixed(x, 0), small);
+    c.text({px, top + ph + 4.0}, fixed_text(x, 0), small);
   }
   for (double y = std::ceil(y_lo / ys) * ys; y <= y_hi; y += ys) {
     const double py = top + ph * (1.0 - (y - y_lo) / (y_hi - y_lo));
     c.polyline({{left, py}, {left + pw, py}}, grid);
-    c.text({left - 1.5, py + 0.8}, fixed(y, ys < 1.0 ? 1 : 0), TextStyle{2.4, Anchor::end, false, 0.0, Rgb{}});
+    c.text({left - 1.5, py + 0.8}, fixed_text(y, ys < 1.0 ? 1 : 0), TextStyle{2.4, Anchor::end, false, 0.0, Rgb{}});
   }
   c.polygon({{left, top}, {left + pw, top}, {left + pw, top + ph}, {left, top + ph}}, std::nullopt, frame);
   c.text({left + pw / 2, top + ph + 9.0}, "station from the pump (" + u + ")", small);
@@ -140,7 +135,7 @@ std::string force_main_svg(const run::CheckRun& run, std::size_t station) {
   constexpr double left = 10.0;
   SvgCanvas c;
   draw_force_main(run, station, Panel{left, 16.0, width - 2 * left, height - 40.0}, c);
-  auto n = [](double v) { return fixed(v, 2); };
+  auto n = [](double v) { return fixed_text(v, 2); };
   std::string svg = "<svg xmlns=\"http://www.w3.org/2000/svg\" version=\"1.1\" class=\"profile force-main\" id=\"force-main-" +
                     xml_escape(id) + "\" width=\"" + n(width) + "mm\" height=\"" + n(height) + "mm\" viewBox=\"0 0 " +
                     n(width) + " " + n(height) + "\" font-family=\"DejaVu Sans, Liberation Sans, Arial, sans-serif\">\n";

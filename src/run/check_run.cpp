@@ -61,8 +61,10 @@ Findings worst_per_feature(const std::vector<Case>& cases) {
   };
   struct KeyHash {
     std::size_t operator()(const Key& k) const {
-      const std::size_t h = std::hash<std::string_view>{}(k.id);
-      return h ^ (std::hash<std::string_view>{}(k.code) * 31 + static_cast<std::size_t>(k.layer) + 0x9e3779b97f4a7c15ULL + (h << 6) + (h >> 2));
+      std::size_t h = std::hash<std::string_view>{}(k.id);
+      for (std::size_t v : {std::hash<std::string_view>{}(k.code), static_cast<std::size_t>(k.layer)})
+        h ^= v + 0x9e3779b97f4a7c15ULL + (h << 6) + (h >> 2);  // the usual hash combine
+      return h;
     }
   };
   struct Winner {
