@@ -65,7 +65,7 @@ std::string summary_section(const run::CheckRun& run, const std::string& date) {
     for (const auto& s : c.march.structures) solved += s.solved ? 1 : 0;
     h += row({esc(render_message(c.label, sys)), std::isfinite(c.tailwater_m) ? value(c.tailwater_m, Dimension::length, sys) : "free",
               std::to_string(solved) + " of " + std::to_string(c.march.structures.size()),
-              std::to_string(c.findings.size())});
+              std::to_string(c.criteria_count)});
   }
   h += "</table></section>\n";
   return h;

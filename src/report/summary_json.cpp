@@ -92,7 +92,7 @@ std::string summary_json(const run::CheckRun& run) {
     std::size_t solved = 0;
     for (const auto& s : c.march.structures) solved += s.solved ? 1 : 0;
     cases.push_back({{"label", render_message(c.label, sys)}, {"tailwater", length(c.tailwater_m, sys)},
-                     {"structures_solved", solved}, {"criteria_findings", c.findings.size()}});
+                     {"structures_solved", solved}, {"criteria_findings", c.criteria_count}});
   }
   j["cases"] = cases;
 

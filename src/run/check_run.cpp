@@ -3,9 +3,9 @@
 #include <algorithm>
 #include <cmath>
 #include <iterator>
-
 #include <string_view>
 #include <unordered_map>
+#include <unordered_set>
 
 #include "run/catchment_run.hpp"
 #include "run/input_hashes.hpp"
@@ -51,9 +51,38 @@ checks::CriteriaOverrides overrides_from(const io::Project& p) {
   return out;
 }
 
-// The worst criteria finding per feature and question over the cases. Only the winners are
-// copied (a city's run has ~10^6 findings; a map of copies was a transient ~0.4 GB).
-Findings worst_per_feature(const std::vector<Case>& cases) {
+// Whether the drawings can show a criteria finding: those of the pipes that keep every step point
+// (the drawn ones) and of the structures at their ends, and any of another layer (force mains).
+// With no pipe singled out (an empty keep list) every pipe is drawn.
+class DrawnFeatures {
+ public:
+  DrawnFeatures(const model::Network& net, const std::vector<bool>& keep) : all_(keep.empty()) {
+    for (std::size_t ci = 0; ci < keep.size() && ci < net.conduits.size(); ++ci) {
+      if (!keep[ci]) continue;
+      const auto& c = net.conduits[ci];
+      conduits_.insert(c.id);
+      for (std::size_t s : {c.from, c.to})
+        if (s != model::no_index) structures_.insert(net.structures[s].id);
+    }
+  }
+  bool operator()(const Finding& f) const {
+    if (all_) return true;
+    switch (f.layer) {
+      case LayerRole::conduits: return conduits_.count(f.feature_id) > 0;
+      case LayerRole::structures: return structures_.count(f.feature_id) > 0;
+      default: return true;
+    }
+  }
+
+ private:
+  bool all_;
+  std::unordered_set<std::string_view> conduits_, structures_;
+};
+
+// The worst criteria finding per feature and question over the cases, moved out of the cases'
+// lists; those the drawings can show are copied instead, and the cases keep only those (a city's
+// run has ~10^6 findings: held twice they were ~0.3 GB).
+Findings worst_per_feature(std::vector<Case>& cases, const DrawnFeatures& drawn) {
   struct Key {
     std::string_view code, id;
     LayerRole layer;
@@ -89,11 +118,30 @@ Findings worst_per_feature(const std::vector<Case>& cases) {
       else if (b > winners[it->second].badness) winners[it->second] = {k, i, b};
     }
   }
+  // What each case keeps, decided before any finding moves.
+  std::vector<std::vector<bool>> shown(cases.size());
+  for (std::size_t k = 0; k < cases.size(); ++k)
+    for (const auto& f : cases[k].findings) shown[k].push_back(drawn(f));
+  slot = {};  // its keys view the findings' strings
   Findings out;
   out.reserve(winners.size());
   for (const auto& w : winners) {
-    out.push_back(cases[w.case_index].findings[w.finding]);
+    Finding& f = cases[w.case_index].findings[w.finding];
+    if (shown[w.case_index][w.finding]) out.push_back(f);
+    else out.push_back(std::move(f));  // the case drops it below
     if (cases.size() > 1) out.back().message += " (" + cases[w.case_index].label + ")";
+  }
+  for (std::size_t k = 0; k < cases.size(); ++k) {
+    auto& list = cases[k].findings;
+    cases[k].criteria_count = list.size();
+    std::size_t kept = 0;
+    for (std::size_t i = 0; i < list.size(); ++i)
+      if (shown[k][i]) {
+        if (kept != i) list[kept] = std::move(list[i]);
+        ++kept;
+      }
+    list.erase(list.begin() + static_cast<std::ptrdiff_t>(kept), list.end());
+    list.shrink_to_fit();
   }
   return out;
 }
@@ -266,7 +314,7 @@ CheckRun run_check(const io::Project& project, const RunOptions& options) {
         run.envelope_conduit_case[ci] = k;
     }
   }
-  Findings criteria = worst_per_feature(run.cases);
+  Findings criteria = worst_per_feature(run.cases, DrawnFeatures(net, run.march_options.keep_step_points));
   for (std::size_t i = 0; i < run.pump_stations.size(); ++i)
     for (auto& f : solve::check_station(net, run.project.pump_stations[i], run.pump_stations[i], project.force_mains,
                                         run.wet_well_inflow_m3_s[i]))

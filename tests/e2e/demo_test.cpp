@@ -198,3 +198,51 @@ TEST_CASE("demo (metric): the VELOCITY_HIGH finding at C-05 is the steep pipe's 
   CHECK(f->value >= v_normal * 0.98);
   CHECK(f->value > 4.6);
 }
+
+TEST_CASE("demo (metric): the cases keep only the drawn pipes' criteria findings, the run's list is unchanged") {
+  // Plumbing, no outside source: the criteria findings are held once (the run's list), the cases
+  // keep those the drawings can show; what is reported must not depend on what is drawn.
+  const auto project = io::load_project(demo("metric"));
+  const auto all = run::run_check(project, {});
+  REQUIRE(!all.cases.empty());
+  REQUIRE(all.cases.front().findings.size() == all.cases.front().criteria_count);
+  // Draw one pipe: the first with a criteria finding of its own.
+  std::string pipe;
+  for (const auto& f : all.cases.front().findings)
+    if (f.layer == LayerRole::conduits) { pipe = f.feature_id; break; }
+  REQUIRE(!pipe.empty());
+  const std::size_t ci = conduit_index(all, pipe);
+  run::RunOptions opt;
+  opt.detailed_conduits = [ci](const model::Network& net, const topology::Topology&) {
+    std::vector<bool> keep(net.conduits.size(), false);
+    keep[ci] = true;
+    return keep;
+  };
+  const auto some = run::run_check(project, opt);
+
+  REQUIRE(some.findings.size() == all.findings.size());
+  for (std::size_t k = 0; k < all.findings.size(); ++k) {
+    CHECK(some.findings[k].code == all.findings[k].code);
+    CHECK(some.findings[k].feature_id == all.findings[k].feature_id);
+    CHECK(some.findings[k].message == all.findings[k].message);
+    CHECK(some.data_finding[k] == all.data_finding[k]);
+  }
+  const auto& c = some.read.network.conduits[ci];
+  const std::string up = some.read.network.structures[c.from].id, down = some.read.network.structures[c.to].id;
+  auto shown = [&](const Finding& f) {
+    return f.layer == LayerRole::conduits ? f.feature_id == pipe
+           : f.layer == LayerRole::structures ? (f.feature_id == up || f.feature_id == down)
+                                               : true;
+  };
+  REQUIRE(some.cases.size() == all.cases.size());
+  for (std::size_t k = 0; k < all.cases.size(); ++k) {
+    CHECK(some.cases[k].criteria_count == all.cases[k].criteria_count);
+    std::vector<std::string> expected, kept;
+    for (const auto& f : all.cases[k].findings)
+      if (shown(f)) expected.push_back(f.code + " " + f.feature_id + " " + f.message);
+    for (const auto& f : some.cases[k].findings) kept.push_back(f.code + " " + f.feature_id + " " + f.message);
+    CHECK(kept == expected);
+    CHECK(!kept.empty());
+    CHECK(kept.size() < all.cases[k].findings.size());
+  }
+}

@@ -3,6 +3,7 @@
 // Adds TOPOLOGY_NO_OUTFALL (warning, structures): with a typed structure layer, a tree that ends at a
 // manhole, inlet or junction; it is marched from there as if that were the outfall.
 // No files are written here; report/ writes the outputs from a CheckRun.
+#include <cstddef>
 #include <functional>
 #include <optional>
 #include <string>
@@ -36,7 +37,11 @@ struct Case {
   std::string label;       // "TW 12.400 m" or "free outfall"
   double tailwater_m = std::numeric_limits<double>::quiet_NaN();
   solve::MarchResult march;
-  Findings findings;       // criteria findings of this case
+  // Criteria findings of this case on the features the drawings can show (every one when every
+  // pipe keeps its step points); the run's `findings` holds the worst of each over the cases.
+  // Held once: the others went to the run's list (a city's run has ~10^6 of them).
+  Findings findings;
+  std::size_t criteria_count = 0;  // criteria findings of this case, drawn or not
 };
 
 // A file the run read, with the SHA-256 of its bytes ("" when the source is not a file, e.g. a database).

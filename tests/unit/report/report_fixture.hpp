@@ -131,6 +131,7 @@ inline run::CheckRun fixture_run(const std::string& project_file = "") {
                         units::Dimension::length, "a pipe on no path"});
   run.data_findings.push_back({"DATA_MISSING", Severity::info, LayerRole::structures, "S1", "RIM", NAN, NAN,
                                units::Dimension::dimensionless, "cover level <taken> from the \"survey\" & drawings"});
+  c.criteria_count = c.findings.size();
   run.cases.push_back(c);
   run.envelope_structure_case.assign(7, 0);
   run.envelope_conduit_case.assign(5, 0);
