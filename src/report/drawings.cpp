@@ -112,7 +112,12 @@ void write_drawings(const run::CheckRun& run, StagedFiles& files, const DrawingO
     if (e.path().extension() == ".svg" && !stems.count(e.path().stem().string())) fs::remove(e.path(), ec);
   }
 
-  write_file(html_tmp, report_html(run, rendered, date, pdf, selection_text(options, run.report_units)));
+  {
+    std::ofstream out(html_tmp, std::ios::binary | std::ios::trunc);
+    write_report_html(out, run, rendered, date, pdf, selection_text(options, run.report_units));
+    out.flush();
+    if (!out) throw Error(ErrorKind::bad_input, ErrorContext{html_tmp, "", "", ""}, "cannot be written");
+  }
   if (pdf_writer.joinable()) pdf_writer.join();
   if (pdf_failed) std::rethrow_exception(pdf_failed);
 }

@@ -4,7 +4,9 @@
 #include <cmath>
 #include <limits>
 #include <map>
+#include <ostream>
 #include <set>
+#include <sstream>
 #include <unordered_map>
 
 #include "base/number_text.hpp"
@@ -287,8 +289,8 @@ std::string profiles_section(const std::vector<RenderedProfile>& profiles, bool 
 
 }  // namespace
 
-std::string report_html(const run::CheckRun& run, const std::vector<RenderedProfile>& profiles,
-                        const std::string& date, bool pdf_written, const std::string& selection) {
+void write_report_html(std::ostream& out, const run::CheckRun& run, const std::vector<RenderedProfile>& profiles,
+                       const std::string& date, bool pdf_written, const std::string& selection) {
   std::vector<const Finding*> criteria, data;
   if (run.data_finding.size() == run.findings.size()) {
     for (std::size_t k = 0; k < run.findings.size(); ++k) (run.data_finding[k] ? data : criteria).push_back(&run.findings[k]);
@@ -298,6 +300,8 @@ std::string report_html(const run::CheckRun& run, const std::vector<RenderedProf
     for (const auto& f : run.findings) (data_keys.count(finding_key(f)) ? data : criteria).push_back(&f);
   }
 
+  // Written a section at a time: the page of a city's run is ~22 MB, and built as one string it
+  // held ~0.1 GB at once (its growth and the sections appended to it).
   std::string h = "<!DOCTYPE html>\n<html lang=\"en\">\n<head>\n<meta charset=\"utf-8\">\n<title>rimline review: " +
                   esc(run.project.name) + "</title>\n<style>\n" + std::string(report_css) + "</style>\n</head>\n<body>\n";
   h += "<header><div class=\"mark\">rimline</div><h1>Hydraulic grade line review: " + esc(run.project.name) +
@@ -307,20 +311,24 @@ std::string report_html(const run::CheckRun& run, const std::vector<RenderedProf
        std::string(run.pump_stations.empty() ? "" : "<a href=\"#pump-stations\">Pump stations</a> ") +
        "<a href=\"#profiles\">Profiles</a> <a href=\"#data-findings\">Data findings</a>" +
        std::string(run.catchment_flows ? " <a href=\"#design-flows\">Design flows</a>" : "") + "</nav>\n";
-  h += summary_section(run, date);
-  h += inputs_section(run);
-  h += methods_section(run);
-  h += design_flows_section(run);
-  h += "<section id=\"exceptions\"><h2>Exception list</h2>\n<p>Design criteria not met, worst case over the "
-       "tailwater cases, by severity. A structure warning or error opens to its energy budget down to the "
-       "outfall.</p>\n";
-  h += findings_table(run, criteria, "exception-table", true);
-  h += "</section>\n";
-  h += pump_stations_section(run);
-  h += profiles_section(profiles, pdf_written, unit(Dimension::length, run.report_units), selection);
-  h += data_findings_section(run, data);
-  h += "</main>\n<footer><p class=\"caution\" id=\"caution\">" + esc(caution) + "</p></footer>\n</body>\n</html>\n";
-  return h;
+  out << h;
+  out << summary_section(run, date) << inputs_section(run) << methods_section(run) << design_flows_section(run);
+  out << "<section id=\"exceptions\"><h2>Exception list</h2>\n<p>Design criteria not met, worst case over the "
+         "tailwater cases, by severity. A structure warning or error opens to its energy budget down to the "
+         "outfall.</p>\n";
+  out << findings_table(run, criteria, "exception-table", true) << "</section>\n";
+  out << pump_stations_section(run);
+  out << profiles_section(profiles, pdf_written, unit(Dimension::length, run.report_units), selection);
+  out << data_findings_section(run, data);
+  out << "</main>\n<footer><p class=\"caution\" id=\"caution\">" << esc(caution)
+      << "</p></footer>\n</body>\n</html>\n";
+}
+
+std::string report_html(const run::CheckRun& run, const std::vector<RenderedProfile>& profiles,
+                        const std::string& date, bool pdf_written, const std::string& selection) {
+  std::ostringstream out;
+  write_report_html(out, run, profiles, date, pdf_written, selection);
+  return std::move(out).str();
 }
 
 }  // namespace rimline::report

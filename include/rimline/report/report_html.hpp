@@ -4,6 +4,7 @@
 // methods and criteria with their sources, the exception list by severity with the energy
 // budget of each structure finding, the profiles, the data findings, and the caution.
 // Everything but the date is a function of the run, so two runs of one input differ only there.
+#include <iosfwd>
 #include <limits>
 #include <string>
 #include <vector>
@@ -30,7 +31,10 @@ struct RenderedProfile {
 // no `svg` text here).
 inline constexpr std::size_t inline_profiles = 40;
 
-// `selection` says which paths the profiles follow (selection_text).
+// `selection` says which paths the profiles follow (selection_text). The page is written to `out`
+// a section at a time; report_html returns it as one string (for tests and small runs).
+void write_report_html(std::ostream& out, const run::CheckRun& run, const std::vector<RenderedProfile>& profiles,
+                       const std::string& date, bool pdf_written, const std::string& selection = "");
 std::string report_html(const run::CheckRun& run, const std::vector<RenderedProfile>& profiles,
                         const std::string& date, bool pdf_written, const std::string& selection = "");
 
