@@ -173,7 +173,8 @@ if [[ -n "$STAGES_N" && $BENCH_OK -eq 1 ]]; then
     draw=(); what="not timed"
     [[ $sn -le 100000 ]] && draw=(env RIMLINE_BENCH_DRAWINGS=1) && what="included"
     echo "== stage timings, N=$sn (bench/pipeline_bench.cpp, drawings $what)"
-    "${draw[@]}" env RIMLINE_BENCH_PROJECT="$WORK/n$sn-s$SEED/project.toml" \
+    # The heap on huge pages, as `rimline check` restarts itself with (src/cli/heap_pages.cpp).
+    "${draw[@]}" env GLIBC_TUNABLES="${GLIBC_TUNABLES:-glibc.malloc.hugetlb=1}" RIMLINE_BENCH_PROJECT="$WORK/n$sn-s$SEED/project.toml" \
       "$WORK/rimline_bench" --benchmark_filter=check_stages --benchmark_format=json 2>/dev/null > "$WORK/stages.json" || true
     /usr/bin/python3 - "$WORK/stages.json" "$sn" >> "$STAGES_TXT" <<'PY'
 import json, sys
