@@ -1,13 +1,12 @@
 #include "report/gpkg_rtree.hpp"
 
-#include <sqlite3.h>
-
 #include <algorithm>
 #include <cmath>
 #include <cstring>
 #include <memory>
 #include <utility>
 
+#include "report/sqlite_db.hpp"
 #include "rimline/error.hpp"
 
 namespace rimline::report {
@@ -75,72 +74,17 @@ void put64(unsigned char* p, std::int64_t i) {
   for (int k = 0; k < 8; ++k) p[k] = static_cast<unsigned char>(v >> (56 - 8 * k));
 }
 
-struct DbCloser {
-  void operator()(sqlite3* db) const { sqlite3_close(db); }
-};
-struct StmtCloser {
-  void operator()(sqlite3_stmt* s) const { sqlite3_finalize(s); }
-};
-using Stmt = std::unique_ptr<sqlite3_stmt, StmtCloser>;
-
-class Db {
- public:
-  explicit Db(const std::string& path) : path_(path) {
-    sqlite3* db = nullptr;
-    const int rc = sqlite3_open_v2(path.c_str(), &db, SQLITE_OPEN_READWRITE, nullptr);
-    db_.reset(db);
-    if (rc != SQLITE_OK) fail("", "cannot be opened to add its spatial index");
-  }
-  void exec(const std::string& sql, const std::string& table) {
-    char* msg = nullptr;
-    if (sqlite3_exec(db_.get(), sql.c_str(), nullptr, nullptr, &msg) != SQLITE_OK) {
-      const std::string m = msg ? msg : "unknown SQLite error";
-      sqlite3_free(msg);
-      fail(table, "spatial index cannot be written: " + m);
-    }
-  }
-  Stmt prepare(const std::string& sql, const std::string& table) {
-    sqlite3_stmt* s = nullptr;
-    if (sqlite3_prepare_v2(db_.get(), sql.c_str(), -1, &s, nullptr) != SQLITE_OK) fail(table, sqlite3_errmsg(db_.get()));
-    return Stmt(s);
-  }
-  void step_reset(sqlite3_stmt* s, const std::string& table) {
-    if (sqlite3_step(s) != SQLITE_DONE) fail(table, std::string("spatial index cannot be written: ") + sqlite3_errmsg(db_.get()));
-    sqlite3_reset(s);
-  }
-  [[noreturn]] void fail(const std::string& table, const std::string& what) const {
-    throw Error(ErrorKind::bad_config, ErrorContext{path_, table, "", ""}, what);
-  }
-  sqlite3* get() const { return db_.get(); }
-
- private:
-  std::string path_;
-  std::unique_ptr<sqlite3, DbCloser> db_;
-};
-
-std::string quoted(const std::string& name) {  // an SQL identifier in double quotes
-  std::string q = "\"";
-  for (char c : name) q += c == '"' ? std::string("\"\"") : std::string(1, c);
-  return q + "\"";
-}
-
-std::string literal(const std::string& text) {  // an SQL string literal
-  std::string q = "'";
-  for (char c : text) q += c == '\'' ? std::string("''") : std::string(1, c);
-  return q + "'";
-}
-
 // The GeoPackage 1.2 R-tree triggers (OGC 12-128r15, Annex F.3), so that an edit made later in
 // a GIS keeps the index in step with the table.
 std::string triggers_sql(const std::string& t, const std::string& g, const std::string& i) {
   const std::string rt = "rtree_" + t + "_" + g;
-  const std::string T = quoted(t), G = quoted(g), I = quoted(i), R = quoted(rt);
+  const std::string T = sql_quoted(t), G = sql_quoted(g), I = sql_quoted(i), R = sql_quoted(rt);
   const std::string box = "(NEW." + I + ", ST_MinX(NEW." + G + "), ST_MaxX(NEW." + G + "), ST_MinY(NEW." + G +
                           "), ST_MaxY(NEW." + G + "))";
   const std::string has = "(NEW." + G + " NOT NULL AND NOT ST_IsEmpty(NEW." + G + "))";
   const std::string lacks = "(NEW." + G + " ISNULL OR ST_IsEmpty(NEW." + G + "))";
   auto trig = [&](const std::string& name, const std::string& when, const std::string& body) {
-    return "CREATE TRIGGER " + quoted(rt + "_" + name) + " " + when + " BEGIN " + body + "; END;\n";
+    return "CREATE TRIGGER " + sql_quoted(rt + "_" + name) + " " + when + " BEGIN " + body + "; END;\n";
   };
   return trig("insert", "AFTER INSERT ON " + T + " WHEN " + has, "INSERT OR REPLACE INTO " + R + " VALUES " + box) +
          trig("update1", "AFTER UPDATE OF " + G + " ON " + T + " WHEN OLD." + I + " = NEW." + I + " AND " + has,
@@ -154,13 +98,13 @@ std::string triggers_sql(const std::string& t, const std::string& g, const std::
          trig("delete", "AFTER DELETE ON " + T + " WHEN OLD." + G + " NOT NULL", "DELETE FROM " + R + " WHERE id = OLD." + I);
 }
 
-void write_index(Db& db, const SpatialIndexRequest& rq) {
+void write_index(SqliteDb& db, const SpatialIndexRequest& rq) {
   const std::string rt = "rtree_" + rq.table + "_" + rq.geometry_column;
-  db.exec("CREATE VIRTUAL TABLE " + quoted(rt) + " USING rtree(id, minx, maxx, miny, maxy)", rq.table);
+  db.exec("CREATE VIRTUAL TABLE " + sql_quoted(rt) + " USING rtree(id, minx, maxx, miny, maxy)", rq.table);
   // SQLite sized the root node for this file's page size; every node must have that size.
   int node_bytes = 0;
   {
-    Stmt s = db.prepare("SELECT length(data) FROM " + quoted(rt + "_node") + " WHERE nodeno = 1", rq.table);
+    SqliteStmt s = db.prepare("SELECT length(data) FROM " + sql_quoted(rt + "_node") + " WHERE nodeno = 1", rq.table);
     if (sqlite3_step(s.get()) == SQLITE_ROW) node_bytes = sqlite3_column_int(s.get(), 0);
   }
   constexpr int cell_bytes = 8 + 4 * 4;
@@ -168,9 +112,9 @@ void write_index(Db& db, const SpatialIndexRequest& rq) {
   const auto capacity = static_cast<std::size_t>((node_bytes - 4) / cell_bytes);
   const auto nodes = pack_rtree(rq.envelopes, capacity);
 
-  db.exec("DELETE FROM " + quoted(rt + "_node"), rq.table);
-  Stmt put_node = db.prepare("INSERT INTO " + quoted(rt + "_node") + "(nodeno, data) VALUES (?, ?)", rq.table);
-  Stmt put_parent = db.prepare("INSERT INTO " + quoted(rt + "_parent") + "(nodeno, parentnode) VALUES (?, ?)", rq.table);
+  db.exec("DELETE FROM " + sql_quoted(rt + "_node"), rq.table);
+  SqliteStmt put_node = db.prepare("INSERT INTO " + sql_quoted(rt + "_node") + "(nodeno, data) VALUES (?, ?)", rq.table);
+  SqliteStmt put_parent = db.prepare("INSERT INTO " + sql_quoted(rt + "_parent") + "(nodeno, parentnode) VALUES (?, ?)", rq.table);
   std::vector<unsigned char> blob(static_cast<std::size_t>(node_bytes));
   std::vector<std::pair<std::int64_t, std::int64_t>> rowid_node;  // feature fid -> leaf node number
   rowid_node.reserve(rq.envelopes.size());
@@ -197,7 +141,7 @@ void write_index(Db& db, const SpatialIndexRequest& rq) {
     db.step_reset(put_node.get(), rq.table);
   }
   std::sort(rowid_node.begin(), rowid_node.end());  // appending in key order keeps the B-tree inserts cheap
-  Stmt put_rowid = db.prepare("INSERT INTO " + quoted(rt + "_rowid") + "(rowid, nodeno) VALUES (?, ?)", rq.table);
+  SqliteStmt put_rowid = db.prepare("INSERT INTO " + sql_quoted(rt + "_rowid") + "(rowid, nodeno) VALUES (?, ?)", rq.table);
   for (const auto& [fid, nodeno] : rowid_node) {
     sqlite3_bind_int64(put_rowid.get(), 1, fid);
     sqlite3_bind_int64(put_rowid.get(), 2, nodeno);
@@ -205,7 +149,7 @@ void write_index(Db& db, const SpatialIndexRequest& rq) {
   }
   db.exec(triggers_sql(rq.table, rq.geometry_column, rq.fid_column), rq.table);
   db.exec("INSERT INTO gpkg_extensions (table_name, column_name, extension_name, definition, scope) VALUES (" +
-              literal(rq.table) + ", " + literal(rq.geometry_column) +
+              sql_literal(rq.table) + ", " + sql_literal(rq.geometry_column) +
               ", 'gpkg_rtree_index', 'http://www.geopackage.org/spec120/#extension_rtree', 'write-only')",
           rq.table);
 }
@@ -257,14 +201,19 @@ std::vector<PackedNode> pack_rtree(std::vector<Envelope> envelopes, std::size_t 
   return out;
 }
 
-void add_gpkg_spatial_indexes(const std::string& path, const std::vector<SpatialIndexRequest>& requests) {
+void add_gpkg_spatial_indexes(SqliteDb& db, const std::vector<SpatialIndexRequest>& requests) {
   if (requests.empty()) return;
-  Db db(path);
-  db.exec("BEGIN", "");
   db.exec("CREATE TABLE IF NOT EXISTS gpkg_extensions (table_name TEXT, column_name TEXT, extension_name TEXT NOT NULL, "
           "definition TEXT NOT NULL, scope TEXT NOT NULL, CONSTRAINT ge_tce UNIQUE (table_name, column_name, extension_name))",
           "");
   for (const auto& rq : requests) write_index(db, rq);
+}
+
+void add_gpkg_spatial_indexes(const std::string& path, const std::vector<SpatialIndexRequest>& requests) {
+  if (requests.empty()) return;
+  SqliteDb db(path);
+  db.exec("BEGIN", "");
+  add_gpkg_spatial_indexes(db, requests);
   db.exec("COMMIT", "");
 }
 

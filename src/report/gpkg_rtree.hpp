@@ -26,6 +26,9 @@ struct SpatialIndexRequest {
 // GeoPackage triggers that keep it current under later edits, and the gpkg_extensions row.
 // Throws rimline::Error naming the file and table on an SQLite failure.
 void add_gpkg_spatial_indexes(const std::string& path, const std::vector<SpatialIndexRequest>& requests);
+// The same inside a transaction the caller holds on `db`.
+class SqliteDb;
+void add_gpkg_spatial_indexes(SqliteDb& db, const std::vector<SpatialIndexRequest>& requests);
 
 // The node layout on its own, for tests: nodes of at most `capacity` cells, root first.
 struct PackedNode {

@@ -19,7 +19,9 @@
 #include "rimline/report/outputs.hpp"
 #include "rimline/report/report_html.hpp"
 #include "rimline/report/staged_files.hpp"
+#include "report/gpkg_rows.hpp"
 #include "report/gpkg_rtree.hpp"
+#include "report/sqlite_db.hpp"
 
 namespace rimline::report {
 namespace {
@@ -51,8 +53,10 @@ class Writer {
 
   void write() {
     ds_->StartTransaction();
-    write_structures();
-    write_conduits();
+    // The two large layers get their schema from GDAL and their rows through SQLite (gpkg_rows.hpp).
+    layer("structures", wkbPoint, structure_columns);
+    layer("conduits", wkbLineString, conduit_columns());
+    layer("conduits_not_checked", wkbLineString, conduit_columns());
     write_cases();
     write_catchments();
     if (!run_.pump_stations.empty()) {
@@ -62,10 +66,15 @@ class Writer {
     }
     if (ds_->CommitTransaction() != OGRERR_NONE)
       throw Error(ErrorKind::bad_config, ErrorContext{path_, "", "", ""}, "cannot be written");
-    ds_.reset();  // closed before SQLite opens it again for the indexes
+    ds_.reset();  // closed before SQLite opens it again for the rows and the indexes
+    SqliteDb db(path_);
+    db.exec("BEGIN", "");
     std::vector<SpatialIndexRequest> indexes;
+    write_structure_rows(db, indexes);
+    write_conduit_rows(db, indexes);
     for (auto& [layer, rq] : indexes_) indexes.push_back(std::move(rq));
-    add_gpkg_spatial_indexes(path_, indexes);
+    add_gpkg_spatial_indexes(db, indexes);
+    db.exec("COMMIT", "");
   }
 
  private:
@@ -75,6 +84,23 @@ class Writer {
     x /= k;
     y /= k;
     if (to_source_) to_source_->Transform(1, &x, &y);
+  }
+
+  // A column of a layer whose rows go through SQLite: its schema is still made by GDAL.
+  struct Column {
+    const char* name;
+    OGRFieldType type;
+  };
+
+  OGRLayer* layer(const char* name, OGRwkbGeometryType type, const std::vector<Column>& columns) {
+    OGRLayer* l = layer(name, type);
+    auto& names = sql_columns_[name];
+    for (const auto& c : columns) {
+      field(l, c.name, c.type);
+      names.emplace_back(c.name);
+    }
+    geometry_column_[name] = l->GetGeometryColumn();
+    return l;
   }
 
   OGRLayer* layer(const char* name, OGRwkbGeometryType type) {
@@ -187,135 +213,183 @@ class Writer {
     }
   }
 
-  void write_structures() {
-    OGRLayer* l = layer("structures", wkbPoint);
-    for (const char* n : {"id", "kind", "status", "governing_outflow", "tailwater_case"}) field(l, n, OFTString);
-    for (const char* n : {"rim", "invert", "hgl", "egl", "freeboard", "required_freeboard", "structure_loss", "k_effective"})
-      field(l, n, OFTReal);
+  static inline const std::vector<Column> structure_columns = {
+      {"id", OFTString},  {"kind", OFTString}, {"status", OFTString}, {"governing_outflow", OFTString},
+      {"tailwater_case", OFTString}, {"rim", OFTReal}, {"invert", OFTReal}, {"hgl", OFTReal}, {"egl", OFTReal},
+      {"freeboard", OFTReal}, {"required_freeboard", OFTReal}, {"structure_loss", OFTReal}, {"k_effective", OFTReal}};
+
+  GpkgRows rows_of(SqliteDb& db, const std::string& table) {
+    return GpkgRows(db, table, geometry_column_.at(table), sql_columns_.at(table));
+  }
+
+  // Converted to the report's units; NaN or infinite stays NULL.
+  void put(GpkgRows& rows, int column, double si, Dimension d) const {
+    if (std::isfinite(si)) rows.real(column, to_report(si, d, sys_));
+  }
+
+  static void take_index(GpkgRows& rows, std::vector<SpatialIndexRequest>& indexes) {
+    rows.finish();
+    auto rq = std::move(rows).index_request();
+    if (!rq.envelopes.empty()) indexes.push_back(std::move(rq));
+  }
+
+  void write_structure_rows(SqliteDb& db, std::vector<SpatialIndexRequest>& indexes) {
+    GpkgRows rows = rows_of(db, "structures");
+    const int id = rows.column("id"), kind = rows.column("kind"), status = rows.column("status"),
+              governing = rows.column("governing_outflow"), case_col = rows.column("tailwater_case"),
+              rim = rows.column("rim"), invert = rows.column("invert"), hgl = rows.column("hgl"),
+              egl = rows.column("egl"), freeboard = rows.column("freeboard"),
+              required = rows.column("required_freeboard"), loss = rows.column("structure_loss"),
+              k_eff = rows.column("k_effective");
     const auto& net = run_.read.network;
     for (std::size_t s = 0; s < net.structures.size(); ++s) {
       const auto& st = net.structures[s];
-      OGRFeature f(l->GetLayerDefn());
-      f.SetField(ix(f, "id"), st.id.c_str());
-      f.SetField(ix(f, "kind"), std::string(model::structure_kind_name(st.kind)).c_str());
-      f.SetField(ix(f, "status"), run::envelope_status(run_, s).c_str());
-      set(f, "rim", st.rim_m.value_or(NAN), Dimension::length);
-      set(f, "invert", st.invert_m.value_or(NAN), Dimension::length);
-      set(f, "required_freeboard", run::required_freeboard_m(run_, s), Dimension::length);
+      rows.text(id, st.id);
+      rows.text(kind, model::structure_kind_name(st.kind));
+      rows.text(status, run::envelope_status(run_, s));
+      put(rows, rim, st.rim_m.value_or(NAN), Dimension::length);
+      put(rows, invert, st.invert_m.value_or(NAN), Dimension::length);
+      put(rows, required, run::required_freeboard_m(run_, s), Dimension::length);
       if (!run_.cases.empty()) {
         const auto& c = run_.cases[run_.envelope_structure_case[s]];
         const auto& r = c.march.structures[s];
-        f.SetField(ix(f, "tailwater_case"), case_label(run_.envelope_structure_case[s]).c_str());
+        rows.text(case_col, case_label(run_.envelope_structure_case[s]));
         if (r.solved) {
-          set(f, "hgl", r.hgl_m, Dimension::length);
-          set(f, "egl", r.egl_m, Dimension::length);
-          set(f, "freeboard", st.rim_m ? *st.rim_m - r.hgl_m : NAN, Dimension::length);
-          set(f, "structure_loss", r.loss_m, Dimension::length);
-          f.SetField(ix(f, "k_effective"), r.k_effective);
-          if (r.governing_outflow != model::no_index)
-            f.SetField(ix(f, "governing_outflow"), net.conduits[r.governing_outflow].id.c_str());
+          put(rows, hgl, r.hgl_m, Dimension::length);
+          put(rows, egl, r.egl_m, Dimension::length);
+          put(rows, freeboard, st.rim_m ? *st.rim_m - r.hgl_m : NAN, Dimension::length);
+          put(rows, loss, r.loss_m, Dimension::length);
+          rows.real(k_eff, r.k_effective);
+          if (r.governing_outflow != model::no_index) rows.text(governing, net.conduits[r.governing_outflow].id);
         }
       }
       double x = st.location.x, y = st.location.y;
       place(x, y);
-      OGRPoint pt(x, y);
-      f.SetGeometry(&pt);
-      add(l, f);
+      rows.point(x, y);
+      rows.add();
     }
+    take_index(rows, indexes);
   }
 
-  OGRLayer* conduit_layer(const char* name) {
-    OGRLayer* l = layer(name, wkbLineString);
+  std::vector<Column> conduit_columns() const {
+    std::vector<Column> out;
     for (const char* n : {"id", "from_id", "to_id", "shape", "regime", "governs", "profile_class", "note", "tailwater_case"})
-      field(l, n, OFTString);
+      out.push_back({n, OFTString});
     for (const char* n : {"rise", "width", "length", "slope", "flow", "capacity", "capacity_ratio", "velocity_up",
                           "velocity_down", "depth_up", "depth_down", "hgl_up", "hgl_down", "egl_up", "egl_down",
                           "normal_depth", "critical_depth", "surcharged_length", "invert_up", "invert_down"})
-      field(l, n, OFTReal);
-    field(l, "reversed", OFTInteger);
-    add_design_fields(l);
-    return l;
+      out.push_back({n, OFTReal});
+    out.push_back({"reversed", OFTInteger});
+    for (const char* n : design_columns()) out.push_back({n, OFTReal});
+    return out;
   }
 
   // Flows modes "rational" / "sanitary": the design figures behind each pipe's flow.
-  void add_design_fields(OGRLayer* l) {
-    if (!run_.catchment_flows) return;
-    const bool storm = run_.catchment_flows->mode == flows::CatchmentMode::storm;
-    for (const char* n : storm ? std::vector<const char*>{"contributing_area", "runoff_ca", "tc", "travel_time", "intensity"}
-                               : std::vector<const char*>{"contributing_area", "population", "peaking_factor", "infiltration"})
-      field(l, n, OFTReal);
+  std::vector<const char*> design_columns() const {
+    if (!run_.catchment_flows) return {};
+    if (run_.catchment_flows->mode == flows::CatchmentMode::storm)
+      return {"contributing_area", "runoff_ca", "tc", "travel_time", "intensity"};
+    return {"contributing_area", "population", "peaking_factor", "infiltration"};
   }
 
-  void set_design_fields(OGRFeature& f, std::size_t ci) {
+  void put_design_fields(GpkgRows& rows, std::size_t ci) const {
     if (!run_.catchment_flows) return;
     const auto& d = run_.catchment_flows->pipes[ci];
-    set(f, "contributing_area", d.area_m2, Dimension::area);
+    put(rows, rows.column("contributing_area"), d.area_m2, Dimension::area);
     if (run_.catchment_flows->mode == flows::CatchmentMode::storm) {
-      set(f, "runoff_ca", d.ca_m2, Dimension::area);
-      set(f, "tc", d.tc_s, Dimension::time);
-      set(f, "travel_time", d.travel_time_s, Dimension::time);
-      set(f, "intensity", d.intensity_m_s, Dimension::intensity);
+      put(rows, rows.column("runoff_ca"), d.ca_m2, Dimension::area);
+      put(rows, rows.column("tc"), d.tc_s, Dimension::time);
+      put(rows, rows.column("travel_time"), d.travel_time_s, Dimension::time);
+      put(rows, rows.column("intensity"), d.intensity_m_s, Dimension::intensity);
     } else {
-      f.SetField(ix(f, "population"), d.population);
-      if (std::isfinite(d.peaking_factor)) f.SetField(ix(f, "peaking_factor"), d.peaking_factor);
-      set(f, "infiltration", d.infiltration_m3_s, Dimension::flow);
+      rows.real(rows.column("population"), d.population);
+      if (std::isfinite(d.peaking_factor)) rows.real(rows.column("peaking_factor"), d.peaking_factor);
+      put(rows, rows.column("infiltration"), d.infiltration_m3_s, Dimension::flow);
     }
   }
 
+  // The columns of a conduit row by name, looked up once per table.
+  struct ConduitColumns {
+    int id, from_id, to_id, shape, regime, governs, profile_class, note, tailwater_case, rise, width, length, slope,
+        flow, capacity, capacity_ratio, velocity_up, velocity_down, depth_up, depth_down, hgl_up, hgl_down, egl_up,
+        egl_down, normal_depth, critical_depth, surcharged_length, invert_up, invert_down, reversed;
+    explicit ConduitColumns(const GpkgRows& r)
+        : id(r.column("id")), from_id(r.column("from_id")), to_id(r.column("to_id")), shape(r.column("shape")),
+          regime(r.column("regime")), governs(r.column("governs")), profile_class(r.column("profile_class")),
+          note(r.column("note")), tailwater_case(r.column("tailwater_case")), rise(r.column("rise")),
+          width(r.column("width")), length(r.column("length")), slope(r.column("slope")), flow(r.column("flow")),
+          capacity(r.column("capacity")), capacity_ratio(r.column("capacity_ratio")),
+          velocity_up(r.column("velocity_up")), velocity_down(r.column("velocity_down")),
+          depth_up(r.column("depth_up")), depth_down(r.column("depth_down")), hgl_up(r.column("hgl_up")),
+          hgl_down(r.column("hgl_down")), egl_up(r.column("egl_up")), egl_down(r.column("egl_down")),
+          normal_depth(r.column("normal_depth")), critical_depth(r.column("critical_depth")),
+          surcharged_length(r.column("surcharged_length")), invert_up(r.column("invert_up")),
+          invert_down(r.column("invert_down")), reversed(r.column("reversed")) {}
+  };
+
   // Pipes that could not be solved go to their own layer with the reason, so that every row of
   // `conduits` carries a full set of figures.
-  void write_conduits() {
-    OGRLayer* solved_layer = conduit_layer("conduits");
-    OGRLayer* unsolved_layer = conduit_layer("conduits_not_checked");
+  void write_conduit_rows(SqliteDb& db, std::vector<SpatialIndexRequest>& indexes) {
+    GpkgRows solved_rows = rows_of(db, "conduits"), unsolved_rows = rows_of(db, "conduits_not_checked");
+    const ConduitColumns col(solved_rows);  // the two tables have the same columns
     const auto& net = run_.read.network;
+    std::vector<double> xy;
     for (std::size_t ci = 0; ci < net.conduits.size(); ++ci) {
       const auto& c = net.conduits[ci];
       const bool solved =
           !run_.cases.empty() && run_.cases[run_.envelope_conduit_case[ci]].march.conduits[ci].solved;
-      OGRLayer* l = solved ? solved_layer : unsolved_layer;
-      OGRFeature f(l->GetLayerDefn());
-      f.SetField(ix(f, "id"), c.id.c_str());
-      if (c.from != model::no_index) f.SetField(ix(f, "from_id"), net.structures[c.from].id.c_str());
-      if (c.to != model::no_index) f.SetField(ix(f, "to_id"), net.structures[c.to].id.c_str());
-      f.SetField(ix(f, "shape"), std::string(hydraulics::shape_name(c.section.shape)).c_str());
-      set(f, "rise", c.section.shape == hydraulics::Shape::circular ? c.section.diameter_m : c.section.height_m,
+      GpkgRows& rows = solved ? solved_rows : unsolved_rows;
+      rows.text(col.id, c.id);
+      if (c.from != model::no_index) rows.text(col.from_id, net.structures[c.from].id);
+      if (c.to != model::no_index) rows.text(col.to_id, net.structures[c.to].id);
+      rows.text(col.shape, hydraulics::shape_name(c.section.shape));
+      put(rows, col.rise, c.section.shape == hydraulics::Shape::circular ? c.section.diameter_m : c.section.height_m,
           Dimension::length);
-      set(f, "width", c.section.shape == hydraulics::Shape::box ? c.section.width_m : NAN, Dimension::length);
-      set(f, "length", c.length_m, Dimension::length);
-      f.SetField(ix(f, "reversed"), c.reversed ? 1 : 0);
-      set_design_fields(f, ci);
+      put(rows, col.width, c.section.shape == hydraulics::Shape::box ? c.section.width_m : NAN, Dimension::length);
+      put(rows, col.length, c.length_m, Dimension::length);
+      rows.integer(col.reversed, c.reversed ? 1 : 0);
+      put_design_fields(rows, ci);
       if (!run_.cases.empty()) {
         const auto& cs = run_.cases[run_.envelope_conduit_case[ci]];
         const auto& r = cs.march.conduits[ci];
-        f.SetField(ix(f, "tailwater_case"), case_label(run_.envelope_conduit_case[ci]).c_str());
-        if (!r.note.empty()) f.SetField(ix(f, "note"), r.note.c_str());
-        set(f, "flow", r.flow_m3_s, Dimension::flow);
+        rows.text(col.tailwater_case, case_label(run_.envelope_conduit_case[ci]));
+        if (!r.note.empty()) rows.text(col.note, r.note);
+        put(rows, col.flow, r.flow_m3_s, Dimension::flow);
         if (r.solved) {
           const auto& p = r.profile;
-          f.SetField(ix(f, "slope"), r.slope);
-          set(f, "capacity", r.capacity_m3_s, Dimension::flow);
-          if (std::isfinite(r.capacity_m3_s) && r.capacity_m3_s > 0) f.SetField(ix(f, "capacity_ratio"), r.flow_m3_s / r.capacity_m3_s);
-          set(f, "invert_up", r.invert_up_m, Dimension::length);
-          set(f, "invert_down", r.invert_down_m, Dimension::length);
-          set(f, "velocity_up", p.inlet().velocity_m_s, Dimension::velocity);
-          set(f, "velocity_down", p.outlet().velocity_m_s, Dimension::velocity);
-          set(f, "depth_up", p.inlet().depth_m, Dimension::length);
-          set(f, "depth_down", p.outlet().depth_m, Dimension::length);
-          set(f, "hgl_up", p.inlet().hgl_m, Dimension::length);
-          set(f, "hgl_down", p.outlet().hgl_m, Dimension::length);
-          set(f, "egl_up", p.inlet().egl_m, Dimension::length);
-          set(f, "egl_down", p.outlet().egl_m, Dimension::length);
-          set(f, "normal_depth", p.normal_depth_m, Dimension::length);
-          set(f, "critical_depth", p.critical_depth_m, Dimension::length);
-          set(f, "surcharged_length", p.surcharged_length_m, Dimension::length);
-          f.SetField(ix(f, "regime"), std::string(hydraulics::regime_name(p.regime)).c_str());
-          f.SetField(ix(f, "governs"), std::string(hydraulics::governs_name(p.governs)).c_str());
-          f.SetField(ix(f, "profile_class"), p.profile_class.c_str());
+          rows.real(col.slope, r.slope);
+          put(rows, col.capacity, r.capacity_m3_s, Dimension::flow);
+          if (std::isfinite(r.capacity_m3_s) && r.capacity_m3_s > 0) rows.real(col.capacity_ratio, r.flow_m3_s / r.capacity_m3_s);
+          put(rows, col.invert_up, r.invert_up_m, Dimension::length);
+          put(rows, col.invert_down, r.invert_down_m, Dimension::length);
+          put(rows, col.velocity_up, p.inlet().velocity_m_s, Dimension::velocity);
+          put(rows, col.velocity_down, p.outlet().velocity_m_s, Dimension::velocity);
+          put(rows, col.depth_up, p.inlet().depth_m, Dimension::length);
+          put(rows, col.depth_down, p.outlet().depth_m, Dimension::length);
+          put(rows, col.hgl_up, p.inlet().hgl_m, Dimension::length);
+          put(rows, col.hgl_down, p.outlet().hgl_m, Dimension::length);
+          put(rows, col.egl_up, p.inlet().egl_m, Dimension::length);
+          put(rows, col.egl_down, p.outlet().egl_m, Dimension::length);
+          put(rows, col.normal_depth, p.normal_depth_m, Dimension::length);
+          put(rows, col.critical_depth, p.critical_depth_m, Dimension::length);
+          put(rows, col.surcharged_length, p.surcharged_length_m, Dimension::length);
+          rows.text(col.regime, hydraulics::regime_name(p.regime));
+          rows.text(col.governs, hydraulics::governs_name(p.governs));
+          rows.text(col.profile_class, p.profile_class);
         }
       }
-      set_line(f, c);
-      add(l, f);
+      xy.clear();
+      for (const auto& v : c.vertices) {
+        double x = v.x, y = v.y;
+        place(x, y);
+        xy.push_back(x);
+        xy.push_back(y);
+      }
+      rows.line(xy);
+      rows.add();
     }
+    take_index(solved_rows, indexes);
+    take_index(unsolved_rows, indexes);
   }
 
   // One row per structure and tailwater level of a sweep; a single level is the structures layer.
@@ -465,6 +539,8 @@ class Writer {
   std::map<std::pair<const OGRFeatureDefn*, const char*>, int> field_ix_;
   std::vector<std::string> case_labels_;
   std::vector<std::pair<const OGRLayer*, SpatialIndexRequest>> indexes_;  // in layer creation order
+  std::map<std::string, std::vector<std::string>> sql_columns_;  // layers whose rows go through SQLite
+  std::map<std::string, std::string> geometry_column_;
 };
 
 }  // namespace
