@@ -42,7 +42,7 @@ bool kernel_grants_huge_pages() {
 
 }  // namespace
 
-void restart_with_huge_pages(int /*argc*/, char** argv) {
+void restart_with_huge_pages(char** argv) {
   if (!glibc_reads_the_tunable() || !kernel_grants_huge_pages()) return;
   const char* old = std::getenv("GLIBC_TUNABLES");
   if (old && std::strstr(old, "glibc.malloc.hugetlb")) return;  // set: by the user, or by us before the restart

@@ -3,6 +3,7 @@
 #include <exception>
 #include <filesystem>
 #include <fstream>
+#include <functional>
 #include <set>
 #include <thread>
 
@@ -31,13 +32,17 @@ std::string file_stem(const std::string& name) {
   return out.empty() ? "profile" : out;
 }
 
-void write_file(const std::string& path, const std::string& text) {
+void write_file(const std::string& path, const std::function<void(std::ostream&)>& fill) {
   std::error_code ec;
   fs::create_directories(fs::path(path).parent_path(), ec);
   std::ofstream out(path, std::ios::binary | std::ios::trunc);
-  out << text;
+  fill(out);
   out.flush();
   if (!out) throw Error(ErrorKind::bad_input, ErrorContext{path, "", "", ""}, "cannot be written");
+}
+
+void write_file(const std::string& path, const std::string& text) {
+  write_file(path, [&text](std::ostream& out) { out << text; });
 }
 
 }  // namespace
@@ -112,12 +117,9 @@ void write_drawings(const run::CheckRun& run, StagedFiles& files, const DrawingO
     if (e.path().extension() == ".svg" && !stems.count(e.path().stem().string())) fs::remove(e.path(), ec);
   }
 
-  {
-    std::ofstream out(html_tmp, std::ios::binary | std::ios::trunc);
+  write_file(html_tmp, [&](std::ostream& out) {
     write_report_html(out, run, rendered, date, pdf, selection_text(options, run.report_units));
-    out.flush();
-    if (!out) throw Error(ErrorKind::bad_input, ErrorContext{html_tmp, "", "", ""}, "cannot be written");
-  }
+  });
   if (pdf_writer.joinable()) pdf_writer.join();
   if (pdf_failed) std::rethrow_exception(pdf_failed);
 }

@@ -292,19 +292,38 @@ class Writer {
     return {"contributing_area", "population", "peaking_factor", "infiltration"};
   }
 
-  void put_design_fields(GpkgRows& rows, std::size_t ci) const {
+  // The design columns present in this run's mode, looked up once (-1: not in this mode).
+  struct DesignColumns {
+    int area = -1, runoff_ca = -1, tc = -1, travel_time = -1, intensity = -1, population = -1, peaking_factor = -1,
+        infiltration = -1;
+  };
+  DesignColumns design_columns_of(const GpkgRows& rows) const {
+    DesignColumns d;
+    if (!run_.catchment_flows) return d;
+    d.area = rows.column("contributing_area");
+    if (run_.catchment_flows->mode == flows::CatchmentMode::storm) {
+      d.runoff_ca = rows.column("runoff_ca"), d.tc = rows.column("tc"), d.travel_time = rows.column("travel_time");
+      d.intensity = rows.column("intensity");
+    } else {
+      d.population = rows.column("population"), d.peaking_factor = rows.column("peaking_factor");
+      d.infiltration = rows.column("infiltration");
+    }
+    return d;
+  }
+
+  void put_design_fields(GpkgRows& rows, const DesignColumns& col, std::size_t ci) const {
     if (!run_.catchment_flows) return;
     const auto& d = run_.catchment_flows->pipes[ci];
-    put(rows, rows.column("contributing_area"), d.area_m2, Dimension::area);
+    put(rows, col.area, d.area_m2, Dimension::area);
     if (run_.catchment_flows->mode == flows::CatchmentMode::storm) {
-      put(rows, rows.column("runoff_ca"), d.ca_m2, Dimension::area);
-      put(rows, rows.column("tc"), d.tc_s, Dimension::time);
-      put(rows, rows.column("travel_time"), d.travel_time_s, Dimension::time);
-      put(rows, rows.column("intensity"), d.intensity_m_s, Dimension::intensity);
+      put(rows, col.runoff_ca, d.ca_m2, Dimension::area);
+      put(rows, col.tc, d.tc_s, Dimension::time);
+      put(rows, col.travel_time, d.travel_time_s, Dimension::time);
+      put(rows, col.intensity, d.intensity_m_s, Dimension::intensity);
     } else {
-      rows.real(rows.column("population"), d.population);
-      if (std::isfinite(d.peaking_factor)) rows.real(rows.column("peaking_factor"), d.peaking_factor);
-      put(rows, rows.column("infiltration"), d.infiltration_m3_s, Dimension::flow);
+      rows.real(col.population, d.population);
+      if (std::isfinite(d.peaking_factor)) rows.real(col.peaking_factor, d.peaking_factor);
+      put(rows, col.infiltration, d.infiltration_m3_s, Dimension::flow);
     }
   }
 
@@ -332,6 +351,7 @@ class Writer {
   void write_conduit_rows(SqliteDb& db, std::vector<SpatialIndexRequest>& indexes) {
     GpkgRows solved_rows = rows_of(db, "conduits"), unsolved_rows = rows_of(db, "conduits_not_checked");
     const ConduitColumns col(solved_rows);  // the two tables have the same columns
+    const DesignColumns design = design_columns_of(solved_rows);
     const auto& net = run_.read.network;
     std::vector<double> xy;
     for (std::size_t ci = 0; ci < net.conduits.size(); ++ci) {
@@ -348,7 +368,7 @@ class Writer {
       put(rows, col.width, c.section.shape == hydraulics::Shape::box ? c.section.width_m : NAN, Dimension::length);
       put(rows, col.length, c.length_m, Dimension::length);
       rows.integer(col.reversed, c.reversed ? 1 : 0);
-      put_design_fields(rows, ci);
+      put_design_fields(rows, design, ci);
       if (!run_.cases.empty()) {
         const auto& cs = run_.cases[run_.envelope_conduit_case[ci]];
         const auto& r = cs.march.conduits[ci];
