@@ -18,7 +18,7 @@
 #include <filesystem>
 #include <string>
 
-#include "rimline/io/project.hpp"
+#include "rimline/config/project.hpp"
 #include "rimline/report/outputs.hpp"
 #include "rimline/report/profile_path.hpp"
 #include "rimline/report/report_html.hpp"
@@ -58,11 +58,11 @@ void BM_check_stages(benchmark::State& state) {
   const bool drawings = std::getenv("RIMLINE_BENCH_DRAWINGS") != nullptr;
   const std::string out = (std::filesystem::temp_directory_path() / "rimline_pipeline_bench").string();
   for (auto _ : state) {
-    const io::Project project = io::load_project(path);
+    const config::Project project = config::load_project(path);
     Clock clock;
     {
       // The stages as run_check chains them (check_run.cpp), timed one by one.
-      auto read = io::read_network(project);
+      auto read = gis::read_network(project);
       state.counters["1_read_s"] = clock.lap();
       state.counters["1_read_rss_MiB"] = peak_rss_mib();
       Findings findings = read.findings;
@@ -72,17 +72,17 @@ void BM_check_stages(benchmark::State& state) {
       state.counters["2_topology_s"] = clock.lap();
       state.counters["2_topology_rss_MiB"] = peak_rss_mib();
       flows::FlowOptions flow_opt;
-      flow_opt.mode = project.flow_mode == io::FlowMode::pipe_field ? flows::Mode::pipe_field
+      flow_opt.mode = project.flow_mode == config::FlowMode::pipe_field ? flows::Mode::pipe_field
                                                                     : flows::Mode::structure_inflows;
-      flow_opt.split = project.split_rule == io::SplitRule::field ? flows::Split::field : flows::Split::capacity;
+      flow_opt.split = project.split_rule == config::SplitRule::field ? flows::Split::field : flows::Split::capacity;
       flow_opt.friction = project.methods.friction;
       flow_opt.default_inflow_m3_s = project.default_inflow_m3_s.value_or(0.0);
       const auto flows = flows::design_flows(read.network, topo, flow_opt, findings);
       state.counters["3_flows_s"] = clock.lap();
       // March options as run_check sets them (march_options_from in check_run.cpp).
       solve::MarchOptions march_opt;
-      march_opt.tailwater_mode = project.tailwater_mode == io::TailwaterMode::fixed  ? solve::TailwaterMode::fixed
-                                 : project.tailwater_mode == io::TailwaterMode::free ? solve::TailwaterMode::free
+      march_opt.tailwater_mode = project.tailwater_mode == config::TailwaterMode::fixed  ? solve::TailwaterMode::fixed
+                                 : project.tailwater_mode == config::TailwaterMode::free ? solve::TailwaterMode::free
                                                                                      : solve::TailwaterMode::higher;
       march_opt.k_by_type = project.methods.k_by_type;
       march_opt.loss_method = project.methods.structure_loss;

@@ -6,7 +6,7 @@
 #include <string>
 
 #include "rimline/error.hpp"
-#include "rimline/io/project.hpp"
+#include "rimline/config/project.hpp"
 
 namespace {
 
@@ -19,7 +19,7 @@ void require(bool ok) {
 extern "C" int LLVMFuzzerTestOneInput(const std::uint8_t* data, std::size_t size) {
   const std::string text(reinterpret_cast<const char*>(data), size);
   try {
-    const rimline::io::Project p = rimline::io::parse_project(text, "fuzz/project.toml");
+    const rimline::config::Project p = rimline::config::parse_project(text, "fuzz/project.toml");
     require(std::isfinite(p.snap_tolerance_m));
     for (double tw : p.tailwater_levels_m) require(std::isfinite(tw));
     require(std::isfinite(p.criteria.freeboard_m));

@@ -7,7 +7,7 @@
 #include <string>
 
 #include "rimline/error.hpp"
-#include "rimline/io/project.hpp"
+#include "rimline/config/project.hpp"
 #include "rimline/units.hpp"
 
 extern "C" int LLVMFuzzerTestOneInput(const std::uint8_t* data, std::size_t size) {
@@ -23,7 +23,7 @@ extern "C" int LLVMFuzzerTestOneInput(const std::uint8_t* data, std::size_t size
     (void)rimline::units::unit_symbol(*u);
   }
   try {
-    const double v = rimline::io::parse_quantity(text, expected, "fuzz");
+    const double v = rimline::config::parse_quantity(text, expected, "fuzz");
     if (!std::isfinite(v)) __builtin_trap();
   } catch (const rimline::Error&) {
   }

@@ -7,7 +7,7 @@
 
 #include "cli/commands.hpp"
 #include "rimline/error.hpp"
-#include "rimline/io/project.hpp"
+#include "rimline/config/project.hpp"
 #include "rimline/report/outputs.hpp"
 #include "rimline/run/check_run.hpp"
 #include "rimline/topology/summary.hpp"
@@ -78,14 +78,14 @@ class Progress {
 
 int run_check_command(const CheckArgs& a, const GlobalOptions& g) {
   const Severity fail_on = parse_severity(a.fail_on);
-  const io::Project project = io::load_project(a.project);
+  const config::Project project = config::load_project(a.project);
   run::RunOptions opt;
   opt.dry_run = a.dry_run;
   if (a.units == "si") opt.report_units = units::System::si;
   else if (a.units == "us") opt.report_units = units::System::us;
   else if (!a.units.empty()) throw Error(ErrorKind::bad_config, "--units must be si or us, not '" + a.units + "'");
   for (const auto& t : a.tailwater)
-    opt.tailwater_levels_m.push_back(io::parse_quantity(t, units::Dimension::length, "--tailwater"));
+    opt.tailwater_levels_m.push_back(config::parse_quantity(t, units::Dimension::length, "--tailwater"));
   if (!a.dry_run && a.out.empty()) throw Error(ErrorKind::bad_config, "check needs --out DIR (or --dry-run)");
 
   report::OutputOptions out_opt;
@@ -95,7 +95,7 @@ int run_check_command(const CheckArgs& a, const GlobalOptions& g) {
     out_opt.profiles.from_structure_id = a.profile_from;
   } else if (!a.profile_trunks.empty()) {
     out_opt.profiles.selection = report::PathSelection::trunks;
-    out_opt.profiles.min_rise_m = io::parse_quantity(a.profile_trunks, units::Dimension::length, "--profile-trunks");
+    out_opt.profiles.min_rise_m = config::parse_quantity(a.profile_trunks, units::Dimension::length, "--profile-trunks");
   }
   opt.detailed_conduits = [&out_opt](const model::Network& net, const topology::Topology& topo) {
     return out_opt.drawings ? report::drawn_conduits(net, topo, out_opt.profiles)

@@ -6,7 +6,7 @@
 
 #include "cli/commands.hpp"
 #include "rimline/error.hpp"
-#include "rimline/io/inspect.hpp"
+#include "rimline/mapping/inspect.hpp"
 
 namespace rimline::cli {
 namespace {
@@ -17,7 +17,7 @@ struct FieldsArgs {
   std::string write_project;
 };
 
-void print_layer(const io::LayerSummary& l, std::ostream& os) {
+void print_layer(const mapping::LayerSummary& l, std::ostream& os) {
   os << "layer " << l.name << ": " << l.feature_count << " features, " << l.declared_geometry;
   for (const auto& [type, n] : l.geometry_counts) os << " [" << type << " " << n << "]";
   os << "\n  crs: " << (l.crs_name.empty() ? "(none)" : l.crs_name) << (l.crs_id.empty() ? "" : " (" + l.crs_id + ")")
@@ -33,25 +33,25 @@ void print_layer(const io::LayerSummary& l, std::ostream& os) {
     }
     os << "\n";
   }
-  const auto proposal = io::propose_mapping(l);
+  const auto proposal = mapping::propose_mapping(l);
   if (!proposal.fields.empty()) {
-    os << "  proposed mapping (" << (proposal.kind == io::LayerKind::pipes ? "pipes" : "structures") << "):\n";
+    os << "  proposed mapping (" << (proposal.kind == mapping::LayerKind::pipes ? "pipes" : "structures") << "):\n";
     for (const auto& p : proposal.fields)
       os << "    " << std::setw(12) << p.role << " = " << p.field
          << (p.unit ? " [" + std::string(units::unit_symbol(*p.unit)) + "]" : "") << "  (" << p.reason << ")\n";
   }
 }
 
-const io::LayerSummary* first_of(const io::SourceSummary& s, bool lines) {
+const mapping::LayerSummary* first_of(const mapping::SourceSummary& s, bool lines) {
   for (const auto& l : s.layers)
     if (lines ? l.lines() : l.points()) return &l;
   return nullptr;
 }
 
 int run_fields(const FieldsArgs& a, const GlobalOptions& g) {
-  const auto pipes = io::inspect_source(a.source);
-  std::optional<io::SourceSummary> structures;
-  if (!a.structures.empty()) structures = io::inspect_source(a.structures);
+  const auto pipes = mapping::inspect_source(a.source);
+  std::optional<mapping::SourceSummary> structures;
+  if (!a.structures.empty()) structures = mapping::inspect_source(a.structures);
   if (!g.quiet) {
     std::cout << pipes.source << " (" << pipes.driver << ")\n";
     for (const auto& l : pipes.layers) print_layer(l, std::cout);
@@ -68,15 +68,15 @@ int run_fields(const FieldsArgs& a, const GlobalOptions& g) {
     const auto rel = fs::relative(fs::absolute(src), project_dir, ec);
     return ec || rel.empty() ? src : rel.string();
   };
-  io::StarterLayer sp{relative(a.source), first_of(pipes, true)};
-  io::StarterLayer ss;
+  mapping::StarterLayer sp{relative(a.source), first_of(pipes, true)};
+  mapping::StarterLayer ss;
   if (structures) ss = {relative(a.structures), first_of(*structures, false)};
   else if (const auto* pts = first_of(pipes, false)) ss = {relative(a.source), pts};
   if (!sp.layer) throw Error(ErrorKind::bad_input, ErrorContext{a.source, "", "", ""}, "holds no line layer for pipes");
   if (fs::exists(a.write_project))
     throw Error(ErrorKind::bad_config, ErrorContext{a.write_project, "", "", ""},
                 "exists already; rimline does not overwrite a project file");
-  const std::string text = io::starter_project_toml(sp, ss);
+  const std::string text = mapping::starter_project_toml(sp, ss);
   const std::string tmp = a.write_project + ".partial";
   {
     std::ofstream out(tmp, std::ios::binary);

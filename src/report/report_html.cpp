@@ -98,10 +98,10 @@ std::string inputs_section(const run::CheckRun& run) {
 // Whether a "flows" row of the method table applies to this run's flows mode.
 bool flows_row_in_use(const run::CheckRun& run, std::string_view id) {
   const auto& p = run.project;
-  if (p.flow_mode == io::FlowMode::rational)
+  if (p.flow_mode == config::FlowMode::rational)
     return id == "rational" || id == "idf" || id == "travel_velocity" || id == "inlet_time" ||
            (id == "composite_c" && !p.catchments.land_use.source.empty());
-  return p.flow_mode == io::FlowMode::sanitary && id == "harmon" && !p.sanitary.peaking_constant;
+  return p.flow_mode == config::FlowMode::sanitary && id == "harmon" && !p.sanitary.peaking_constant;
 }
 
 std::string methods_section(const run::CheckRun& run) {

@@ -8,7 +8,7 @@ namespace rimline::report {
 
 std::string flow_case_text(const run::CheckRun& run) {
   if (run.catchment_flows) return run.catchment_flows->method;
-  return run.project.flow_mode == io::FlowMode::pipe_field
+  return run.project.flow_mode == config::FlowMode::pipe_field
              ? "design flows from the pipe layer"
              : "local inflows at structures, accumulated downstream";
 }

@@ -16,18 +16,18 @@ std::string constant_text(double v) {
 
 }  // namespace
 
-void assign_catchment_outlets(const io::Project& project, CheckRun& run) {
+void assign_catchment_outlets(const config::Project& project, CheckRun& run) {
   run.catchments = run.read.catchments;
   flows::assign_outlets(run.read.network, run.topology, run.catchments, project.catchments.outlet_search_m,
                         run.data_findings);
 }
 
-flows::DesignFlows catchment_design_flows(const io::Project& project, flows::Split split,
+flows::DesignFlows catchment_design_flows(const config::Project& project, flows::Split split,
                                           const flows::FixedFlows& fixed, CheckRun& run, Findings& findings) {
   const auto& net = run.read.network;
   const auto local = flows::local_inflows(net, run.catchments);
   flows::CatchmentFlows cf;
-  if (project.flow_mode == io::FlowMode::rational) {
+  if (project.flow_mode == config::FlowMode::rational) {
     const auto velocity =
         project.rational.full_flow_velocity ? flows::TravelVelocity::full_flow : flows::TravelVelocity::normal_depth;
     cf = flows::storm_along_tree(net, run.topology, local, project.rational.idf,

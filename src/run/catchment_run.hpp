@@ -7,10 +7,10 @@ namespace rimline::run {
 
 // Fills run.catchments with the catchments read and their outlets (also on a dry run, so its
 // findings show before any march).
-void assign_catchment_outlets(const io::Project& project, CheckRun& run);
+void assign_catchment_outlets(const config::Project& project, CheckRun& run);
 
 // Fills run.catchment_flows (after assign_catchment_outlets); returns the design flows for the march.
-flows::DesignFlows catchment_design_flows(const io::Project& project, flows::Split split,
+flows::DesignFlows catchment_design_flows(const config::Project& project, flows::Split split,
                                           const flows::FixedFlows& fixed, CheckRun& run, Findings& findings);
 
 }  // namespace rimline::run

@@ -16,12 +16,12 @@ namespace {
 
 constexpr double nan = std::numeric_limits<double>::quiet_NaN();
 
-solve::MarchOptions march_options_from(const io::Project& p) {
+solve::MarchOptions march_options_from(const config::Project& p) {
   solve::MarchOptions m;
   switch (p.tailwater_mode) {
-    case io::TailwaterMode::fixed: m.tailwater_mode = solve::TailwaterMode::fixed; break;
-    case io::TailwaterMode::free: m.tailwater_mode = solve::TailwaterMode::free; break;
-    case io::TailwaterMode::higher: m.tailwater_mode = solve::TailwaterMode::higher; break;
+    case config::TailwaterMode::fixed: m.tailwater_mode = solve::TailwaterMode::fixed; break;
+    case config::TailwaterMode::free: m.tailwater_mode = solve::TailwaterMode::free; break;
+    case config::TailwaterMode::higher: m.tailwater_mode = solve::TailwaterMode::higher; break;
   }
   m.loss_method = p.methods.structure_loss;
   m.benching = p.methods.benching;
@@ -31,7 +31,7 @@ solve::MarchOptions march_options_from(const io::Project& p) {
   return m;
 }
 
-checks::Criteria criteria_from(const io::Project& p) {
+checks::Criteria criteria_from(const config::Project& p) {
   checks::Criteria c;
   c.freeboard_m = p.criteria.freeboard_m;
   c.velocity_min_m_s = p.criteria.velocity_min_m_s;
@@ -41,9 +41,9 @@ checks::Criteria criteria_from(const io::Project& p) {
   return c;
 }
 
-checks::CriteriaOverrides overrides_from(const io::Project& p) {
+checks::CriteriaOverrides overrides_from(const config::Project& p) {
   checks::CriteriaOverrides out;
-  auto convert = [](const io::CriteriaOverride& o) {
+  auto convert = [](const config::CriteriaOverride& o) {
     return checks::Override{o.freeboard_m, o.velocity_min_m_s, o.velocity_max_m_s, o.capacity_ratio_max, o.cover_min_m};
   };
   for (const auto& [id, o] : p.structure_criteria) out.structures[id] = convert(o);
@@ -173,7 +173,7 @@ std::string case_label(double tw) {
 // TOPOLOGY_NO_OUTFALL: a tree that ends at a manhole, inlet or junction when the export types its
 // structures: it names no outfall there (a missing outfall, a pipe missing downstream, a cut loop).
 // Untyped layers (every structure a manhole by default) are left out: there the end is the only clue.
-void report_untyped_outfalls(const io::Project& project, const model::Network& net, const topology::Topology& topo,
+void report_untyped_outfalls(const config::Project& project, const model::Network& net, const topology::Topology& topo,
                              Findings& findings) {
   if (project.structures.source.empty() || project.structure_fields.type.empty()) return;
   using K = model::StructureKind;
@@ -198,7 +198,7 @@ double badness(const Finding& f) {
   return std::isfinite(f.value) ? f.value : 0.0;
 }
 
-CheckRun run_check(const io::Project& project, const RunOptions& options) {
+CheckRun run_check(const config::Project& project, const RunOptions& options) {
   CheckRun run;
   run.project = project;
   run.report_units = options.report_units.value_or(project.report_units);
@@ -206,7 +206,7 @@ CheckRun run_check(const io::Project& project, const RunOptions& options) {
     if (options.progress) options.progress(name);
   };
   stage("reading the layers");
-  run.read = io::read_network(project);
+  run.read = gis::read_network(project);
   auto files_read = [&run] {
     std::vector<std::string> files = run.read.input_files;
     files.insert(files.begin(), run.project.file);
@@ -223,7 +223,7 @@ CheckRun run_check(const io::Project& project, const RunOptions& options) {
   run.overrides = overrides_from(project);
   run.march_options = march_options_from(project);
   const bool from_catchments =
-      project.flow_mode == io::FlowMode::rational || project.flow_mode == io::FlowMode::sanitary;
+      project.flow_mode == config::FlowMode::rational || project.flow_mode == config::FlowMode::sanitary;
   if (from_catchments) assign_catchment_outlets(project, run);
   if (options.dry_run) {
     merge_findings(run, {});
@@ -235,8 +235,8 @@ CheckRun run_check(const io::Project& project, const RunOptions& options) {
     run.march_options.keep_step_points = options.detailed_conduits(run.read.network, run.topology);
 
   flows::FlowOptions flow_opt;
-  flow_opt.mode = project.flow_mode == io::FlowMode::pipe_field ? flows::Mode::pipe_field : flows::Mode::structure_inflows;
-  flow_opt.split = project.split_rule == io::SplitRule::field ? flows::Split::field : flows::Split::capacity;
+  flow_opt.mode = project.flow_mode == config::FlowMode::pipe_field ? flows::Mode::pipe_field : flows::Mode::structure_inflows;
+  flow_opt.split = project.split_rule == config::SplitRule::field ? flows::Split::field : flows::Split::capacity;
   flow_opt.friction = project.methods.friction;
   flow_opt.default_inflow_m3_s = project.default_inflow_m3_s.value_or(0.0);
 

@@ -3,8 +3,8 @@
 #include <cmath>
 #include <limits>
 
-#include "rimline/io/force_main_profile.hpp"
-#include "rimline/io/read_pump_stations.hpp"
+#include "rimline/gis/force_main_profile.hpp"
+#include "rimline/gis/read_pump_stations.hpp"
 
 namespace rimline::run {
 namespace {
@@ -13,15 +13,15 @@ constexpr double nan = std::numeric_limits<double>::quiet_NaN();
 
 }  // namespace
 
-std::vector<solve::StationLayout> lay_out_pump_stations(const io::Project& project, CheckRun& run) {
+std::vector<solve::StationLayout> lay_out_pump_stations(const config::Project& project, CheckRun& run) {
   // Stations of a point layer join the project file's; run.project holds them all from here on.
-  for (auto& st : io::read_pump_station_points(project, project.pump_stations, run.data_findings,
+  for (auto& st : gis::read_pump_station_points(project, project.pump_stations, run.data_findings,
                                                    run.read.input_files))
     run.project.pump_stations.push_back(std::move(st));
   const auto& net = run.read.network;
   std::vector<solve::StationLayout> layouts;
   if (!run.project.pump_stations.empty()) {
-    run.force_main_profiles = io::force_main_profiles(net, project.force_mains, run.data_findings);
+    run.force_main_profiles = gis::force_main_profiles(net, project.force_mains, run.data_findings);
     layouts = solve::lay_out_stations(net, run.topology, run.project.pump_stations, run.force_main_profiles,
                                       run.data_findings);
   }
@@ -40,7 +40,7 @@ std::vector<solve::StationLayout> lay_out_pump_stations(const io::Project& proje
   return layouts;
 }
 
-void solve_pump_stations(const io::Project& project, const std::vector<solve::StationLayout>& layouts,
+void solve_pump_stations(const config::Project& project, const std::vector<solve::StationLayout>& layouts,
                          const std::vector<double>& receiving_level_m, CheckRun& run) {
   run.pump_stations.clear();
   for (std::size_t i = 0; i < layouts.size(); ++i)

@@ -9,10 +9,10 @@ namespace rimline::run {
 
 // Adds the stations of a point layer to run.project, reads the force-main profiles and lays the
 // stations out on the network; FM_NOT_CHECKED for force mains no station reaches.
-std::vector<solve::StationLayout> lay_out_pump_stations(const io::Project& project, CheckRun& run);
+std::vector<solve::StationLayout> lay_out_pump_stations(const config::Project& project, CheckRun& run);
 
 // Fills run.pump_stations: each station solved against its receiving structure's level (NaN: none yet).
-void solve_pump_stations(const io::Project& project, const std::vector<solve::StationLayout>& layouts,
+void solve_pump_stations(const config::Project& project, const std::vector<solve::StationLayout>& layouts,
                          const std::vector<double>& receiving_level_m, CheckRun& run);
 
 // The receiving structures' levels after the march: the highest HGL over the tailwater cases.

@@ -8,7 +8,7 @@
 #include <sstream>
 
 #include "rimline/hydraulics/section.hpp"
-#include "rimline/io/project.hpp"
+#include "rimline/config/project.hpp"
 #include "rimline/report/outputs.hpp"
 #include "rimline/run/check_run.hpp"
 #include "rimline/sha256.hpp"
@@ -54,7 +54,7 @@ int check_outputs(const fs::path& dir, bool us) {
 }  // namespace
 
 TEST_CASE("demo (metric): outputs contract and energy invariants hold") {
-  const auto project = io::load_project(demo("metric"));
+  const auto project = config::load_project(demo("metric"));
   const auto r = run::run_check(project, {});
   const fs::path out = fs::path(test::binary_dir) / "e2e-demo-metric";
   fs::remove_all(out);
@@ -81,7 +81,7 @@ TEST_CASE("demo (metric): outputs contract and energy invariants hold") {
 }
 
 TEST_CASE("demo (US customary): outputs contract and energy invariants hold in feet") {
-  const auto project = io::load_project(demo("us"));
+  const auto project = config::load_project(demo("us"));
   const auto r = run::run_check(project, {});
   const fs::path out = fs::path(test::binary_dir) / "e2e-demo-us";
   fs::remove_all(out);
@@ -95,7 +95,7 @@ TEST_CASE("demo (US customary): outputs contract and energy invariants hold in f
 }
 
 TEST_CASE("demo (metric): seeded defects are found and the rest is still checked") {
-  const auto r = run::run_check(io::load_project(demo("metric")), {});
+  const auto r = run::run_check(config::load_project(demo("metric")), {});
   // C-02 was digitised against the flow: it is turned, reported, and solved.
   const auto c02 = conduit_index(r, "C-02");
   CHECK(r.read.network.conduits[c02].reversed);
@@ -108,7 +108,7 @@ TEST_CASE("demo (metric): seeded defects are found and the rest is still checked
 }
 
 TEST_CASE("demo (metric): pinned figures confirmed by hand from the formulas") {
-  const auto r = run::run_check(io::load_project(demo("metric")), {});
+  const auto r = run::run_check(config::load_project(demo("metric")), {});
   REQUIRE(r.cases.size() == 2);
   const auto& high = r.cases[1];  // tailwater 3.90 m
   REQUIRE(high.tailwater_m == Approx(3.9));
@@ -145,7 +145,7 @@ TEST_CASE("demo (metric): pinned figures confirmed by hand from the formulas") {
 }
 
 TEST_CASE("demo (metric): the FREEBOARD finding at T-04 confirmed by hand along the drowned trunk") {
-  const auto r = run::run_check(io::load_project(demo("metric")), {});
+  const auto r = run::run_check(config::load_project(demo("metric")), {});
   const auto& high = r.cases[1];  // tailwater 3.90 m
   const auto& net = r.read.network;
   // P-T01..P-T04 run full end to end under this tailwater, so each structure's level follows from the
@@ -170,7 +170,7 @@ TEST_CASE("demo (metric): the FREEBOARD finding at T-04 confirmed by hand along 
 }
 
 TEST_CASE("demo (metric): the VELOCITY_HIGH finding at C-05 is the steep pipe's supercritical velocity") {
-  const auto r = run::run_check(io::load_project(demo("metric")), {});
+  const auto r = run::run_check(config::load_project(demo("metric")), {});
   const Finding* f = find(r, "VELOCITY_HIGH", "C-05");
   REQUIRE(f != nullptr);
   const auto ci = conduit_index(r, "C-05");
@@ -202,7 +202,7 @@ TEST_CASE("demo (metric): the VELOCITY_HIGH finding at C-05 is the steep pipe's 
 TEST_CASE("demo (metric): the cases keep only the drawn pipes' criteria findings, the run's list is unchanged") {
   // Plumbing, no outside source: the criteria findings are held once (the run's list), the cases
   // keep those the drawings can show; what is reported must not depend on what is drawn.
-  const auto project = io::load_project(demo("metric"));
+  const auto project = config::load_project(demo("metric"));
   const auto all = run::run_check(project, {});
   REQUIRE(!all.cases.empty());
   REQUIRE(all.cases.front().findings.size() == all.cases.front().criteria_count);

@@ -11,7 +11,7 @@
 #include <fstream>
 #include <sstream>
 
-#include "rimline/io/project.hpp"
+#include "rimline/config/project.hpp"
 #include "rimline/report/outputs.hpp"
 #include "rimline/run/check_run.hpp"
 #include "test_paths.hpp"
@@ -41,7 +41,7 @@ const Finding* find(const run::CheckRun& r, const std::string& code, const std::
 }  // namespace
 
 TEST_CASE("demo pump station WW-1: operating points and the sub-atmospheric ridge by hand", "[force_main][e2e]") {
-  const auto r = run::run_check(io::load_project(demo("metric")), {});
+  const auto r = run::run_check(config::load_project(demo("metric")), {});
   REQUIRE(r.pump_stations.size() == 1);
   const auto& st = r.pump_stations[0];
   REQUIRE(st.layout.ok);
@@ -91,7 +91,7 @@ TEST_CASE("demo pump station WW-1: operating points and the sub-atmospheric ridg
 }
 
 TEST_CASE("demo pump station: results.gpkg layers, and the US variant shows the same ridge", "[force_main][e2e]") {
-  const auto r = run::run_check(io::load_project(demo("metric")), {});
+  const auto r = run::run_check(config::load_project(demo("metric")), {});
   const fs::path out = fs::path(test::binary_dir) / "e2e-force-main";
   fs::remove_all(out);
   report::write_outputs(r, out.string());
@@ -124,7 +124,7 @@ TEST_CASE("demo pump station: results.gpkg layers, and the US variant shows the 
   CHECK(count("nan") == 0);
   CHECK(text.find("Results are for review by a licensed professional engineer") != std::string::npos);
 
-  const auto us = run::run_check(io::load_project(demo("us")), {});
+  const auto us = run::run_check(config::load_project(demo("us")), {});
   REQUIRE(us.pump_stations.size() == 1);
   CHECK(find(us, "FM_SUBATMOSPHERIC", "FM-1") != nullptr);
   // 6 in (152.4 mm) instead of 150 mm: the design flow is within a few percent of the metric one.
@@ -135,7 +135,7 @@ TEST_CASE("demo pump station under a high tailwater: the pumped flow and T-12's 
           "[force_main][e2e]") {
   run::RunOptions opt;
   opt.tailwater_levels_m = {7.5};  // drowns T-12 above the force main's outlet (6.675 m)
-  const auto r = run::run_check(io::load_project(demo("metric")), opt);
+  const auto r = run::run_check(config::load_project(demo("metric")), opt);
   const auto& st = r.pump_stations[0];
   const auto& t12 = r.cases[0].march.structures[st.layout.discharge];
   REQUIRE(t12.solved);
@@ -153,7 +153,7 @@ TEST_CASE("demo pump station under a high tailwater: the pumped flow and T-12's 
   for (const auto& f : r.findings) not_converged |= f.code == "FM_NOT_CONVERGED";
   CHECK_FALSE(not_converged);
   // A higher discharge level than the free outlet's lowers the flow.
-  const auto free = run::run_check(io::load_project(demo("metric")), {});
+  const auto free = run::run_check(config::load_project(demo("metric")), {});
   CHECK(st.design_flow_m3_s < free.pump_stations[0].design_flow_m3_s);
 }
 
@@ -197,8 +197,8 @@ TEST_CASE("force mains from their own line layer give the same station as when f
     std::ofstream out(dir / "project.toml");
     out << project;
   }
-  const auto split = run::run_check(io::load_project((dir / "project.toml").string()), {});
-  const auto one = run::run_check(io::load_project(demo("metric")), {});
+  const auto split = run::run_check(config::load_project((dir / "project.toml").string()), {});
+  const auto one = run::run_check(config::load_project(demo("metric")), {});
   REQUIRE(split.pump_stations.size() == 1);
   REQUIRE(split.pump_stations[0].layout.ok);
   CHECK(split.read.network.conduits.back().id == "FM-1");
@@ -243,8 +243,8 @@ TEST_CASE("pump stations from a point layer: the demo's station read from points
 {"type":"Feature","properties":{"WW":"WW-3","CURVE":"DEM0","DUTY":1,"K":1.0,"ON":3.0,"OFF":1.8},"geometry":{"type":"Point","coordinates":[451300,5384600]}}
 ]})";
   }
-  const auto points = run::run_check(io::load_project((dir / "project.toml").string()), {});
-  const auto table = run::run_check(io::load_project(demo("metric")), {});
+  const auto points = run::run_check(config::load_project((dir / "project.toml").string()), {});
+  const auto table = run::run_check(config::load_project(demo("metric")), {});
   REQUIRE(points.pump_stations.size() == 1);
   CHECK(points.project.pump_stations[0].id == "WW-1");
   CHECK(points.pump_stations[0].design_flow_m3_s == Approx(table.pump_stations[0].design_flow_m3_s).epsilon(1e-12));

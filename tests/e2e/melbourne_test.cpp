@@ -5,7 +5,7 @@
 #include <filesystem>
 #include <map>
 
-#include "rimline/io/project.hpp"
+#include "rimline/config/project.hpp"
 #include "rimline/report/outputs.hpp"
 #include "rimline/run/check_run.hpp"
 #include "test_paths.hpp"
@@ -18,7 +18,7 @@ TEST_CASE("Melbourne export: the whole network marches, findings are counted, no
     WARN("../shared/data is not beside the project; skipped");
     return;
   }
-  const auto r = run::run_check(io::load_project(file), {});
+  const auto r = run::run_check(config::load_project(file), {});
   const auto& net = r.read.network;
   CHECK(net.conduits.size() == 2252);  // features in the export (its README.txt)
   std::map<std::string, int> codes;

@@ -11,7 +11,7 @@
 #include <fstream>
 #include <sstream>
 
-#include "rimline/io/project.hpp"
+#include "rimline/config/project.hpp"
 #include "rimline/report/outputs.hpp"
 #include "rimline/run/check_run.hpp"
 #include "test_paths.hpp"
@@ -76,7 +76,7 @@ void contract_holds(const run::CheckRun& r, const char* name, bool us) {
 // Tolerance 1e-4 relative on area and Q: the demo's coordinates are rounded to 1 mm (240 m of
 // perimeter x 0.5 mm ~ 0.12 m^2, 3e-5 of the area).
 TEST_CASE("Rational demo (metric): contract holds and a head pipe checks by hand", "[e2e][rational]") {
-  const auto r = run::run_check(io::load_project(project_file("metric")), {});
+  const auto r = run::run_check(config::load_project(project_file("metric")), {});
   REQUIRE(r.catchment_flows);
   const auto& p = r.catchment_flows->pipes[conduit(r, "B-08")];
   CHECK(p.area_m2 == Approx(3584.0).epsilon(1e-4));
@@ -108,7 +108,7 @@ TEST_CASE("Rational demo (metric): contract holds and a head pipe checks by hand
 // 15 min rows (4.69 and 3.94 in/h): slope ln(3.94/4.69)/ln(1.5) = -0.429758,
 // i = 4.69 x 1.2^-0.429758 = 4.33655 in/h; A = 0.88563 acre; Q = 0.65 x 4.33655 in/h x 3584 m^2 = 2.51717 cfs.
 TEST_CASE("Rational demo (US customary): table IDF, contract holds in feet", "[e2e][rational]") {
-  const auto r = run::run_check(io::load_project(project_file("us")), {});
+  const auto r = run::run_check(config::load_project(project_file("us")), {});
   REQUIRE(r.catchment_flows);
   const auto& p = r.catchment_flows->pipes[conduit(r, "B-08")];
   CHECK(units::from_si(p.area_m2, units::Unit::acre) == Approx(0.88563).epsilon(1e-4));

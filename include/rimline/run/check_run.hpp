@@ -12,8 +12,8 @@
 #include "rimline/checks/checks.hpp"
 #include "rimline/flows/catchment_flows.hpp"
 #include "rimline/flows/design_flows.hpp"
-#include "rimline/io/project.hpp"
-#include "rimline/io/read_network.hpp"
+#include "rimline/config/project.hpp"
+#include "rimline/gis/read_network.hpp"
 #include "rimline/solve/force_main.hpp"
 #include "rimline/solve/march.hpp"
 #include "rimline/topology/build.hpp"
@@ -51,8 +51,8 @@ struct InputFile {
 };
 
 struct CheckRun {
-  io::Project project;
-  io::ReadResult read;
+  config::Project project;
+  gis::ReadResult read;
   std::vector<InputFile> inputs;  // the project file, then every file read (hashed once, beside the march)
   topology::Topology topology;
   flows::DesignFlows flows;
@@ -80,7 +80,7 @@ struct CheckRun {
   std::vector<bool> data_finding;  // aligned with findings: true for those of data_findings
 };
 
-CheckRun run_check(const io::Project& project, const RunOptions& options);
+CheckRun run_check(const config::Project& project, const RunOptions& options);
 
 // How bad a criteria finding is, to keep the worst over the cases and list the worst first:
 // lower freeboard, velocity (minimum) or cover is worse, higher surcharge, velocity or ratio is worse.

@@ -1,6 +1,6 @@
 // Bad-input catalogue, attribute values: missing mapped fields, wrong field types, duplicate ids,
 // sizes in the wrong unit, negative or absurd roughness, NaN / infinity, non-UTF-8 text, inverts
-// above rims. Expected codes from include/rimline/io/read_network.hpp; inputs invented for the test.
+// above rims. Expected codes from include/rimline/gis/read_network.hpp; inputs invented for the test.
 #include "e2e/badinput/fixture.hpp"
 #include "e2e/reliability/output_files.hpp"
 #include "rimline/report/outputs.hpp"

@@ -1,6 +1,6 @@
 // Bad-input catalogue, catchments (flows mode "rational"): broken polygons, values out of range,
 // outlets that cannot be found, land-use composite C, and project-file errors in the catchment
-// sections. Expected codes from include/rimline/flows/catchment_outlets.hpp and src/io/read_catchments.hpp;
+// sections. Expected codes from include/rimline/flows/catchment_outlets.hpp and src/gis/read_catchments.hpp;
 // every input is invented for the test.
 #include "e2e/badinput/fixture.hpp"
 
@@ -67,7 +67,7 @@ std::size_t catchment(const run::CheckRun& r, const std::string& id) {
 }
 
 std::string parse_error(const std::string& toml) {
-  return error_of([&] { io::parse_project(toml, "project.toml"); });
+  return error_of([&] { config::parse_project(toml, "project.toml"); });
 }
 
 }  // namespace

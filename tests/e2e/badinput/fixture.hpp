@@ -14,7 +14,7 @@
 #include <vector>
 
 #include "rimline/error.hpp"
-#include "rimline/io/project.hpp"
+#include "rimline/config/project.hpp"
 #include "rimline/run/check_run.hpp"
 #include "test_paths.hpp"
 
@@ -139,7 +139,7 @@ struct Case {
     write("structures.geojson", collection(structures));
     write("project.toml", project);
   }
-  io::Project project() const { return io::load_project(path("project.toml")); }
+  config::Project project() const { return config::load_project(path("project.toml")); }
   run::CheckRun run() const { return run::run_check(project(), {}); }
 };
 

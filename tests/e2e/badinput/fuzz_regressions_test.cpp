@@ -38,7 +38,7 @@ TEST_CASE("badinput fuzz regressions: project files that broke the TOML parser a
   REQUIRE(files.size() == 4);
   for (const auto& f : files) {
     INFO(f.filename().string());
-    const std::string e = badinput::error_of([&] { io::parse_project(read_bytes(f), "fuzz.toml"); });
+    const std::string e = badinput::error_of([&] { config::parse_project(read_bytes(f), "fuzz.toml"); });
     CHECK_THAT(e, Catch::StartsWith("fuzz.toml: line "));
     CHECK_THAT(e, Catch::Contains("non-ASCII character"));
   }
@@ -51,6 +51,6 @@ TEST_CASE("badinput fuzz regressions: quantities beyond a double in SI are bad_c
   REQUIRE(bytes.size() > 1);
   CHECK(static_cast<units::Dimension>(bytes[0]) == units::Dimension::area);  // harness: first byte picks
   const std::string e = badinput::error_of(
-      [&] { io::parse_quantity(bytes.substr(1), units::Dimension::area, "plausibility.catchment_max"); });
+      [&] { config::parse_quantity(bytes.substr(1), units::Dimension::area, "plausibility.catchment_max"); });
   CHECK(e == R"(plausibility.catchment_max: "1e308 ha" is out of range)");
 }

@@ -1,5 +1,5 @@
 // Bad-input catalogue, geometry: null, empty, multi-part with a gap, points given as pipes,
-// zero-length and self-overlapping lines. Expected codes from include/rimline/io/read_network.hpp
+// zero-length and self-overlapping lines. Expected codes from include/rimline/gis/read_network.hpp
 // and include/rimline/topology/build.hpp; every input is invented for the test.
 #include "e2e/badinput/fixture.hpp"
 

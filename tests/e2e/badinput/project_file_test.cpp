@@ -1,5 +1,5 @@
 // Bad-input catalogue, the project file: unknown keys, wrong types, bad quantities. Expected
-// messages follow include/rimline/io/project.hpp (file, key, "did you mean ...?").
+// messages follow include/rimline/config/project.hpp (file, key, "did you mean ...?").
 #include "e2e/badinput/fixture.hpp"
 
 using namespace rimline;
@@ -8,7 +8,7 @@ using namespace rimline::badinput;
 namespace {
 
 std::string parse_error(const std::string& toml) {
-  return error_of([&] { io::parse_project(toml, "project.toml"); });
+  return error_of([&] { config::parse_project(toml, "project.toml"); });
 }
 
 }  // namespace
@@ -63,7 +63,7 @@ TEST_CASE("badinput project: non-ASCII text in quotes and comments is accepted, 
   // "Schöneck" and "Ø" in UTF-8: fine in a string and in a comment (TOML 1.0 allows any Unicode there).
   const auto ok =
       replace(base_project(), R"(name = "bad-input fixture")", "name = \"Sch\xC3\xB6neck \xC3\x98st\" # \xC3\xB8st");
-  CHECK(io::parse_project(ok, "project.toml").name == "Sch\xC3\xB6neck \xC3\x98st");
+  CHECK(config::parse_project(ok, "project.toml").name == "Sch\xC3\xB6neck \xC3\x98st");
   CHECK(parse_error(replace(base_project(), "[flows]", "[flows]\n\xC3\xB8 = 1")) ==
         R"(project.toml: line 33: a non-ASCII character outside a string or comment; TOML allows it only in quotes)");
 }

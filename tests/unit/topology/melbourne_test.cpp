@@ -10,7 +10,7 @@
 #include <map>
 #include <vector>
 
-#include "rimline/io/read_network.hpp"
+#include "rimline/gis/read_network.hpp"
 #include "rimline/topology/build.hpp"
 #include "rimline/topology/summary.hpp"
 #include "test_paths.hpp"
@@ -22,7 +22,7 @@ namespace {
 const std::filesystem::path data_dir =
     std::filesystem::path(test::shared_data_dir) / "real" / "melbourne-water-sewer-mains";
 
-io::Project melbourne_project() {
+config::Project melbourne_project() {
   const std::string toml = R"(
 [pipes]
 source = "Sewerage_Network_Main_Pipelines.geojson"
@@ -42,7 +42,7 @@ height = { field = "PIPE_HEIGHT", unit = "mm" }
 [pipes.defaults]
 manning_n = 0.013
 )";
-  return io::parse_project(toml, (data_dir / "melbourne.toml").string());
+  return config::parse_project(toml, (data_dir / "melbourne.toml").string());
 }
 
 std::map<std::string, std::size_t> count_codes(const Findings& fs) {
@@ -82,7 +82,7 @@ TEST_CASE("Melbourne trunk sewers: derived nodes, outlets and diversions match t
     WARN("Melbourne data not found under " << data_dir.string() << "; skipped");
     return;
   }
-  io::ReadResult read = io::read_network(melbourne_project());
+  gis::ReadResult read = gis::read_network(melbourne_project());
   model::Network& n = read.network;
   Findings fs;
   const topology::Topology t = topology::build_topology(n, {}, fs);
@@ -114,7 +114,7 @@ TEST_CASE("Melbourne trunk sewers: derived nodes, outlets and diversions match t
   // the last vertex is the first vertex of the next pipe. After turning, more of them meet.
   const auto joins = count_joins(n);
   CHECK(joins.joins == 2184);
-  const auto as_read = count_joins(io::read_network(melbourne_project()).network);
+  const auto as_read = count_joins(gis::read_network(melbourne_project()).network);
   CHECK(as_read.joins == 2184);
   CHECK(as_read.meeting >= 2102);  // the README's exact coincidences; 0.5 m can only add to them
   CHECK(as_read.meeting == 2134);  // measured with this build

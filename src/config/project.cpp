@@ -1,0 +1,375 @@
+// The project file: TOML -> Project (SI). Schema in include/rimline/config/project.hpp.
+#include "rimline/config/project.hpp"
+
+#include <algorithm>
+#include <cctype>
+#include <filesystem>
+#include <fstream>
+#include <functional>
+#include <sstream>
+
+#include "config/project_catchments.hpp"
+#include "config/project_force_mains.hpp"
+#include "config/toml_guard.hpp"
+#include "config/toml_section.hpp"
+#include "rimline/error.hpp"
+
+namespace rimline::config {
+namespace {
+
+using detail::TomlSection;
+using units::Dimension;
+
+// "PG:dbname=x", "ODBC:...", "/vsizip/...", "https://..." are GDAL connection strings, not paths.
+// A single letter before ':' is a Windows drive, so it stays a path.
+bool is_connection_string(const std::string& s) {
+  if (s.rfind("/vsi", 0) == 0) return true;
+  const auto colon = s.find(':');
+  if (colon == std::string::npos || colon < 2) return false;
+  for (std::size_t i = 0; i < colon; ++i) {
+    const char c = s[i];
+    if (!(std::isalnum(static_cast<unsigned char>(c)) || c == '_' || c == '-')) return false;
+  }
+  return true;
+}
+
+std::string resolve_source(const std::string& source, const std::string& directory) {
+  if (source.empty() || is_connection_string(source)) return source;
+  const std::filesystem::path p(source);
+  if (p.is_absolute()) return p.lexically_normal().string();
+  return (std::filesystem::path(directory) / p).lexically_normal().string();
+}
+
+double positive_number(TomlSection& s, std::string_view key, double fallback) {
+  const auto v = s.number(key);
+  if (!v) return fallback;
+  if (!(*v > 0.0)) s.fail(key, "must be greater than 0");
+  return *v;
+}
+
+LayerSource read_layer_source(TomlSection& s, const std::string& directory) {
+  LayerSource src;
+  const auto source = s.string("source");
+  if (!source || source->empty()) s.fail("source", "the layer source (a file or a GDAL connection string) is missing");
+  src.source = resolve_source(*source, directory);
+  src.layer = s.string("layer").value_or("");
+  src.open_options = s.strings("open_options");
+  return src;
+}
+
+hydraulics::Shape shape_choice(TomlSection& s, std::string_view key, hydraulics::Shape fallback) {
+  return s.choice<hydraulics::Shape>(key, {{"circular", hydraulics::Shape::circular}, {"box", hydraulics::Shape::box}})
+      .value_or(fallback);
+}
+
+// A plausible range for a project value, named by the [plausibility] keys that set it.
+struct Range {
+  double lo, hi;
+  const char* keys;
+  bool holds(double v) const { return v >= lo && v <= hi; }
+  std::string text(const std::function<std::string(double)>& show) const {
+    return "outside the plausible " + show(lo) + " to " + show(hi) + " (" + keys + ")";
+  }
+};
+
+std::string plain(double v) {
+  std::ostringstream o;
+  o << v;
+  return o.str();
+}
+std::string metres(double v) { return plain(v) + " m"; }
+
+std::map<std::string, double> number_table(TomlSection s, const Range* range = nullptr) {
+  std::map<std::string, double> out;
+  for (const auto& [key, node] : s.entries()) {
+    double v = 0.0;
+    if (node->is_floating_point())
+      v = node->as_floating_point()->get();
+    else if (node->is_integer())
+      v = static_cast<double>(node->as_integer()->get());
+    else
+      s.fail_at(node, key, "expected a number");
+    if (range && !range->holds(v)) s.fail_at(node, key, plain(v) + " is " + range->text(plain));
+    out[key] = v;
+  }
+  return out;
+}
+
+std::map<std::string, double> quantity_table(TomlSection s, Dimension d, const std::string& file,
+                                             const Range* range = nullptr) {
+  std::map<std::string, double> out;
+  for (const auto& [key, node] : s.entries()) {
+    if (!node->is_string()) s.fail_at(node, key, "expected a quantity string \"<number> <unit>\"");
+    const double v = parse_quantity(std::string(node->as_string()->get()), d, file + ": " + s.where(node, key));
+    if (range && !range->holds(v)) s.fail_at(node, key, metres(v) + " is " + range->text(metres));
+    out[key] = v;
+  }
+  return out;
+}
+
+void read_pipes(TomlSection s, Project& p) {
+  if (!s.present()) s.fail("source", "missing; the project needs a [pipes] table with the pipe layer's source");
+  p.pipes = read_layer_source(s, p.directory);
+  if (const auto tol = s.quantity("snap_tolerance", Dimension::length)) {
+    if (!(*tol >= 0.0)) s.fail("snap_tolerance", "must not be negative");
+    p.snap_tolerance_m = *tol;
+  }
+  p.shape_from_height = s.boolean("shape_from_height").value_or(false);
+  p.force_main_values = s.strings("force_main_values");
+
+  TomlSection f = s.table("fields");
+  PipeFields& pf = p.pipe_fields;
+  for (auto [key, dst] : {std::pair<std::string_view, std::string*>{"id", &pf.id},
+                          {"from", &pf.from},
+                          {"to", &pf.to},
+                          {"shape", &pf.shape},
+                          {"material", &pf.material},
+                          {"manning_n", &pf.manning_n},
+                          {"split", &pf.split},
+                          {"force_main", &pf.force_main}})
+    *dst = f.string(key).value_or("");
+  for (auto [key, dst] : {std::pair<std::string_view, FieldRef*>{"diameter", &pf.diameter},
+                          {"width", &pf.width},
+                          {"height", &pf.height},
+                          {"ks", &pf.ks},
+                          {"invert_up", &pf.invert_up},
+                          {"invert_down", &pf.invert_down},
+                          {"length", &pf.length}})
+    *dst = f.field_ref(key, Dimension::length);
+  pf.flow = f.field_ref("flow", Dimension::flow);
+  pf.rated_pressure = f.field_ref("rated_pressure", Dimension::pressure_head);
+  f.finish();
+  if (p.shape_from_height && !pf.shape.empty())
+    s.fail("shape_from_height", "cannot be used together with pipes.fields.shape; choose one way to give the shape");
+  if (p.shape_from_height && !pf.height.mapped()) s.fail("shape_from_height", "needs pipes.fields.height to be mapped");
+  if (!p.force_main_values.empty() && pf.force_main.empty())
+    s.fail("force_main_values", "needs pipes.fields.force_main to be mapped");
+
+  TomlSection d = s.table("defaults");
+  PipeDefaults& pd = p.pipe_defaults;
+  pd.shape = shape_choice(d, "shape", pd.shape);
+  const Plausibility& q = p.plausibility;
+  const Range n_range{q.manning_n_min, q.manning_n_max, "[plausibility] manning_n_min, manning_n_max"};
+  const Range ks_range{0.0, q.ks_max_m, "[plausibility] ks_max"};
+  pd.manning_n = d.number("manning_n");
+  if (pd.manning_n && !n_range.holds(*pd.manning_n))
+    d.fail("manning_n", plain(*pd.manning_n) + " is " + n_range.text(plain));
+  pd.ks_m = d.quantity("ks", Dimension::length);
+  if (pd.ks_m && !ks_range.holds(*pd.ks_m)) d.fail("ks", metres(*pd.ks_m) + " is " + ks_range.text(metres));
+  pd.diameter_m = d.quantity("diameter", Dimension::length);
+  pd.manning_n_by_material = number_table(d.table("manning_n_by_material"), &n_range);
+  pd.ks_m_by_material = quantity_table(d.table("ks_by_material"), Dimension::length, p.file, &ks_range);
+  d.finish();
+
+  TomlSection shapes = s.table("shapes");
+  for (auto [name, shape] : {std::pair<std::string_view, hydraulics::Shape>{"circular", hydraulics::Shape::circular},
+                             {"box", hydraulics::Shape::box}})
+    for (const auto& value : shapes.strings(name)) p.shape_values[value] = shape;
+  shapes.finish();
+  s.finish();
+}
+
+void read_structures(TomlSection s, Project& p) {
+  if (!s.present()) return;
+  p.structures = read_layer_source(s, p.directory);
+  TomlSection f = s.table("fields");
+  StructureFields& sf = p.structure_fields;
+  sf.id = f.string("id").value_or("");
+  sf.type = f.string("type").value_or("");
+  sf.loss_k = f.string("loss_k").value_or("");
+  sf.population = f.string("population").value_or("");
+  for (auto [key, dst] : {std::pair<std::string_view, FieldRef*>{"rim", &sf.rim},
+                          {"invert", &sf.invert},
+                          {"diameter", &sf.diameter},
+                          {"tailwater", &sf.tailwater}})
+    *dst = f.field_ref(key, Dimension::length);
+  sf.inflow = f.field_ref("inflow", Dimension::flow);
+  f.finish();
+
+  TomlSection types = s.table("types");
+  for (std::string_view kind : {"manhole", "inlet", "junction", "outfall", "pump_station"})
+    for (const auto& value : types.strings(kind)) p.structure_type_values[value] = std::string(kind);
+  types.finish();
+
+  TomlSection d = s.table("defaults");
+  if (const auto dia = d.quantity("diameter", Dimension::length)) {
+    if (!(*dia > 0.0)) d.fail("diameter", "must be greater than 0");
+    p.structure_defaults.diameter_m = *dia;
+  }
+  p.structure_defaults.loss_k = d.number("loss_k");
+  d.finish();
+  s.finish();
+}
+
+void read_methods(TomlSection s, Project& p) {
+  Methods& m = p.methods;
+  using hydraulics::FrictionLaw;
+  using hydraulics::StructureLossMethod;
+  m.friction = s.choice<FrictionLaw>(
+                    "friction", {{"manning", FrictionLaw::manning}, {"darcy_weisbach", FrictionLaw::darcy_weisbach}})
+                   .value_or(m.friction);
+  m.structure_loss = s.choice<StructureLossMethod>("structure_loss", {{"constant_k", StructureLossMethod::constant_k},
+                                                                      {"bend", StructureLossMethod::bend},
+                                                                      {"hec22", StructureLossMethod::hec22}})
+                         .value_or(m.structure_loss);
+  m.benching = s.choice<hydraulics::Benching>("benching", {{"flat", hydraulics::Benching::flat},
+                                                           {"half", hydraulics::Benching::half},
+                                                           {"full", hydraulics::Benching::full}})
+                   .value_or(m.benching);
+  if (const auto t = s.quantity("water_temperature", Dimension::temperature)) {
+    if (*t < 0.0 || *t > 100.0) s.fail("water_temperature", "must be between 0 and 100 C (liquid water)");
+    m.water_temperature_c = *t;
+  }
+  TomlSection k = s.table("k_by_type");
+  const std::vector<std::string> kinds{"manhole", "inlet", "junction", "outfall", "pump_station"};
+  for (const auto& [kind, value] : number_table(k)) {
+    if (std::find(kinds.begin(), kinds.end(), kind) == kinds.end()) {
+      std::string msg = "unknown structure kind";
+      const std::string near = closest_name(kind, kinds);
+      if (!near.empty()) msg += "; did you mean \"" + near + "\"?";
+      k.fail(kind, msg);
+    }
+    if (value < 0.0) k.fail(kind, "a loss coefficient must not be negative");
+    m.k_by_type[kind] = value;
+  }
+  s.finish();
+}
+
+// A quantity that may be switched off with "off".
+std::optional<double> optional_quantity(TomlSection& s, std::string_view key, Dimension d,
+                                        std::optional<double> fallback, const std::string& file) {
+  const auto text = s.string(key);
+  if (!text) return fallback;
+  if (*text == "off") return std::nullopt;
+  return parse_quantity(*text, d, file + ": " + s.where(key));
+}
+
+void read_criteria(TomlSection s, Project& p) {
+  Criteria& c = p.criteria;
+  c.freeboard_m = s.quantity("freeboard", Dimension::length).value_or(c.freeboard_m);
+  c.velocity_min_m_s = s.quantity("velocity_min", Dimension::velocity).value_or(c.velocity_min_m_s);
+  c.velocity_max_m_s = optional_quantity(s, "velocity_max", Dimension::velocity, c.velocity_max_m_s, p.file);
+  c.capacity_ratio_max = positive_number(s, "capacity_ratio_max", c.capacity_ratio_max);
+  c.cover_min_m = optional_quantity(s, "cover_min", Dimension::length, c.cover_min_m, p.file);
+  auto per_feature = [&](std::string_view key, bool structures) {
+    TomlSection group = s.table(key);
+    for (const auto& [id, node] : group.entries()) {
+      if (!node->is_table()) group.fail_at(node, id, "must be a table of limits for feature \"" + id + "\"");
+      TomlSection f(node->as_table(), group.name() + "." + id, p.file);
+      CriteriaOverride o;
+      if (structures) {
+        o.freeboard_m = f.quantity("freeboard", Dimension::length);
+      } else {
+        o.velocity_min_m_s = f.quantity("velocity_min", Dimension::velocity);
+        o.velocity_max_m_s = f.quantity("velocity_max", Dimension::velocity);
+        o.capacity_ratio_max = f.number("capacity_ratio_max");
+        o.cover_min_m = f.quantity("cover_min", Dimension::length);
+      }
+      f.finish();
+      (structures ? p.structure_criteria : p.conduit_criteria)[id] = o;
+    }
+  };
+  per_feature("structures", true);
+  per_feature("conduits", false);
+  s.finish();
+}
+
+void read_plausibility(TomlSection s, Project& p) {
+  Plausibility& q = p.plausibility;
+  q.invert_min_m = s.quantity("invert_min", Dimension::length).value_or(q.invert_min_m);
+  q.invert_max_m = s.quantity("invert_max", Dimension::length).value_or(q.invert_max_m);
+  if (!(q.invert_min_m < q.invert_max_m)) s.fail("invert_max", "must be greater than invert_min");
+  q.diameter_min_m = s.quantity("diameter_min", Dimension::length).value_or(q.diameter_min_m);
+  q.diameter_max_m = s.quantity("diameter_max", Dimension::length).value_or(q.diameter_max_m);
+  if (!(q.diameter_min_m > 0.0 && q.diameter_min_m < q.diameter_max_m))
+    s.fail("diameter_max", "needs 0 < diameter_min < diameter_max");
+  q.length_tolerance = positive_number(s, "length_tolerance", q.length_tolerance);
+  q.manning_n_min = positive_number(s, "manning_n_min", q.manning_n_min);
+  q.manning_n_max = positive_number(s, "manning_n_max", q.manning_n_max);
+  if (!(q.manning_n_min < q.manning_n_max)) s.fail("manning_n_max", "must be greater than manning_n_min");
+  q.ks_max_m = s.quantity("ks_max", Dimension::length).value_or(q.ks_max_m);
+  if (!(q.ks_max_m > 0.0)) s.fail("ks_max", "must be greater than 0");
+  s.finish();
+}
+
+void read_flows_and_tailwater(TomlSection flows, TomlSection tw, Project& p) {
+  p.flow_mode = flows
+                    .choice<FlowMode>("mode", {{"pipe_field", FlowMode::pipe_field},
+                                               {"structure_inflows", FlowMode::structure_inflows},
+                                               {"rational", FlowMode::rational},
+                                               {"sanitary", FlowMode::sanitary}})
+                    .value_or(p.flow_mode);
+  p.split_rule = flows.choice<SplitRule>("split", {{"capacity", SplitRule::capacity}, {"field", SplitRule::field}})
+                     .value_or(p.split_rule);
+  p.default_inflow_m3_s = flows.quantity("default_inflow", Dimension::flow);
+  flows.finish();
+  if (p.split_rule == SplitRule::field && p.pipe_fields.split.empty())
+    flows.fail("split", "\"field\" needs pipes.fields.split to be mapped");
+  p.tailwater_mode =
+      tw.choice<TailwaterMode>(
+            "mode", {{"fixed", TailwaterMode::fixed}, {"free", TailwaterMode::free}, {"higher", TailwaterMode::higher}})
+          .value_or(p.tailwater_mode);
+  for (const auto& level : tw.strings("levels"))
+    p.tailwater_levels_m.push_back(parse_quantity(level, Dimension::length, p.file + ": " + tw.where("levels")));
+  tw.finish();
+  if (p.tailwater_mode == TailwaterMode::fixed && p.tailwater_levels_m.empty())
+    tw.fail("levels", "mode \"fixed\" needs at least one level");
+}
+
+}  // namespace
+
+Project parse_project(const std::string& toml_text, const std::string& path_for_messages) {
+  Project p;
+  p.file = path_for_messages;
+  const std::filesystem::path dir = std::filesystem::path(path_for_messages).parent_path();
+  p.directory = dir.empty() ? std::string(".") : dir.string();
+
+  toml::table root;
+  detail::reject_unsafe_toml(toml_text, p.file);
+  try {
+    root = toml::parse(toml_text, path_for_messages);
+  } catch (const toml::parse_error& e) {
+    throw Error(ErrorKind::bad_config, ErrorContext{p.file, "", "", ""},
+                "line " + std::to_string(e.source().begin.line) + ": " + std::string(e.description()));
+  }
+  TomlSection top(&root, "", p.file);
+
+  TomlSection proj = top.table("project");
+  TomlSection pipes = top.table("pipes"), structures = top.table("structures"), flows = top.table("flows"),
+              tailwater = top.table("tailwater"), methods = top.table("methods"),
+              plausibility = top.table("plausibility"), criteria = top.table("criteria"),
+              force_mains = top.table("force_mains"), pump_curves = top.table("pump_curves"),
+              pump_points = top.table("pump_station_points");
+  const toml::node* pump_stations = top.node("pump_stations");
+  detail::CatchmentSections catchment_sections{top.table("catchments"), top.table("land_use"), top.table("rational"),
+                                               top.table("sanitary")};
+  top.finish();  // a misspelt table name first: it explains a "missing" error that would follow
+  p.name = proj.string("name").value_or("");
+  p.report_units = proj.choice<units::System>("units", {{"si", units::System::si}, {"us", units::System::us}})
+                       .value_or(units::System::si);
+  p.crs_override = proj.string("crs").value_or("");
+  proj.finish();
+
+  read_plausibility(plausibility, p);  // first: the pipe defaults are checked against it
+  read_pipes(pipes, p);
+  read_structures(structures, p);
+  read_flows_and_tailwater(flows, tailwater, p);
+  detail::read_catchment_sections(catchment_sections, p, &read_layer_source);
+  read_methods(methods, p);
+  read_criteria(criteria, p);
+  detail::read_force_main_settings(force_mains, p);
+  detail::read_pump_curves(pump_curves, p);
+  detail::read_pump_stations(pump_stations, p);
+  detail::read_pump_station_points(pump_points, p);
+  return p;
+}
+
+Project load_project(const std::string& path) {
+  std::ifstream in(path, std::ios::binary);
+  if (!in) throw Error(ErrorKind::bad_config, ErrorContext{path, "", "", ""}, "cannot open the project file");
+  std::ostringstream text;
+  text << in.rdbuf();
+  return parse_project(text.str(), path);
+}
+
+}  // namespace rimline::config

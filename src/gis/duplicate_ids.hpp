@@ -1,0 +1,23 @@
+#pragma once
+// DATA_DUPLICATE_ID after a layer is read: sorting the ids once is cheaper than a hash map of
+// a million strings built feature by feature. Private to src/gis.
+#include <cstdint>
+#include <string>
+#include <string_view>
+#include <vector>
+
+#include "rimline/finding.hpp"
+
+namespace rimline::gis::detail {
+
+struct IdRef {
+  std::string_view id;  // views the feature's own id; the features must outlive the call
+  std::int64_t fid;
+};
+
+// One finding for every feature (in reading order) whose id an earlier feature already has:
+// "The id "X" is also used by fid N; both <noun> are kept, <consequence>."
+void report_duplicate_ids(const std::vector<IdRef>& ids, LayerRole layer, const std::string& id_field,
+                          std::string_view noun, std::string_view consequence, Findings& findings);
+
+}  // namespace rimline::gis::detail

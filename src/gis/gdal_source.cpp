@@ -1,0 +1,144 @@
+#include "gis/gdal_source.hpp"
+
+#include <algorithm>
+
+#include <cpl_string.h>
+
+#include <mutex>
+#include <regex>
+
+#include "rimline/error.hpp"
+
+namespace rimline::gis::detail {
+
+GdalErrorCapture::GdalErrorCapture() { CPLPushErrorHandlerEx(&GdalErrorCapture::handler, this); }
+GdalErrorCapture::~GdalErrorCapture() { CPLPopErrorHandler(); }
+
+void GdalErrorCapture::handler(CPLErr level, CPLErrorNum, const char* text) {
+  auto* self = static_cast<GdalErrorCapture*>(CPLGetErrorHandlerUserData());
+  if (!self || level == CE_None || level == CE_Debug) return;
+  self->messages_.push_back({level >= CE_Failure, text ? text : ""});
+}
+
+std::string GdalErrorCapture::last_error() const {
+  for (auto it = messages_.rbegin(); it != messages_.rend(); ++it)
+    if (it->is_error) return it->text;
+  return messages_.empty() ? std::string() : messages_.back().text;
+}
+
+std::string printable_source(const std::string& source) {
+  static const std::regex password(R"((password\s*=\s*)('[^']*'|\S+))", std::regex::icase);
+  return std::regex_replace(source, password, "$1***");
+}
+
+namespace {
+
+void register_drivers() {
+  static std::once_flag once;
+  std::call_once(once, [] { GDALAllRegister(); });
+}
+
+std::vector<std::string> layer_names(GDALDataset& ds) {
+  std::vector<std::string> names;
+  for (int i = 0; i < ds.GetLayerCount(); ++i) names.emplace_back(ds.GetLayer(i)->GetName());
+  return names;
+}
+
+std::string quoted_list(const std::vector<std::string>& names) {
+  std::string out;
+  for (const auto& n : names) out += (out.empty() ? "" : ", ") + ("\"" + n + "\"");
+  return out;
+}
+
+}  // namespace
+
+std::vector<std::string> field_names(OGRLayer& layer) {
+  std::vector<std::string> names;
+  OGRFeatureDefn* defn = layer.GetLayerDefn();
+  for (int i = 0; i < defn->GetFieldCount(); ++i) names.emplace_back(defn->GetFieldDefn(i)->GetNameRef());
+  return names;
+}
+
+GDALDatasetUniquePtr open_dataset(const LayerSource& src, const std::string& role) {
+  register_drivers();
+  GdalErrorCapture capture;
+  std::vector<const char*> options;
+  for (const auto& o : src.open_options) options.push_back(o.c_str());
+  options.push_back(nullptr);
+  GDALDatasetUniquePtr ds(GDALDataset::Open(src.source.c_str(), GDAL_OF_VECTOR | GDAL_OF_READONLY, nullptr,
+                                            src.open_options.empty() ? nullptr : options.data(), nullptr));
+  if (!ds) {
+    std::string why = capture.last_error();
+    if (why.empty()) why = "no GDAL vector driver recognises it";
+    throw Error(ErrorKind::bad_input, ErrorContext{printable_source(src.source), "", "", ""},
+                "cannot open the " + role + " source: " + why);
+  }
+  return ds;
+}
+
+OpenLayer open_layer(const LayerSource& src, const std::string& role) {
+  OpenLayer out;
+  out.source = printable_source(src.source);
+  out.dataset = open_dataset(src, role);
+  GDALDataset& ds = *out.dataset;
+  if (ds.GetLayerCount() == 0)
+    throw Error(ErrorKind::bad_input, ErrorContext{out.source, "", "", ""}, "the " + role + " source has no layers");
+  if (src.layer.empty()) {
+    // With several layers, taking the first would silently depend on the file's internal order.
+    if (ds.GetLayerCount() > 1)
+      throw Error(ErrorKind::bad_config, ErrorContext{out.source, "", "", ""},
+                  "the " + role + " source has " + std::to_string(ds.GetLayerCount()) + " layers (" +
+                      quoted_list(layer_names(ds)) + "); name one with layer = \"...\" in [" + role + "]");
+    out.layer = ds.GetLayer(0);
+  } else {
+    out.layer = ds.GetLayerByName(src.layer.c_str());
+    if (!out.layer) {
+      const auto names = layer_names(ds);
+      std::string msg =
+          "no layer \"" + src.layer + "\" in the " + role + " source (layers: " + quoted_list(names) + ")";
+      const std::string near = closest_name(src.layer, names);
+      if (!near.empty()) msg += "; did you mean \"" + near + "\"?";
+      throw Error(ErrorKind::bad_config, ErrorContext{out.source, "", "", ""}, msg);
+    }
+  }
+  out.layer_name = out.layer->GetName();
+  if (char** files = ds.GetFileList()) {
+    for (char** f = files; *f; ++f) out.files.emplace_back(*f);
+    CSLDestroy(files);
+  }
+  return out;
+}
+
+void require_geometry_and_features(const OpenLayer& l, const std::string& role) {
+  const ErrorContext where{l.source, l.layer_name, "", ""};
+  if (l.layer->GetGeomType() == wkbNone)
+    throw Error(ErrorKind::bad_input, where,
+                "the " + role + " layer has no geometry column (a CSV needs a WKT column, or X/Y columns named in "
+                "open_options)");
+  if (l.layer->GetFeatureCount(FALSE) == 0)
+    throw Error(ErrorKind::bad_input, where, "the " + role + " layer has no features");
+  // A layer declared as points cannot hold one pipe: the structure layer named as the pipes.
+  const OGRwkbGeometryType type = wkbFlatten(l.layer->GetGeomType());
+  if (role == "pipes" && (type == wkbPoint || type == wkbMultiPoint))
+    throw Error(ErrorKind::bad_input, where,
+                "the pipes layer holds " + std::string(OGRGeometryTypeToName(type)) +
+                    " geometries, not lines; is it the structure layer?");
+}
+
+int field_index(const OpenLayer& l, const std::string& field, const std::string& role_key) {
+  if (field.empty()) return -1;
+  const int idx = l.layer->GetLayerDefn()->GetFieldIndex(field.c_str());
+  if (idx >= 0) return idx;
+  const auto names = field_names(*l.layer);
+  std::string msg = "the field mapped by " + role_key + " is not in the layer";
+  const std::string near = closest_name(field, names);
+  if (!near.empty()) msg += "; did you mean \"" + near + "\"?";
+  throw Error(ErrorKind::bad_config, ErrorContext{l.source, l.layer_name, "", field}, msg);
+}
+
+void add_input_files(std::vector<std::string>& input_files, const std::vector<std::string>& files) {
+  for (const auto& f : files)
+    if (std::find(input_files.begin(), input_files.end(), f) == input_files.end()) input_files.push_back(f);
+}
+
+}  // namespace rimline::gis::detail
