@@ -71,7 +71,8 @@ TEST_CASE("cli: a bad project file is exit 2 and names the file, line and key wi
 }
 
 TEST_CASE("cli: an unreadable source is exit 3 and names the file") {
-  const auto p = temp_file("cli-missing.toml", "[pipes]\nsource = \"no-such-file.gpkg\"\n");
+  const auto p = temp_file("cli-missing.toml", "[pipes]\nsource = \"no-such-file.gpkg\"\n[flows]\nmode = "
+                                              "\"structure_inflows\"\ndefault_inflow = \"1 L/s\"\n");
   const auto r = run("check " + p + " --out /tmp/never");
   INFO(r.out);
   CHECK(r.code == 3);
