@@ -103,7 +103,9 @@ std::string starter_project_toml(const StarterLayer& pipes, const StarterLayer& 
       out << "force_main_values = [";
       for (std::size_t i = 0; i < pm.force_main_values.size(); ++i)
         out << (i ? ", " : "") << quoted(pm.force_main_values[i].value);
-      out << "]" << comment(pm.force_main_values.front().why) << "\n";
+      std::string why;
+      for (const auto& v : pm.force_main_values) why += (why.empty() ? "" : "; ") + v.value + ": " + v.why;
+      out << "]" << comment(why) << "\n";
     }
     if (pm.direction_from_inverts)
       out << "flow_direction = \"inverts\"" << comment("many pipes rise along from/to: see the note below") << "\n";
@@ -118,10 +120,13 @@ std::string starter_project_toml(const StarterLayer& pipes, const StarterLayer& 
     const bool sized = pm.find("diameter") || (pm.shape_from_height && pm.find("width"));
     if (!sized) out << "diameter = " << quoted(us ? "12 in" : "300 mm") << comment("EDIT: no size field found") << "\n";
     if (!pm.material_values.empty()) {
-      out << "\n# Manning n by material (uncomment and set from your design standard):\n"
-             "# [pipes.defaults.manning_n_by_material]\n";
-      for (std::size_t i = 0; i < pm.material_values.size() && i < 40; ++i)
-        out << "# " << quoted(pm.material_values[i]) << " = 0.013\n";
+      out << "\n# Manning n by material: the values of " << pm.find("material")->field
+          << " seen, most frequent first (a table\n# [pipes.defaults.manning_n_by_material] with a row per value, e.g. RC = 0.013, gives each its n):\n#";
+      for (std::size_t i = 0; i < pm.material_values.size() && i < 60; ++i) {
+        out << " " << pm.material_values[i] << (i + 1 < pm.material_values.size() ? "," : "");
+        if (i % 12 == 11) out << "\n#";
+      }
+      out << "\n";
     }
     if (pm.find("shape")) {
       const bool box_ok = pm.find("width") && pm.find("height");
