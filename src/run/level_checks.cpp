@@ -200,6 +200,16 @@ class LevelChecks {
     return "";
   }
 
+  void level_finding(const model::Conduit& c, const char* code, const std::string& field, double value, double limit,
+                     std::string message) {
+    Finding f = topology::conduit_finding(c, code, Severity::warning, std::move(message));
+    f.field = field;
+    f.value = value;
+    f.limit = limit;
+    f.dimension = Dimension::length;
+    findings_.push_back(std::move(f));
+  }
+
   void per_feature() {
     const double tol = p_.plausibility.level_tolerance_m;
     const auto& pf = p_.pipe_fields;
@@ -214,33 +224,19 @@ class LevelChecks {
         const auto& st = net_.structures[up ? c.from : c.to];
         const std::string field = (up ? pf.invert_up : pf.invert_down).field;
         const std::string end = up ? "upstream" : "downstream";
-        if (st.invert_m && !structure_invert_suspect_ && *inv < *st.invert_m - tol) {
-          Finding f = topology::conduit_finding(
-              c, "INVERT_BELOW_STRUCTURE", Severity::warning,
-              "the " + end + " invert " + field + " of pipe " + c.id + " (" + q(*inv, Dimension::length) + ") lies " +
-                  q(*st.invert_m - *inv, Dimension::length) + " below the invert " + sf.invert.field + " of structure " +
-                  st.id + " (" + q(*st.invert_m, Dimension::length) +
-                  ") that it meets; a pipe cannot lie below the structure's floor, so one of the two is wrong" +
-                  cause(*inv, *st.invert_m, "pipe's invert", "structure's invert"));
-          f.field = field;
-          f.value = *inv;
-          f.limit = *st.invert_m;
-          f.dimension = Dimension::length;
-          findings_.push_back(std::move(f));
-        }
-        if (st.rim_m && !rim_suspect_ && *inv > *st.rim_m + tol) {
-          Finding f = topology::conduit_finding(
-              c, "INVERT_ABOVE_RIM", Severity::warning,
-              "the " + end + " invert " + field + " of pipe " + c.id + " (" + q(*inv, Dimension::length) + ") lies " +
-                  q(*inv - *st.rim_m, Dimension::length) + " above the rim of structure " + st.id + " (" +
-                  q(*st.rim_m, Dimension::length) + "); a buried pipe lies below the ground, so one of the two is wrong" +
-                  cause(*inv, *st.rim_m, "pipe's invert", "rim"));
-          f.field = field;
-          f.value = *inv;
-          f.limit = *st.rim_m;
-          f.dimension = Dimension::length;
-          findings_.push_back(std::move(f));
-        }
+        const std::string lies = "the " + end + " invert " + field + " of pipe " + c.id + " (" + q(*inv, Dimension::length) + ") lies ";
+        if (st.invert_m && !structure_invert_suspect_ && *inv < *st.invert_m - tol)
+          level_finding(c, "INVERT_BELOW_STRUCTURE", field, *inv, *st.invert_m,
+                        lies + q(*st.invert_m - *inv, Dimension::length) + " below the invert " + sf.invert.field +
+                            " of structure " + st.id + " (" + q(*st.invert_m, Dimension::length) +
+                            ") that it meets; a pipe cannot lie below the structure's floor, so one of the two is wrong" +
+                            cause(*inv, *st.invert_m, "pipe's invert", "structure's invert"));
+        if (st.rim_m && !rim_suspect_ && *inv > *st.rim_m + tol)
+          level_finding(c, "INVERT_ABOVE_RIM", field, *inv, *st.rim_m,
+                        lies + q(*inv - *st.rim_m, Dimension::length) + " above the rim of structure " + st.id + " (" +
+                            q(*st.rim_m, Dimension::length) +
+                            "); a buried pipe lies below the ground, so one of the two is wrong" +
+                            cause(*inv, *st.rim_m, "pipe's invert", "rim"));
       }
     }
     if (pipes_ok) steps();
