@@ -218,18 +218,38 @@ void Inference::structure_levels() {
         meet(down_node_[r], down_si_[r]);
       }
     } else {
+      // The structure nearest each pipe end within the end tolerance, through a grid of that size.
       const auto& pr = pipes_.summary->rows;
       const double tol = end_tolerance_m();
+      double lat0 = 0.0;
+      for (double y : sr.y0)
+        if (std::isfinite(y)) {
+          lat0 = y;
+          break;
+        }
+      // Metres per degree on a sphere of 6371 km (grid cells only: the distances are computed exactly).
+      const double mx = pr.lonlat ? 111194.9 * std::cos(lat0 * 3.14159265358979323846 / 180.0) : 1.0;
+      const double my = pr.lonlat ? 111194.9 : 1.0;
+      auto cell = [&](double x, double y, long long dx, long long dy) {
+        return (std::llround(std::floor(x * mx / tol)) + dx) * 1000003LL + std::llround(std::floor(y * my / tol)) + dy;
+      };
+      std::unordered_multimap<long long, std::size_t> grid;
+      for (std::size_t s = 0; s < structures_.rows; ++s)
+        if (std::isfinite(sr.x0[s])) grid.emplace(cell(sr.x0[s], sr.y0[s], 0, 0), s);
       for (std::size_t r = 0; r < pipes_.rows; ++r)
         for (bool first : {true, false}) {
           const double x = first ? pr.x0[r] : pr.x1[r], y = first ? pr.y0[r] : pr.y1[r];
           if (!std::isfinite(x)) continue;
           std::size_t best = npos;
           double d_best = tol;
-          for (std::size_t s = 0; s < structures_.rows; ++s) {  // small layers only reach here (no links)
-            const double d = std::isfinite(sr.x0[s]) ? distance_m(x, y, sr.x0[s], sr.y0[s]) : nan;
-            if (d <= d_best) best = s, d_best = d;
-          }
+          for (long long dx = -1; dx <= 1; ++dx)
+            for (long long dy = -1; dy <= 1; ++dy) {
+              const auto [b, e] = grid.equal_range(cell(x, y, dx, dy));
+              for (auto it = b; it != e; ++it) {
+                const double d = distance_m(x, y, sr.x0[it->second], sr.y0[it->second]);
+                if (d <= d_best) best = it->second, d_best = d;
+              }
+            }
           meet(best, first ? up_si_[r] : down_si_[r]);
         }
     }
