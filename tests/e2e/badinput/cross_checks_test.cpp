@@ -213,3 +213,23 @@ TEST_CASE("badinput cross-checks: an empty measured invert falls back to the des
         "US_INV is empty; the upstream invert 2.500 m is taken from US_DESIGN.");
   check_solved(r, {"OF", "M1", "M2", "M3", "M4"});
 }
+
+TEST_CASE("badinput cross-checks: structure inverts in feet declared m are UNIT_SUSPECT on the structures' field") {
+  Case c("unit_suspect_sump");
+  std::vector<std::string> s;
+  for (auto x : base_structures()) {
+    // SUMP in feet (2.25 m -> 7.382 ft), the rims stay in metres.
+    for (const char* v : {"2", "2.25", "2.5", "2.75"}) {
+      const std::string from = std::string(R"("SUMP":)") + v + ",";
+      if (x.find(from) != std::string::npos) x = replace(x, from, R"("SUMP":)" + num(std::stod(v) / 0.3048) + ",");
+    }
+    s.push_back(x);
+  }
+  c.write_network(base_pipes(), s);
+  const auto r = c.run();
+  INFO(dump(r));
+  const Finding* f = find(r, "UNIT_SUSPECT", "structure inverts", "SUMP");
+  REQUIRE(f != nullptr);
+  CHECK(message(f).rfind("looks like the structure inverts SUMP are in ft: declared m.", 0) == 0);
+  CHECK(find(r, "INVERT_BELOW_STRUCTURE", "P1") == nullptr);  // said once for the field, not per pipe
+}
