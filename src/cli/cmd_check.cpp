@@ -38,7 +38,7 @@ void print_summary(const run::CheckRun& run, std::ostream& os) {
   const auto s = topology::summarize(run.read.network, run.topology);
   os << "network: " << s.structures << " structures, " << s.conduits << " conduits (" << s.usable_conduits
      << " usable), " << s.outfalls << " outfalls, " << s.trees << " trees, " << s.diversions << " diversions, "
-     << render_message(q(s.total_length_m, units::Dimension::length), run.report_units) << " of pipe\n";
+     << render_message(q_distance(s.total_length_m), run.report_units) << " of pipe\n";
   if (!run.read.network.crs_note.empty()) os << "crs: " << run.read.network.crs_note << "\n";
 }
 

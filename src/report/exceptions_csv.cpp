@@ -18,9 +18,10 @@ std::string csv_cell(const std::string& s) {
   return out + "\"";
 }
 
+// Rounded as in the messages (rimline::display_decimals): what the data supports.
 std::string number(double v, units::Dimension d, units::System sys) {
   if (!std::isfinite(v)) return "";
-  return fixed_text(to_report(v, d, sys), 4);
+  return display_number(v, d, sys);
 }
 
 std::string unit_text(units::Dimension d, units::System sys) {

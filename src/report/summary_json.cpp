@@ -2,6 +2,8 @@
 #include <map>
 #include <nlohmann/json.hpp>
 
+#include "base/number_text.hpp"
+#include "report/method_text.hpp"
 #include "rimline/hydraulics/friction.hpp"
 #include "rimline/report/outputs.hpp"
 #include "rimline/topology/summary.hpp"
@@ -12,17 +14,21 @@ namespace {
 
 using nlohmann::ordered_json;
 
-ordered_json length(double si, units::System s) {
+// Figures rounded as the report shows them (rimline::display_decimals): what the data supports.
+ordered_json shown(double si, units::Dimension d, units::System s) {
   if (!std::isfinite(si)) return nullptr;
-  return std::round(to_report(si, units::Dimension::length, s) * 1e4) / 1e4;
+  return std::stod(display_number(si, d, s));
 }
 
-ordered_json flow(double si, units::System s) {
-  return std::round(to_report(si, units::Dimension::flow, s) * 1e6) / 1e6;
-}
+ordered_json length(double si, units::System s) { return shown(si, units::Dimension::length, s); }
+ordered_json flow(double si, units::System s) { return shown(si, units::Dimension::flow, s); }
+ordered_json velocity(double si, units::System s) { return shown(si, units::Dimension::velocity, s); }
 
-ordered_json velocity(double si, units::System s) {
-  return std::round(to_report(si, units::Dimension::velocity, s) * 1e4) / 1e4;
+// A value to `digits` significant figures (printf's %.*g), as a number.
+double significant(double v, int digits) {
+  std::string text;
+  append_general(text, v, digits);
+  return std::stod(text);
 }
 
 // Flows from catchments: the method (with the IDF relation) and the catchments' totals.
@@ -39,7 +45,7 @@ ordered_json design_flows_json(const run::CheckRun& run) {
                     {"method", cf.method},
                     {"catchments", run.catchments.size()},
                     {"catchments_with_outlet", assigned},
-                    {"catchment_area", std::round(to_report(area, units::Dimension::area, sys) * 1e4) / 1e4},
+                    {"catchment_area", shown(area, units::Dimension::area, sys)},
                     {"area_unit", units::unit_symbol(units::display_unit(units::Dimension::area, sys))}};
   if (cf.mode == flows::CatchmentMode::storm) {
     const auto& idf = run.project.rational.idf;
@@ -71,9 +77,27 @@ std::string summary_json(const run::CheckRun& run) {
                 {"flow", units::unit_symbol(units::display_unit(units::Dimension::flow, sys))},
                 {"velocity", units::unit_symbol(units::display_unit(units::Dimension::velocity, sys))}};
   j["crs"] = {{"run", net.crs_description}, {"note", net.crs_note}};
-  j["methods"] = {{"friction", hydraulics::friction_law_name(run.project.methods.friction)},
-                  {"structure_loss", hydraulics::structure_loss_method_name(run.march_options.loss_method)},
-                  {"default_k", run.march_options.default_k}};
+  ordered_json energy_by_structure = ordered_json::object();
+  for (const auto& [id, e] : structure_energy_exceptions(run)) energy_by_structure[id] = e;
+  ordered_json basis_by_pipe = ordered_json::object();
+  for (const auto& [id, b] : velocity_basis_exceptions(run)) basis_by_pipe[id] = b;
+  const bool us = sys == units::System::us;
+  const double nu_ft2_s = run.kinematic_viscosity_m2_s / (units::metres_per_foot * units::metres_per_foot);
+  j["methods"] = {
+      {"friction", hydraulics::friction_law_name(run.project.methods.friction)},
+      {"structure_loss", hydraulics::structure_loss_method_name(run.march_options.loss_method)},
+      {"default_k", run.march_options.default_k},
+      {"structure_energy", structure_energy_id(run)},
+      {"structure_energy_by_structure", energy_by_structure},
+      {"k_multiplies", "the velocity head at the inlet of the pipe leaving the structure (V_o^2/2g)"},
+      {"structure_energy_text", structure_energy_text(run)},
+      {"water_temperature", std::round(to_report(run.project.methods.water_temperature_c, units::Dimension::temperature, sys) * 10.0) / 10.0},
+      {"water_temperature_unit", units::unit_symbol(units::display_unit(units::Dimension::temperature, sys))},
+      {"kinematic_viscosity", significant(us ? nu_ft2_s : run.kinematic_viscosity_m2_s, 4)},
+      {"kinematic_viscosity_unit", us ? "ft2/s" : "m2/s"},
+      {"velocity_min_basis", checks::velocity_basis_name(run.criteria.velocity_basis)},
+      {"velocity_min_basis_by_pipe", basis_by_pipe},
+      {"velocity_rules", velocity_rules_text(run)}};
   if (run.catchment_flows) j["design_flows"] = design_flows_json(run);
   ordered_json crit = {{"freeboard", length(run.criteria.freeboard_m, sys)},
                        {"velocity_min", velocity(run.criteria.velocity_min_m_s, sys)},
@@ -85,7 +109,7 @@ std::string summary_json(const run::CheckRun& run) {
   const auto ns = topology::summarize(net, run.topology);
   j["network"] = {{"structures", ns.structures}, {"conduits", ns.conduits}, {"outfalls", ns.outfalls},
                   {"trees", ns.trees},           {"diversions", ns.diversions},
-                  {"total_length", length(ns.total_length_m, sys)}};
+                  {"total_length", std::stod(distance_number(ns.total_length_m, sys))}};
 
   ordered_json cases = ordered_json::array();
   for (const auto& c : run.cases) {

@@ -7,6 +7,7 @@
 #include <unordered_map>
 #include <unordered_set>
 
+#include "rimline/hydraulics/friction.hpp"
 #include "run/catchment_run.hpp"
 #include "run/input_hashes.hpp"
 #include "run/pump_run.hpp"
@@ -28,7 +29,12 @@ solve::MarchOptions march_options_from(const config::Project& p) {
   m.k_by_type = p.methods.k_by_type;
   if (p.structure_defaults.loss_k) m.default_k = *p.structure_defaults.loss_k;
   m.default_structure_diameter_m = p.structure_defaults.diameter_m;
+  m.structure_energy = p.methods.structure_energy;
   return m;
+}
+
+checks::VelocityBasis basis_of(config::VelocityMinBasis b) {
+  return b == config::VelocityMinBasis::full_flow ? checks::VelocityBasis::full_flow : checks::VelocityBasis::normal_depth;
 }
 
 checks::Criteria criteria_from(const config::Project& p) {
@@ -38,13 +44,16 @@ checks::Criteria criteria_from(const config::Project& p) {
   c.velocity_max_m_s = p.criteria.velocity_max_m_s;
   c.capacity_ratio_max = p.criteria.capacity_ratio_max;
   c.cover_min_m = p.criteria.cover_min_m;
+  c.velocity_basis = basis_of(p.criteria.velocity_min_basis);
   return c;
 }
 
 checks::CriteriaOverrides overrides_from(const config::Project& p) {
   checks::CriteriaOverrides out;
   auto convert = [](const config::CriteriaOverride& o) {
-    return checks::Override{o.freeboard_m, o.velocity_min_m_s, o.velocity_max_m_s, o.capacity_ratio_max, o.cover_min_m};
+    checks::Override c{o.freeboard_m, o.velocity_min_m_s, o.velocity_max_m_s, o.capacity_ratio_max, o.cover_min_m, {}};
+    if (o.velocity_min_basis) c.velocity_basis = basis_of(*o.velocity_min_basis);
+    return c;
   };
   for (const auto& [id, o] : p.structure_criteria) out.structures[id] = convert(o);
   for (const auto& [id, o] : p.conduit_criteria) out.conduits[id] = convert(o);
@@ -213,6 +222,10 @@ CheckRun run_check(const config::Project& project, const RunOptions& options) {
     return files;
   };
   InputHashes hashes(files_read());
+  // Darcy-Weisbach's Reynolds number uses the viscosity of water at the project's temperature
+  // (default 15 degC), for the gravity pipes and the force mains alike.
+  run.kinematic_viscosity_m2_s = hydraulics::water_kinematic_viscosity_m2_s(project.methods.water_temperature_c);
+  for (auto& c : run.read.network.conduits) c.roughness.kinematic_viscosity_m2_s = run.kinematic_viscosity_m2_s;
   stage("connecting the network");
   run.data_findings = run.read.findings;
   topology::TopologyOptions topo_opt;
@@ -222,6 +235,10 @@ CheckRun run_check(const config::Project& project, const RunOptions& options) {
   run.criteria = criteria_from(project);
   run.overrides = overrides_from(project);
   run.march_options = march_options_from(project);
+  for (std::size_t s = 0; s < run.read.network.structures.size(); ++s) {
+    const auto it = project.methods.structure_energy_by_id.find(run.read.network.structures[s].id);
+    if (it != project.methods.structure_energy_by_id.end()) run.march_options.structure_energy_at[s] = it->second;
+  }
   const bool from_catchments =
       project.flow_mode == config::FlowMode::rational || project.flow_mode == config::FlowMode::sanitary;
   if (from_catchments) assign_catchment_outlets(project, run);

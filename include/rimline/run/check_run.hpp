@@ -63,6 +63,7 @@ struct CheckRun {
   checks::Criteria criteria;
   checks::CriteriaOverrides overrides;  // per structure / pipe id
   solve::MarchOptions march_options;
+  double kinematic_viscosity_m2_s = 0.0;  // of water at [methods] water_temperature (Darcy-Weisbach)
   units::System report_units = units::System::si;
   std::vector<Case> cases;
   std::vector<std::size_t> envelope_structure_case;  // per structure: the case with the highest HGL
