@@ -74,10 +74,10 @@ constexpr std::array<MethodRow, 28> rows{{
      "Q = PF q P + infiltration per length of pipe or per area; PF = 1 + 14 / (4 + sqrt(P)), P in thousands",
      "Harmon (1918); as (18 + sqrt P) / (4 + sqrt P) in Recommended Standards for Wastewater Facilities (Ten States "
      "Standards) - section and edition from memory"},
-    {"criterion", "freeboard", "Freeboard below the rim", "HGL at least this far below the rim (default 0.3 m / 1 ft)",
+    {"criterion", "freeboard", "Freeboard below the rim", "HGL at least this far below the rim (default 0.3 m, about 1 ft)",
      "common practice, no source (agency manuals range from 0 to 1 ft)"},
     {"criterion", "velocity_min", "Minimum velocity",
-     "self-cleansing velocity (default 0.9 m/s) of the pipe's own design flow at normal depth (velocity_min_basis "
+     "self-cleansing velocity (default 0.9 m/s, 3 ft/s) of the pipe's own design flow at normal depth (velocity_min_basis "
      "normal_depth, default; above the partly-full peak: the design flow filling the pipe) or flowing full at its "
      "slope (full_flow); per run or per pipe; tailwater and surcharge play no part",
      "TxDOT Hydraulic Design Manual (2016 revision): 3 ft/s for storm drains; the bases: common practice, no source"},
@@ -96,7 +96,7 @@ constexpr std::array<MethodRow, 28> rows{{
      "Fritsch & Carlson (1980), SIAM J. Numer. Anal. 17(2) 238-246 (curve); system curve and cases: common practice, "
      "no source"},
     {"criterion", "fm_pressure_min", "Force-main minimum pressure head",
-     "0 m: where the HGL runs below the pipe the main is sub-atmospheric (air entry, column separation), an "
+     "zero pressure head: where the HGL runs below the pipe the main is sub-atmospheric (air entry, column separation), an "
      "air-release valve candidate at the high point",
      "common practice, no source"},
     {"criterion", "fm_velocity_min", "Force-main minimum (scour) velocity", "0.6 m/s (2 ft/s) in every operating case",
@@ -105,7 +105,7 @@ constexpr std::array<MethodRow, 28> rows{{
     {"criterion", "fm_velocity_max", "Force-main maximum velocity", "2.5 m/s (8 ft/s) in every operating case",
      "Fair, Geyer & Okun, Water and Wastewater Engineering, 3rd ed., 14.14.4.2 - from memory"},
     {"criterion", "fm_cover", "Force-main cover for a DEM profile",
-     "1.2 m from ground to crown where the profile comes from a DEM (centreline = ground - cover - D/2)",
+     "1.2 m (4 ft) from ground to crown where the profile comes from a DEM (centreline = ground - cover - D/2)",
      "common practice, no source (set from the local standard)"},
 }};
 

@@ -66,9 +66,8 @@ void check_conduit(const model::Network& net, std::size_t ci, const solve::Condu
   if (!r.solved) return;
   const auto& prof = r.profile;
   const double rise = hydraulics::rise_m(p.section);
-  const double crown_excess = std::max(prof.outlet().hgl_m - (r.invert_down_m + rise),
-                                       prof.inlet().hgl_m - (r.invert_up_m + rise));
-  if (prof.surcharged_length_m > 0.0 || crown_excess > 1e-6) {
+  const auto [surcharged, crown_excess] = surcharge_of(p, r);
+  if (surcharged) {
     out.push_back({"SURCHARGED", Severity::warning, LayerRole::conduits, p.id, "", std::max(crown_excess, 0.0), 0.0,
                    units::Dimension::length,
                    "pipe " + p.id + " runs surcharged over " + q_distance(prof.surcharged_length_m) + " of its " +
@@ -188,6 +187,15 @@ SelfCleansingVelocity self_cleansing_velocity(const model::Conduit& conduit, con
     out.basis = "marched";
   }
   return out;
+}
+
+Surcharge surcharge_of(const model::Conduit& conduit, const solve::ConduitResult& r) {
+  Surcharge s;
+  if (!r.solved) return s;
+  const double rise = hydraulics::rise_m(conduit.section);
+  s.crown_excess_m = std::max(r.profile.outlet().hgl_m - (r.invert_down_m + rise), r.profile.inlet().hgl_m - (r.invert_up_m + rise));
+  s.surcharged = r.profile.surcharged_length_m > 0.0 || s.crown_excess_m > 1e-6;
+  return s;
 }
 
 double highest_velocity_m_s(const solve::ConduitResult& r) {

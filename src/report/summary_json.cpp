@@ -1,5 +1,6 @@
 #include <cmath>
 #include <map>
+#include <optional>
 #include <nlohmann/json.hpp>
 
 #include "base/number_text.hpp"
@@ -59,6 +60,39 @@ ordered_json design_flows_json(const run::CheckRun& run) {
   return d;
 }
 
+// Each outfall's tailwater in a case and where it came from (the run's level, the outfall's own
+// field, none: a free outlet), and whether the tailwater or the free-outlet level governs there.
+// The list when there are at most 50 outfalls; the counts always. Without a run level, the case's
+// tailwater is the outfalls' field value when they all give the same one.
+void outfalls_json(const run::CheckRun& run, const run::Case& c, ordered_json& kase) {
+  const auto sys = run.report_units;
+  const auto& net = run.read.network;
+  std::map<std::string, int> by_source{{"run", 0}, {"field", 0}, {"none", 0}};
+  ordered_json list = ordered_json::array();
+  std::optional<double> common;
+  bool differ = false;
+  for (const auto& tree : run.topology.trees) {
+    const auto& r = c.march.structures[tree.outfall];
+    if (!r.outfall) continue;
+    const bool given = std::isfinite(r.tailwater_m) && run.march_options.tailwater_mode != solve::TailwaterMode::free;
+    const std::string source = !given ? "none" : r.tailwater_from_field ? "field" : "run";
+    ++by_source[source];
+    if (r.tailwater_from_field && given) {
+      if (common && !(*common == r.tailwater_m)) differ = true;
+      common = r.tailwater_m;
+    }
+    if (run.topology.trees.size() <= 50)
+      list.push_back({{"outfall", net.structures[tree.outfall].id},
+                      {"tailwater", given ? length(r.tailwater_m, sys) : ordered_json()},
+                      {"source", source},
+                      {"level", r.solved ? length(r.hgl_m, sys) : ordered_json()},
+                      {"governed_by", given && r.solved && r.hgl_m <= r.tailwater_m + 1e-9 ? "tailwater" : "free outlet"}});
+  }
+  if (!std::isfinite(c.tailwater_m) && common && !differ) kase["tailwater"] = length(*common, sys);
+  kase["outfalls_by_source"] = by_source;
+  if (run.topology.trees.size() <= 50) kase["outfalls"] = list;
+}
+
 }  // namespace
 
 std::string summary_json(const run::CheckRun& run) {
@@ -115,10 +149,20 @@ std::string summary_json(const run::CheckRun& run) {
   for (const auto& c : run.cases) {
     std::size_t solved = 0;
     for (const auto& s : c.march.structures) solved += s.solved ? 1 : 0;
-    cases.push_back({{"label", render_message(c.label, sys)}, {"tailwater", length(c.tailwater_m, sys)},
-                     {"structures_solved", solved}, {"criteria_findings", c.criteria_count}});
+    ordered_json kase = {{"label", render_message(c.label, sys)}, {"tailwater", length(c.tailwater_m, sys)},
+                         {"structures_solved", solved}, {"criteria_findings", c.criteria_count}};
+    outfalls_json(run, c, kase);
+    cases.push_back(kase);
   }
   j["cases"] = cases;
+  if (run.cases.size() > 1)
+    j["envelope"] =
+        "results.gpkg holds each figure from the case that governs it, and names it: a structure's from the case "
+        "with its highest HGL (tailwater_case); a conduit's levels, depths, end velocities, regime and surcharged "
+        "length from the case where its HGL stands highest against its crown (tailwater_case, as SURCHARGED); "
+        "velocity_selfclean and velocity_highest from the case with the lowest and the highest of each "
+        "(velocity_selfclean_case, velocity_highest_case); '" + std::string(run::every_case) +
+        "' where a figure is the same in every case. exceptions.csv names the case of each row (column case).";
 
   std::map<std::string, int> by_code;
   std::map<std::string, int> by_severity{{"error", 0}, {"warning", 0}, {"info", 0}};
@@ -130,7 +174,7 @@ std::string summary_json(const run::CheckRun& run) {
 
   // Worst freeboard over the envelope.
   double worst = std::numeric_limits<double>::infinity();
-  std::string worst_id;
+  std::string worst_id, worst_case;
   for (std::size_t s = 0; s < net.structures.size() && !run.cases.empty(); ++s) {
     const auto& r = run.cases[run.envelope_structure_case[s]].march.structures[s];
     if (!r.solved || !net.structures[s].rim_m) continue;
@@ -138,6 +182,8 @@ std::string summary_json(const run::CheckRun& run) {
     if (fb < worst) {
       worst = fb;
       worst_id = net.structures[s].id;
+      const auto env = run::structure_envelope(run, s);
+      worst_case = render_message(run::envelope_label(run, env.index, env.every), sys);
     }
   }
   // Pump stations: the operating point of every case (only when the project has stations).
@@ -159,7 +205,9 @@ std::string summary_json(const run::CheckRun& run) {
     }
     j["pump_stations"] = stations;
   }
-  j["worst_freeboard"] = std::isfinite(worst) ? ordered_json{{"structure", worst_id}, {"freeboard", length(worst, sys)}}
+  j["worst_freeboard"] = std::isfinite(worst) ? ordered_json{{"structure", worst_id}, {"freeboard", length(worst, sys)},
+                                                             {"case", worst_case},
+                                                             {"structure_energy", structure_energy_id(run)}}
                                               : ordered_json();
   return j.dump(2) + "\n";
 }

@@ -71,6 +71,15 @@ struct SelfCleansingVelocity {
 };
 SelfCleansingVelocity self_cleansing_velocity(const model::Conduit& conduit, const solve::ConduitResult& result,
                                               VelocityBasis basis);
+// Whether a solved pipe runs surcharged (HGL above the crown over part of it or at an end), and
+// how far its HGL stands above the crown at the higher end (negative: below). SURCHARGED and the
+// sweep envelope of the pipe's levels both use it, so they name the same case.
+struct Surcharge {
+  bool surcharged = false;
+  double crown_excess_m = std::numeric_limits<double>::quiet_NaN();
+};
+Surcharge surcharge_of(const model::Conduit& conduit, const solve::ConduitResult& result);
+
 // The highest velocity anywhere along a solved pipe's profile (what VELOCITY_HIGH compares).
 double highest_velocity_m_s(const solve::ConduitResult& result);
 std::string_view velocity_basis_name(VelocityBasis b);  // "normal_depth" | "full_flow"
