@@ -40,7 +40,7 @@ void print_summary(const run::CheckRun& run, std::ostream& os) {
      << " usable), " << s.outfalls << " outfalls"
      << (s.outfalls_assumed ? " (" + std::to_string(s.outfalls_assumed) + " assumed: nothing names them)" : "")
      << ", " << s.trees << " trees, " << s.diversions << " diversions, "
-     << render_message(q(s.total_length_m, units::Dimension::length), run.report_units) << " of pipe\n";
+     << render_message(q_distance(s.total_length_m), run.report_units) << " of pipe\n";
   if (!run.read.network.crs_note.empty()) os << "crs: " << run.read.network.crs_note << "\n";
 }
 

@@ -273,6 +273,29 @@ void read_methods(TomlSection s, Project& p) {
     if (*t < 0.0 || *t > 100.0) s.fail("water_temperature", "must be between 0 and 100 C (liquid water)");
     m.water_temperature_c = *t;
   }
+  auto energy_choice = [](TomlSection& t) {
+    return t.choice<hydraulics::StructureEnergy>("structure_energy",
+                                                {{"whole_loss", hydraulics::StructureEnergy::whole_loss},
+                                                 {"still_pool", hydraulics::StructureEnergy::still_pool}});
+  };
+  const bool hec22 = m.structure_loss == StructureLossMethod::hec22;
+  // HEC-22 defines its own bookkeeping (the access-hole loss is the whole loss across the hole).
+  const char* hec22_own = "the hec22 structure loss has its own bookkeeping (its loss is the whole loss across "
+                          "the access hole); still_pool applies to constant_k and bend";
+  if (const auto e = energy_choice(s)) {
+    if (hec22 && *e == hydraulics::StructureEnergy::still_pool) s.fail("structure_energy", hec22_own);
+    m.structure_energy = *e;
+  }
+  TomlSection by_id = s.table("structures");
+  for (const auto& [id, node] : by_id.entries()) {
+    if (!node->is_table()) by_id.fail_at(node, id, "must be a table of methods for structure \"" + id + "\"");
+    TomlSection one(node->as_table(), by_id.name() + "." + id, p.file, by_id.pattern() + ".*");
+    if (const auto e = energy_choice(one)) {
+      if (hec22 && *e == hydraulics::StructureEnergy::still_pool) one.fail("structure_energy", hec22_own);
+      m.structure_energy_by_id[id] = *e;
+    }
+    one.finish();
+  }
   TomlSection k = s.table("k_by_type");
   const std::vector<std::string> kinds{"manhole", "inlet", "junction", "outfall", "pump_station"};
   for (const auto& [kind, value] : number_table(k)) {
@@ -301,6 +324,11 @@ void read_criteria(TomlSection s, Project& p) {
   Criteria& c = p.criteria;
   c.freeboard_m = s.quantity("freeboard", Dimension::length).value_or(c.freeboard_m);
   c.velocity_min_m_s = s.quantity("velocity_min", Dimension::velocity).value_or(c.velocity_min_m_s);
+  auto basis_choice = [](TomlSection& t) {
+    return t.choice<VelocityMinBasis>("velocity_min_basis", {{"normal_depth", VelocityMinBasis::normal_depth},
+                                                             {"full_flow", VelocityMinBasis::full_flow}});
+  };
+  c.velocity_min_basis = basis_choice(s).value_or(c.velocity_min_basis);
   c.velocity_max_m_s = optional_quantity(s, "velocity_max", Dimension::velocity, c.velocity_max_m_s, p.file);
   c.capacity_ratio_max = positive_number(s, "capacity_ratio_max", c.capacity_ratio_max);
   c.cover_min_m = optional_quantity(s, "cover_min", Dimension::length, c.cover_min_m, p.file);
@@ -314,6 +342,7 @@ void read_criteria(TomlSection s, Project& p) {
         o.freeboard_m = f.quantity("freeboard", Dimension::length);
       } else {
         o.velocity_min_m_s = f.quantity("velocity_min", Dimension::velocity);
+        o.velocity_min_basis = basis_choice(f);
         o.velocity_max_m_s = f.quantity("velocity_max", Dimension::velocity);
         o.capacity_ratio_max = f.number("capacity_ratio_max");
         o.cover_min_m = f.quantity("cover_min", Dimension::length);

@@ -52,13 +52,14 @@ const std::vector<std::string>& project_key_table() {
         "sanitary.infiltration_per_length", "sanitary.infiltration_per_area",
         // methods, plausibility, criteria
         "methods", "methods.friction", "methods.structure_loss", "methods.benching", "methods.water_temperature",
+        "methods.structure_energy", "methods.structures", "methods.structures.*", "methods.structures.*.structure_energy",
         "methods.k_by_type", "methods.k_by_type.*", "plausibility", "plausibility.invert_min",
         "plausibility.invert_max", "plausibility.diameter_min", "plausibility.diameter_max",
         "plausibility.length_tolerance", "plausibility.manning_n_min", "plausibility.manning_n_max",
         "plausibility.ks_max", "plausibility.level_tolerance", "plausibility.invert_step_max", "criteria",
         "criteria.freeboard", "criteria.velocity_min", "criteria.velocity_max", "criteria.capacity_ratio_max",
-        "criteria.cover_min", "criteria.structures", "criteria.structures.*", "criteria.structures.*.freeboard",
-        "criteria.conduits", "criteria.conduits.*", "criteria.conduits.*.velocity_min",
+        "criteria.cover_min", "criteria.velocity_min_basis", "criteria.structures", "criteria.structures.*", "criteria.structures.*.freeboard",
+        "criteria.conduits", "criteria.conduits.*", "criteria.conduits.*.velocity_min", "criteria.conduits.*.velocity_min_basis",
         "criteria.conduits.*.velocity_max", "criteria.conduits.*.capacity_ratio_max", "criteria.conduits.*.cover_min",
         // pump stations and force mains
         "pump_stations", "pump_stations[].id", "pump_stations[].pump_on", "pump_stations[].pump_off",

@@ -153,7 +153,7 @@ void PipeReader::read_geometry(OGRFeature& feature, model::Conduit& c, const Fea
 void PipeReader::read_length(OGRFeature& feature, model::Conduit& c, const FeatureRef& who) {
   c.length_m = c.geometry_length_m;
   if (col_.length < 0) return;
-  auto use_geometry = [&c] { return "the geometry length " + q(c.geometry_length_m, Dimension::length) + " is used"; };
+  auto use_geometry = [&c] { return "the geometry length " + q_distance(c.geometry_length_m) + " is used"; };
   const RawNumber raw = read_number(feature, col_.length);
   if (raw.state == RawNumber::State::null) {
     who.add("DATA_MISSING", Severity::info, f_.length.field, f_.length.field + " is empty; " + use_geometry() + ".");
@@ -175,7 +175,7 @@ void PipeReader::read_length(OGRFeature& feature, model::Conduit& c, const Featu
   const double tol = p_.plausibility.length_tolerance;
   if (std::abs(si / c.geometry_length_m - 1.0) > tol) {
     who.add("DATA_IMPLAUSIBLE", Severity::warning, f_.length.field,
-            shown() + " differs from the geometry length " + q(c.geometry_length_m, Dimension::length) +
+            shown() + " differs from the geometry length " + q_distance(c.geometry_length_m) +
                 " by more than " + format_fixed(tol * 100.0, 1) + " %; the geometry length is used.",
             si, c.geometry_length_m, Dimension::length);
     return;

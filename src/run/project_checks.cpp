@@ -61,6 +61,7 @@ void report_unknown_ids(const config::Project& p, const model::Network& net, Fin
   };
   for (const auto& [id, o] : p.structure_criteria) check(id, true, "[criteria.structures.\"" + id + "\"]");
   for (const auto& [id, o] : p.conduit_criteria) check(id, false, "[criteria.conduits.\"" + id + "\"]");
+  for (const auto& [id, e] : p.methods.structure_energy_by_id) check(id, true, "[methods.structures.\"" + id + "\"]");
   for (const auto& id : p.outfalls.ids) check(id, true, "outfalls.ids");
   for (const auto& [id, level] : p.outfalls.tailwater_m) check(id, true, "[outfalls.tailwater]");
 }

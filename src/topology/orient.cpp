@@ -141,8 +141,8 @@ class Orienter {
       const std::string reason =
           b == Basis::outfall_turned
               ? "its first end is outfall " + name(c.to)
-              : "its inverts fall from " + fixed(*c.invert_up_m, 3) + " m at its last vertex to " + fixed(*c.invert_down_m, 3) +
-                    " m at its first";
+              : "its inverts fall from " + q(*c.invert_up_m, units::Dimension::length) + " at its last vertex to " +
+                    q(*c.invert_down_m, units::Dimension::length) + " at its first";
       findings_.push_back(conduit_finding(c, "REVERSED", Severity::info,
                                           "pipe " + label(c, i) + " was digitised against the flow (" + reason +
                                               "); turned so it runs from " + name(c.from) + " to " + name(c.to)));
@@ -167,9 +167,9 @@ class Orienter {
     const double rise = *c.invert_down_m - *c.invert_up_m;
     const double length = c.length_m > 0.0 ? c.length_m : c.geometry_length_m;
     Finding f = conduit_finding(c, "ADVERSE_SLOPE", Severity::warning,
-                                "pipe " + label(c, i) + ": inverts rise " + fixed(rise, 3) + " m along the flow from " +
-                                    name(c.from) + " (" + fixed(*c.invert_up_m, 3) + " m) to " + name(c.to) + " (" +
-                                    fixed(*c.invert_down_m, 3) + " m) that " + direction_source +
+                                "pipe " + label(c, i) + ": inverts rise " + q(rise, units::Dimension::length) + " along the flow from " +
+                                    name(c.from) + " (" + q(*c.invert_up_m, units::Dimension::length) + ") to " + name(c.to) +
+                                    " (" + q(*c.invert_down_m, units::Dimension::length) + ") that " + direction_source +
                                     "; kept in that direction");
     if (length > 0.0) {
       f.value = -rise / length;

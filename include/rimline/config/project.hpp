@@ -50,17 +50,21 @@
 //               and / or structures.fields.population)
 //   [tailwater] mode = "fixed" | "free" | "higher", levels = ["12.4 m", "13.0 m"]
 //   [methods]   friction = "manning" | "darcy_weisbach", structure_loss = "constant_k" | "bend" | "hec22",
-//               water_temperature = "15 C", benching = "flat"|"half"|"full"
+//               water_temperature = "15 C" (kinematic viscosity for Darcy-Weisbach), benching = "flat"|"half"|"full",
+//               structure_energy = "whole_loss" (K V_o^2/2g is the whole loss across a structure; default)
+//                                | "still_pool" (the arriving pipes' velocity head is lost too; not with hec22)
 //   [methods.k_by_type] manhole = 0.5, inlet = 0.5, junction = 0.6
+//   [methods.structures."T-04"] structure_energy = "still_pool"   (per structure id)
 //   [plausibility] invert_min = "-500 m", invert_max = "900 m" (inverts and rims outside are sentinels),
 //               diameter_min = "30 mm", diameter_max = "10 m", length_tolerance = 0.2 (mapped vs geometry),
 //               manning_n_min = 0.008, manning_n_max = 0.05, ks_max = "0.1 m" (fields and project defaults),
 //               level_tolerance = "0.1 m" (pipe inverts against their structures' invert and rim),
 //               invert_step_max = "3 m" (invert step between the pipes at a structure)
 //   [criteria]  freeboard = "0.3 m", velocity_min = "0.9 m/s", velocity_max = "4.6 m/s" (or "off"),
-//               capacity_ratio_max = 1.0, cover_min = "0.6 m"
+//               velocity_min_basis = "normal_depth" (design flow at normal depth; default) | "full_flow"
+//               (flowing full at the pipe's slope), capacity_ratio_max = 1.0, cover_min = "0.6 m"
 //   [criteria.structures."T-04"] freeboard = "0.5 m"          (per structure id)
-//   [criteria.conduits."D-05"]   velocity_min = "0.6 m/s", velocity_max, capacity_ratio_max, cover_min
+//   [criteria.conduits."D-05"]   velocity_min = "0.6 m/s", velocity_min_basis, velocity_max, capacity_ratio_max, cover_min
 //   [[pump_stations]]  one per pump station (parsed in src/config/project_force_mains.cpp):
 //               id = "WW-1" (the wet-well structure; the force main leaves it),
 //               pump_on = "14.2 m", pump_off = "12.8 m" (wet-well levels, datum of the inverts),
@@ -221,9 +225,14 @@ struct GroundSettings {
   double rim_tolerance_m = 0.5;  // a recorded rim this far from the ground is a finding; common practice, no source
 };
 
+// The velocity the minimum-velocity (self-cleansing) rule looks at: the design flow at normal depth
+// in the pipe itself, or the pipe flowing full at its slope.
+enum class VelocityMinBasis { normal_depth, full_flow };
+
 struct Criteria {
   double freeboard_m = 0.3;          // common practice, no source (agency manuals range 0 - 0.3 m)
   double velocity_min_m_s = 0.9;     // storm: TxDOT Hydraulic Design Manual (2016 revision), 3 ft/s
+  VelocityMinBasis velocity_min_basis = VelocityMinBasis::normal_depth;
   std::optional<double> velocity_max_m_s = 4.6;  // erosion protection ~15 ft/s (Ten States Standards, from memory)
   double capacity_ratio_max = 1.0;   // Q/Qfull; common practice, no source
   std::optional<double> cover_min_m; // off unless set
@@ -233,6 +242,7 @@ struct Criteria {
 struct CriteriaOverride {
   std::optional<double> freeboard_m;
   std::optional<double> velocity_min_m_s;
+  std::optional<VelocityMinBasis> velocity_min_basis;
   std::optional<double> velocity_max_m_s;
   std::optional<double> capacity_ratio_max;
   std::optional<double> cover_min_m;
@@ -242,8 +252,14 @@ struct Methods {
   hydraulics::FrictionLaw friction = hydraulics::FrictionLaw::manning;
   hydraulics::StructureLossMethod structure_loss = hydraulics::StructureLossMethod::constant_k;
   hydraulics::Benching benching = hydraulics::Benching::flat;
+  // Water temperature for the kinematic viscosity of Darcy-Weisbach (Reynolds number); 15 degC is a
+  // common design figure for sewage and storm water (common practice, no source).
   double water_temperature_c = 15.0;
   std::map<std::string, double> k_by_type;  // structure kind name -> K
+  // How a structure's loss is booked against the pipes arriving there (hydraulics/losses.hpp),
+  // for the run and per structure id ([methods.structures."ID"] structure_energy).
+  hydraulics::StructureEnergy structure_energy = hydraulics::StructureEnergy::whole_loss;
+  std::map<std::string, hydraulics::StructureEnergy> structure_energy_by_id;
 };
 
 struct Project {

@@ -112,7 +112,7 @@ TEST_CASE("badinput catchments: C outside 0-1 and a negative inlet time take the
   CHECK(message(find(r, "DATA_IMPLAUSIBLE", "K3", "RUNOFF_C")) ==
         "RUNOFF_C 1.4 is outside 0 to 1; the default C 0.5 is used.");
   CHECK(message(find(r, "DATA_IMPLAUSIBLE", "K3", "INLET_MIN")) ==
-        "INLET_MIN -5 min is negative; the default inlet time 12.00 min is used.");
+        "INLET_MIN -5 min is negative; the default inlet time 12.0 min is used.");
   const auto& k = r.catchments[catchment(r, "K3")];
   CHECK(k.runoff_c == 0.5);
   CHECK(k.inlet_time_s == 720.0);
