@@ -53,7 +53,7 @@ void check_structure(const model::Structure& s, const solve::StructureResult& r,
                    "structure " + s.id + ": the HGL (" + q(r.hgl_m, L) + ") is " + q(-fb, L) + " above the rim (" +
                        q(*s.rim_m, L) + "); water leaves the system here."});
   } else if (fb < freeboard_m) {
-    out.push_back({"FREEBOARD", Severity::warning, LayerRole::structures, s.id, "", fb, freeboard_m,
+    out.push_back({"FREEBOARD", Severity::error, LayerRole::structures, s.id, "", fb, freeboard_m,
                    units::Dimension::length,
                    "structure " + s.id + ": the HGL (" + q(r.hgl_m, L) + ") is " + q(fb, L) +
                        " below the rim, less than the required " + q(freeboard_m, L) + "."});

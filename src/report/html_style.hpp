@@ -41,6 +41,10 @@ figure.profile-figure { margin: 14px 0 22px; background: #fff; border: 1px solid
 figure.profile-figure svg { display: block; width: 100%; height: auto; }
 figcaption { font-size: 13px; color: var(--muted); margin-top: 4px; }
 footer { padding: 4px 32px 28px; }
+p.verdict-head { font-size: 16px; padding: 8px 12px; border: 2px solid var(--ink); background: #fff; }
+p.verdict-head.fails { border-left: 12px solid var(--error); }
+p.verdict-head.meets { border-left: 12px double var(--ink); }
+ul.verdict li { margin: 4px 0; }
 @media print { body { background: #fff; } nav { display: none; } details { display: block; } }
 )css";
 

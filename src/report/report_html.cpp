@@ -16,6 +16,7 @@
 #include "report/html_style.hpp"
 #include "report/pump_station_html.hpp"
 #include "report/sheet_text.hpp"
+#include "report/verdict.hpp"
 #include "rimline/hydraulics/friction.hpp"
 #include "rimline/method_registry.hpp"
 #include "rimline/report/outputs.hpp"
@@ -354,12 +355,12 @@ void write_report_html(std::ostream& out, const run::CheckRun& run, const std::v
                   esc(run.project.name) + "</title>\n<style>\n" + std::string(report_css) + "</style>\n</head>\n<body>\n";
   h += "<header><div class=\"mark\">rimline</div><h1>Hydraulic grade line review: " + esc(run.project.name) +
        "</h1>\n<p class=\"caution\" id=\"caution-top\">" + esc(caution) + "</p></header>\n<main>\n";
-  h += "<nav><a href=\"#summary\">Summary</a> <a href=\"#inputs\">Inputs</a> <a href=\"#methods\">Methods</a> "
+  h += "<nav><a href=\"#verdict\">Verdict</a> <a href=\"#summary\">Summary</a> <a href=\"#inputs\">Inputs</a> <a href=\"#methods\">Methods</a> "
        "<a href=\"#exceptions\">Exceptions</a> " +
        std::string(run.pump_stations.empty() ? "" : "<a href=\"#pump-stations\">Pump stations</a> ") +
        "<a href=\"#profiles\">Profiles</a> <a href=\"#data-findings\">Data findings</a>" +
        std::string(run.catchment_flows ? " <a href=\"#design-flows\">Design flows</a>" : "") + "</nav>\n";
-  out << h;
+  out << h << verdict_section(run);
   out << summary_section(run, date) << inputs_section(run) << methods_section(run) << design_flows_section(run);
   out << "<section id=\"exceptions\"><h2>Exception list</h2>\n<p>Design criteria not met, worst case over the "
          "tailwater cases, by severity. A structure warning or error opens to its energy budget down to the "
