@@ -305,4 +305,6 @@ std::vector<SceneMarker> place_findings(const ProfileScene& scene, const Finding
   return number_markers(std::move(out));
 }
 
+std::string pipe_size_text(const hydraulics::Section& section, units::System system) { return size_text(section, system); }
+
 }  // namespace rimline::report

@@ -104,4 +104,7 @@ ProfileScene build_scene(const run::CheckRun& run, const ProfilePath& path, std:
 // the path, placed at that feature: structures at their station, conduits mid-pipe.
 std::vector<SceneMarker> place_findings(const ProfileScene& scene, const Findings& findings, units::System system);
 
+// A pipe's size as the drawings label it ("1500 mm", "60 in", "1200 x 900 mm"); also the results tables'.
+std::string pipe_size_text(const hydraulics::Section& section, units::System system);
+
 }  // namespace rimline::report
