@@ -23,14 +23,17 @@ std::string key(LayerRole layer, const std::string& id) { return std::string(1, 
 FeatureLinks::FeatureLinks(const run::CheckRun& run, const std::vector<RenderedProfile>& profiles)
     : run_(run), profiles_(profiles) {
   const auto& net = run.read.network;
-  for (std::size_t s = 0; s < net.structures.size(); ++s) map_index_.emplace("s" + net.structures[s].id, s);
-  for (std::size_t c = 0; c < net.conduits.size(); ++c) map_index_.emplace("c" + net.conduits[c].id, c);
+  for (std::size_t c = 0; c < run.cases.size(); ++c) case_of_label_.emplace(run.cases[c].label, c);
   for (std::size_t k = 0; k < profiles.size(); ++k) {
     for (const auto& id : profiles[k].structure_ids) profiles_of_["s" + id].push_back(k);
     for (const auto& id : profiles[k].conduit_ids) profiles_of_["c" + id].push_back(k);
   }
+  // A grouped map has no element per feature: nothing to index (a city's 10^6 ids).
+  detailed_ = net.structures.size() + net.conduits.size() <= detailed_features;
+  if (!detailed_) return;
+  for (std::size_t s = 0; s < net.structures.size(); ++s) map_index_.emplace("s" + net.structures[s].id, s);
+  for (std::size_t c = 0; c < net.conduits.size(); ++c) map_index_.emplace("c" + net.conduits[c].id, c);
   for (std::size_t k = 0; k < run.findings.size(); ++k) findings_[key(run.findings[k].layer, run.findings[k].feature_id)].push_back(k);
-  for (std::size_t c = 0; c < run.cases.size(); ++c) case_of_label_.emplace(run.cases[c].label, c);
 }
 
 std::optional<FeatureLinks::ProfileLink> FeatureLinks::profile(LayerRole layer, const std::string& id,

@@ -22,18 +22,20 @@ std::optional<model::Point2> line_middle(const std::vector<model::Point2>& v) {
 
 FeatureLocator::FeatureLocator(const run::CheckRun& run) : run_(run) {
   const auto& net = run.read.network;
+  structures_.reserve(net.structures.size());
+  conduits_.reserve(net.conduits.size());
   for (std::size_t k = 0; k < net.structures.size(); ++k) structures_.emplace(net.structures[k].id, k);
   for (std::size_t k = 0; k < net.conduits.size(); ++k) conduits_.emplace(net.conduits[k].id, k);
   for (std::size_t k = 0; k < run.catchments.size(); ++k) catchments_.emplace(run.catchments[k].id, k);
 }
 
 std::optional<std::size_t> FeatureLocator::structure(const std::string& id) const {
-  const auto it = structures_.find(id);
+  const auto it = structures_.find(std::string_view(id));
   return it == structures_.end() ? std::nullopt : std::optional<std::size_t>(it->second);
 }
 
 std::optional<std::size_t> FeatureLocator::conduit(const std::string& id) const {
-  const auto it = conduits_.find(id);
+  const auto it = conduits_.find(std::string_view(id));
   return it == conduits_.end() ? std::nullopt : std::optional<std::size_t>(it->second);
 }
 
@@ -49,7 +51,7 @@ std::optional<model::Point2> FeatureLocator::place(const Finding& f) const {
       if (const auto c = conduit(f.feature_id)) return line_middle(net.conduits[*c].vertices);
       return std::nullopt;
     case LayerRole::catchments: {
-      const auto it = catchments_.find(f.feature_id);
+      const auto it = catchments_.find(std::string_view(f.feature_id));
       if (it == catchments_.end()) return std::nullopt;
       return run_.catchments[it->second].centroid;
     }

@@ -4,6 +4,7 @@
 // along the vertices), a catchment at its centroid, a pump station at its wet well. Run CRS, metres.
 #include <optional>
 #include <string>
+#include <string_view>
 #include <unordered_map>
 
 #include "rimline/finding.hpp"
@@ -27,7 +28,8 @@ class FeatureLocator {
 
  private:
   const run::CheckRun& run_;
-  std::unordered_map<std::string, std::size_t> structures_, conduits_, catchments_;
+  // Keyed by views of the run's own ids (a city's 10^6 ids are not copied).
+  std::unordered_map<std::string_view, std::size_t> structures_, conduits_, catchments_;
 };
 
 }  // namespace rimline::report

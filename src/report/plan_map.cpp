@@ -39,6 +39,9 @@ int structure_rank(std::string_view s) {
 }
 int conduit_rank(std::string_view s) { return s == "surcharged" ? 0 : s == "not_checked" ? 1 : s == "force_main" ? 2 : 3; }
 
+// A grouped map's cell, in drawing units (about 1/125 of the map's width).
+constexpr double group_cell = 8.0;
+
 bool failing(std::string_view structure_status) { return structure_status == "flooded" || structure_status == "freeboard"; }
 
 std::string scale_bar(const PlanGeometry& g, units::System sys) {
@@ -110,7 +113,7 @@ PlanMap plan_map(const run::CheckRun& run, const FeatureLinks& links) {
   const auto sys = run.report_units;
   PlanMap out;
   const PlanGeometry g = plan_geometry(net, 1000.0, 760.0);
-  out.simplified = net.structures.size() + net.conduits.size() > detailed_features;
+  out.simplified = !links.detailed();
   std::vector<std::string> s_status(net.structures.size()), c_status(net.conduits.size());
   for (std::size_t s = 0; s < net.structures.size(); ++s) s_status[s] = structure_status(run, s);
   for (std::size_t c = 0; c < net.conduits.size(); ++c) c_status[c] = conduit_status(run, c);
@@ -181,7 +184,7 @@ PlanMap plan_map(const run::CheckRun& run, const FeatureLinks& links) {
     svg += "</g>\n";
   } else {
     // Grid cells of 8 drawing units: one marker per cell, one segment per pair of cells.
-    const double cell = 8.0;
+    const double cell = group_cell;
     auto cell_of = [&](const model::Point2& p) {
       return std::make_pair(static_cast<int>(std::floor(g.sx(p.x) / cell)), static_cast<int>(std::floor(g.sy(p.y) / cell)));
     };
@@ -250,9 +253,15 @@ PlanMap plan_map(const run::CheckRun& run, const FeatureLinks& links) {
     if (f.severity == Severity::info) continue;
     const auto p = where.place(f);
     if (!p) continue;
-    const std::pair<int, int> at{static_cast<int>(std::lround(g.sx(p->x) * 10)), static_cast<int>(std::lround(g.sy(p->y) * 10))};
-    auto [it, fresh] = rings.try_emplace(at, f.severity, f.feature_id + ": " + f.code);
-    if (!fresh) {
+    // At the feature, or at the centre of its cell on a grouped map (one ring per cell).
+    double x = g.sx(p->x), y = g.sy(p->y);
+    if (out.simplified) x = (std::floor(x / group_cell) + 0.5) * group_cell, y = (std::floor(y / group_cell) + 0.5) * group_cell;
+    const std::pair<int, int> at{static_cast<int>(std::lround(x * 10)), static_cast<int>(std::lround(y * 10))};
+    auto [it, fresh] = rings.try_emplace(
+        at, f.severity, out.simplified ? std::string("warnings or errors at structures or pipes in this cell") : f.feature_id + ": " + f.code);
+    if (!fresh && out.simplified) {
+      it->second.first = std::max(it->second.first, f.severity);
+    } else if (!fresh) {
       it->second.first = std::max(it->second.first, f.severity);
       if (it->second.second.find(f.code) == std::string::npos) it->second.second += ", " + f.code;
     }

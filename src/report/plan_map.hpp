@@ -4,7 +4,7 @@
 // structure or pipe with a criteria or data warning or error ringed where it is on the ground, outfalls
 // (squares) and pump stations (diamonds) labelled, a scale bar and a grid-north arrow. A small inline
 // script shows a clicked feature's figures with links to its profile and its exception rows.
-// A city-sized export (more than `detailed_features` structures and pipes) is drawn simplified:
+// A city-sized export (more than `detailed_features` structures and pipes, feature_links.hpp) is drawn simplified:
 // structures grouped into grid cells and pipes as one segment between cells, each group in its worst
 // status; the page says so, and the tables and results.gpkg keep every feature.
 #include <cstddef>
@@ -15,8 +15,6 @@
 #include "rimline/run/check_run.hpp"
 
 namespace rimline::report {
-
-inline constexpr std::size_t detailed_features = 6000;  // common practice, no source: a page stays responsive
 
 struct PlanGeometry {
   double min_x = 0.0, min_y = 0.0, max_x = 1.0, max_y = 1.0;  // run CRS, metres
