@@ -66,6 +66,13 @@ ul.legend { list-style: none; padding: 0; margin: 6px 0; font-size: 12px; displa
 .swatch.ring.warning { border-color: var(--warning); border-style: dashed; }
 p.note { font-size: 13px; border-left: 4px solid var(--accent); padding-left: 8px; }
 tr:target { outline: 3px solid var(--accent); }
+div.scroll { overflow-x: auto; max-width: 100%; }
+table.results td { white-space: nowrap; font-variant-numeric: tabular-nums; }
+table.sortable th button { font: inherit; font-weight: bold; background: none; border: 0; padding: 0; cursor: pointer; color: var(--ink); text-align: left; }
+table.sortable th[aria-sort="ascending"] button::after { content: " \2191"; }
+table.sortable th[aria-sort="descending"] button::after { content: " \2193"; }
+td.st-flooded, td.st-freeboard { color: var(--error); font-weight: bold; }
+td.st-surcharged { color: var(--warning); font-weight: bold; }
 @media print { body { background: #fff; } nav { display: none; } details { display: block; } }
 )css";
 

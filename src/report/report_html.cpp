@@ -17,6 +17,8 @@
 #include "report/pump_station_html.hpp"
 #include "report/sheet_text.hpp"
 #include "report/verdict.hpp"
+#include "report/inputs_detail.hpp"
+#include "report/results_tables.hpp"
 #include "report/exception_links.hpp"
 #include "report/plan_map.hpp"
 #include "rimline/hydraulics/friction.hpp"
@@ -52,6 +54,7 @@ std::string summary_section(const run::CheckRun& run, const std::string& date) {
   h += row({"Run date (UTC)", esc(date)});
   h += row({"rimline", esc(version_string)});
   h += row({"Report units", esc(units_text(sys))});
+  h += row({"Vertical datum", esc(vertical_datum_text(run))});
   h += row({"Coordinate system", esc(net.crs_description) + (net.crs_note.empty() ? "" : " (" + esc(net.crs_note) + ")")});
   h += row({"Flow case", esc(flow_case_text(run))});
   h += row({"Network", std::to_string(ns.structures) + " structures (" + std::to_string(ns.derived_structures) +
@@ -95,6 +98,7 @@ std::string inputs_section(const run::CheckRun& run) {
     }
     h += "</table>\n";
   }
+  h += inputs_detail(run);
   h += "</section>\n";
   return h;
 }
@@ -365,7 +369,7 @@ void write_report_html(std::ostream& out, const run::CheckRun& run, const std::v
   h += "<nav><a href=\"#verdict\">Verdict</a> <a href=\"#plan\">Plan</a> <a href=\"#summary\">Summary</a> <a href=\"#inputs\">Inputs</a> <a href=\"#methods\">Methods</a> "
        "<a href=\"#exceptions\">Exceptions</a> " +
        std::string(run.pump_stations.empty() ? "" : "<a href=\"#pump-stations\">Pump stations</a> ") +
-       "<a href=\"#profiles\">Profiles</a> <a href=\"#data-findings\">Data findings</a>" +
+       "<a href=\"#results\">Results</a> <a href=\"#profiles\">Profiles</a> <a href=\"#data-findings\">Data findings</a>" +
        std::string(run.catchment_flows ? " <a href=\"#design-flows\">Design flows</a>" : "") + "</nav>\n";
   const FeatureLinks links(run, profiles);
   out << h << verdict_section(run) << plan_map_section(run, links);
@@ -375,10 +379,11 @@ void write_report_html(std::ostream& out, const run::CheckRun& run, const std::v
          "outfall.</p>\n";
   out << findings_table(run, criteria, "exception-table", true, links) << "</section>\n";
   out << pump_stations_section(run);
+  out << results_tables_section(run, links);
   out << profiles_section(profiles, pdf_written, run.report_units, selection);
   out << data_findings_section(run, data, links);
   out << "</main>\n<footer><p class=\"caution\" id=\"caution\">" << esc(caution)
-      << "</p></footer>\n</body>\n</html>\n";
+      << "</p></footer>\n<script>" << sortable_script << "</script>\n</body>\n</html>\n";
 }
 
 std::string report_html(const run::CheckRun& run, const std::vector<RenderedProfile>& profiles,

@@ -5,19 +5,11 @@
 
 #include "report/plan_map.hpp"
 #include "report_fixture.hpp"
+#include "text_count.hpp"
 #include "xml_check.hpp"
 
 using namespace rimline;
 
-namespace {
-
-std::size_t count(const std::string& text, const std::string& what) {
-  std::size_t n = 0;
-  for (auto p = text.find(what); p != std::string::npos; p = text.find(what, p + 1)) ++n;
-  return n;
-}
-
-}  // namespace
 
 TEST_CASE("the plan map draws every structure and pipe once, coloured by its result", "[report][plan]") {
   const auto run = test::fixture_run();
@@ -29,13 +21,13 @@ TEST_CASE("the plan map draws every structure and pipe once, coloured by its res
   CHECK_FALSE(m.simplified);
   CHECK(m.structures_drawn == run.read.network.structures.size());
   CHECK(m.conduits_drawn == 0);  // the fixture's pipes have no plan vertices
-  CHECK(count(m.svg, "class=\"feat structure\"") == 7);
+  CHECK(test::count_of(m.svg, "class=\"feat structure\"") == 7);
   // S2 is short of its freeboard (0.150 m of 0.300 m): drawn in that status, labelled, ringed.
   CHECK(m.svg.find("id=\"map-s2\" class=\"feat structure\" data-key=\"s2\" data-status=\"freeboard\"") != std::string::npos);
   CHECK(m.svg.find(">S2</text>") != std::string::npos);
-  CHECK(count(m.svg, "class=\"finding-ring\"") >= 1);
+  CHECK(test::count_of(m.svg, "class=\"finding-ring\"") >= 1);
   // Outfalls S0 and S5 are squares with labels.
-  CHECK(count(m.svg, "<rect id=\"map-s") == 2);
+  CHECK(test::count_of(m.svg, "<rect id=\"map-s") == 2);
   CHECK(m.svg.find("S0 (outfall)") != std::string::npos);
   CHECK(m.svg.find("id=\"scale-bar\"") != std::string::npos);
   CHECK(m.svg.find("id=\"north-arrow\"") != std::string::npos);
