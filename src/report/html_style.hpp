@@ -41,38 +41,6 @@ figure.profile-figure { margin: 14px 0 22px; background: #fff; border: 1px solid
 figure.profile-figure svg { display: block; width: 100%; height: auto; }
 figcaption { font-size: 13px; color: var(--muted); margin-top: 4px; }
 footer { padding: 4px 32px 28px; }
-p.verdict-head { font-size: 16px; padding: 8px 12px; border: 2px solid var(--ink); background: #fff; }
-p.verdict-head.fails { border-left: 12px solid var(--error); }
-p.verdict-head.meets { border-left: 12px double var(--ink); }
-ul.verdict li { margin: 4px 0; }
-.plan-wrap { display: flex; gap: 14px; align-items: flex-start; }
-figure#plan-map { flex: 1 1 auto; margin: 0; border: 1px solid var(--rule); background: #fff; min-width: 0; }
-figure#plan-map svg { display: block; width: 100%; height: auto; }
-#plan-svg .feat { cursor: pointer; }
-#plan-svg .chosen { stroke: #000; stroke-width: 3; }
-#plan-svg polyline.chosen { stroke-width: 6; }
-#plan-svg .map-label { paint-order: stroke; stroke: #fff; stroke-width: 3px; fill: var(--ink); }
-aside#map-info { flex: 0 0 300px; font-size: 13px; border: 1px solid var(--rule); background: #fff; padding: 6px 10px; }
-aside#map-info h3 { margin: 4px 0; }
-ul.legend { list-style: none; padding: 0; margin: 6px 0; font-size: 12px; display: flex; flex-wrap: wrap; gap: 4px 16px; }
-.swatch { display: inline-block; width: 14px; height: 14px; margin-right: 5px; vertical-align: -2px; border: 1px solid var(--ink);
-          -webkit-print-color-adjust: exact; print-color-adjust: exact; }
-.swatch.dot { border-radius: 50%; }
-.swatch.bar { height: 5px; vertical-align: 3px; border: 0; }
-.swatch.square { background: #fff; }
-.swatch.diamond { transform: rotate(45deg) scale(0.8); background: #fff; }
-.swatch.ring { border-radius: 50%; background: none; border-width: 2px; }
-.swatch.ring.error { border-color: var(--error); }
-.swatch.ring.warning { border-color: var(--warning); border-style: dashed; }
-p.note { font-size: 13px; border-left: 4px solid var(--accent); padding-left: 8px; }
-tr:target { outline: 3px solid var(--accent); }
-div.scroll { overflow-x: auto; max-width: 100%; }
-table.results td { white-space: nowrap; font-variant-numeric: tabular-nums; }
-table.sortable th button { font: inherit; font-weight: bold; background: none; border: 0; padding: 0; cursor: pointer; color: var(--ink); text-align: left; }
-table.sortable th[aria-sort="ascending"] button::after { content: " \2191"; }
-table.sortable th[aria-sort="descending"] button::after { content: " \2193"; }
-td.st-flooded, td.st-freeboard { color: var(--error); font-weight: bold; }
-td.st-surcharged { color: var(--warning); font-weight: bold; }
 @media print { body { background: #fff; } nav { display: none; } details { display: block; } }
 )css";
 

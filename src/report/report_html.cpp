@@ -14,6 +14,7 @@
 #include "report/method_text.hpp"
 #include "report/html_cells.hpp"
 #include "report/html_style.hpp"
+#include "report/review_style.hpp"
 #include "report/pump_station_html.hpp"
 #include "report/sheet_text.hpp"
 #include "report/verdict.hpp"
@@ -363,7 +364,7 @@ void write_report_html(std::ostream& out, const run::CheckRun& run, const std::v
   // Written a section at a time: the page of a city's run is ~22 MB, and built as one string it
   // held ~0.1 GB at once (its growth and the sections appended to it).
   std::string h = "<!DOCTYPE html>\n<html lang=\"en\">\n<head>\n<meta charset=\"utf-8\">\n<title>rimline review: " +
-                  esc(run.project.name) + "</title>\n<style>\n" + std::string(report_css) + "</style>\n</head>\n<body>\n";
+                  esc(run.project.name) + "</title>\n<style>\n" + std::string(report_css) + review_css + "</style>\n</head>\n<body>\n";
   h += "<header><div class=\"mark\">rimline</div><h1>Hydraulic grade line review: " + esc(run.project.name) +
        "</h1>\n<p class=\"caution\" id=\"caution-top\">" + esc(caution) + "</p></header>\n<main>\n";
   h += "<nav><a href=\"#verdict\">Verdict</a> <a href=\"#plan\">Plan</a> <a href=\"#summary\">Summary</a> <a href=\"#inputs\">Inputs</a> <a href=\"#methods\">Methods</a> "

@@ -3,7 +3,12 @@
 # checks the outputs with outside tools: xmllint (every profile SVG is well-formed XML),
 # poppler (profiles.pdf has one A3 page per profile and its first page renders), and headless
 # Chromium (report.html loads without console messages, the exception table and a profile are
-# in the DOM, and printed they show their text; a screenshot is not blank).
+# in the DOM, and printed they show their text; a screenshot is not blank). report_probe.html drives
+# the page in a frame as a reviewer would: the verdict first and naming T-04's shortfall, the plan
+# map with one element per structure and pipe, a click showing a feature, the results tables
+# sorting and filtering, every exception row's links reaching its profile and map feature, no
+# resource fetched. Printed (A3 landscape) the energy budgets show; profiles.pdf's text is at least
+# 2.5 mm high (pdftotext -bbox word heights) and it holds the plan sheet.
 # Needs chromium, poppler-utils and libxml2-utils (scripts/browser-test.sh installs them).
 # Usage: tests/e2e/browser/report_in_browser.sh path/to/rimline   Exit: 0 all passed, 1 otherwise.
 set -uo pipefail
@@ -67,6 +72,37 @@ for variant in metric us; do
   check "$variant: printed page shows the exception list and a profile's text" \
     bash -c 'grep -q "Exception list" "$0" && grep -q "vertical exaggeration" "$0" && grep -q "outfall" "$0"' \
     "$work/$variant-printed.txt"
+  printed_pages="$(pdfinfo "$work/$variant-printed.pdf" 2>/dev/null | awk '/^Pages:/ {print $2}')"
+  printed_size="$(pdfinfo "$work/$variant-printed.pdf" 2>/dev/null | awk -F': *' '/^Page size:/ {print $2}')"
+  # The demo prints to about 16 A3 landscape pages; a layout that breaks (a table one column per page,
+  # a drawing per page) shows as many more.
+  check "$variant: printed as ${printed_pages:-no} A3 landscape pages ($printed_size), 8 to 30" \
+    bash -c '[ "${0:-0}" -ge 8 ] && [ "${0:-0}" -le 30 ] && [[ "$1" == *"1191"*"x 841"* ]]' "$printed_pages" "$printed_size"
+  check "$variant: printed page shows the energy budget (open in print)" \
+    bash -c 'grep -q "HGL in the structure (its energy level)" "$0" && grep -q "Energy budget to the outfall" "$0"' \
+    "$work/$variant-printed.txt"
+  cp "$here/tests/e2e/browser/report_probe.html" "$out/report_probe.html"
+  chrome "$variant-probe" --allow-file-access-from-files --virtual-time-budget=20000 --dump-dom \
+    "file://$out/report_probe.html" >"$work/$variant-probe.html" 2>/dev/null
+  rm -f "$out/report_probe.html"
+  probes="$(grep -oE 'probe: (ok   |FAIL )[^<]*' "$work/$variant-probe.html" | sed 's/&amp;/\&/g; s/&lt;/</g; s/&gt;/>/g')"
+  check "$variant: the probe ran ($(echo "$probes" | grep -c 'probe: ok') checks passed)" \
+    bash -c '[ "$(echo "$0" | grep -c "probe: ok")" -ge 10 ]' "$probes"
+  while IFS= read -r line; do
+    [ -n "$line" ] || continue
+    what="${line#probe: ok   }"; what="${what#probe: FAIL }"
+    if [[ "$line" == "probe: ok"* ]]; then ok "$variant: $what"; else bad "$variant: $what"; fi
+  done <<<"$probes"
+  # Text on the profile sheets: word heights (pdftotext -bbox, points) at least 2.5 mm = 7.09 pt.
+  pdftotext -bbox "$out/profiles.pdf" "$work/$variant-bbox.html" 2>/dev/null
+  smallest="$(python3 -c '
+import re, sys
+hs = [float(b) - float(a) for a, b in re.findall(r"<word xMin=\"[\d.]+\" yMin=\"([\d.]+)\" xMax=\"[\d.]+\" yMax=\"([\d.]+)\"", open(sys.argv[1]).read())]
+print("%.2f" % (min(hs) * 25.4 / 72) if hs else "0")' "$work/$variant-bbox.html")"
+  check "$variant: profiles.pdf text at least 2.5 mm high (smallest word ${smallest} mm)" \
+    python3 -c 'import sys; sys.exit(0 if float(sys.argv[1]) >= 2.5 else 1)' "$smallest"
+  check "$variant: profiles.pdf holds the plan sheet" bash -c 'pdftotext "$0" - 2>/dev/null | grep -q "PLAN OF THE NETWORK"' \
+    "$out/profiles.pdf"
   chrome "$variant-shot" --hide-scrollbars --window-size=1400,2400 --screenshot="$work/$variant-shot.png" "$url" \
     >/dev/null 2>&1
   if [ "$variant" = metric ]; then
