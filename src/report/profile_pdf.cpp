@@ -133,16 +133,23 @@ void write_profiles_pdf(const run::CheckRun& run, const std::vector<ProfileSheet
                    scale_text(f),
                    date,
                    ++k,
-                   pages};
+                   pages,
+                   "TAILWATER",
+                   run.project.vertical_datum,
+                   "HGL-" + scene.name(),
+                   "0"};
     draw_title_block(info, sheet_width_mm, sheet_height_mm, canvas);
     cairo_show_page(cr);
   }
   // One page per pump station: its force main over every operating case.
   for (std::size_t i = 0; i < run.pump_stations.size(); ++i) {
     if (!run.pump_stations[i].layout.ok) continue;
-    draw_force_main(run, i, panel, canvas);
-    TitleInfo info{run.project.name, force_main_title(run, i), "every operating case", flow_case_text(run),
-                   units_text(run.report_units), "scales as drawn (no stated scale)", date, ++k, pages};
+    const std::string scales = draw_force_main(run, i, panel, canvas);
+    const auto& ps = run.project.pump_stations[i];
+    TitleInfo info{run.project.name, force_main_title(run, i),
+                   "1 to " + std::to_string(ps.duty_pumps) + " pumps, wet well low and high",
+                   flow_case_text(run), units_text(run.report_units), scales, date, ++k, pages, "OPERATING CASES",
+                   run.project.vertical_datum, "HGL-" + ps.id + "-FM", "0"};
     draw_title_block(info, sheet_width_mm, sheet_height_mm, canvas);
     cairo_show_page(cr);
   }
