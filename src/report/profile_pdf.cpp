@@ -7,6 +7,7 @@
 #include "report/profile_draw.hpp"
 #include "report/sheet_text.hpp"
 #include "report/title_block.hpp"
+#include "report/plan_sheet.hpp"
 #include "rimline/error.hpp"
 
 #if __has_include(<cairo-pdf.h>)
@@ -119,9 +120,18 @@ void write_profiles_pdf(const run::CheckRun& run, const std::vector<ProfileSheet
   int k = 0;
   int stations = 0;
   for (const auto& st : run.pump_stations) stations += st.layout.ok ? 1 : 0;
-  const int pages = static_cast<int>(sheets.size()) + stations;
+  const int pages = 1 + static_cast<int>(sheets.size()) + stations;
   std::optional<FindingIndex> own_index;
   const FindingIndex& index = shared_index ? *shared_index : own_index.emplace(run, &sheets);  // once for every page
+  {  // The plan of the whole network first: where each drawn path and finding is.
+    const std::string scale = draw_plan_sheet(run, panel, canvas);
+    TitleInfo info{run.project.name, "Plan of the network, coloured by result over the tailwater cases",
+                   "every tailwater case (the one that governs each feature)", flow_case_text(run),
+                   units_text(run.report_units), scale, date, ++k, pages, "TAILWATER", run.project.vertical_datum,
+                   "HGL-PLAN", "0"};
+    draw_title_block(info, sheet_width_mm, sheet_height_mm, canvas);
+    cairo_show_page(cr);
+  }
   for (const auto& sheet : sheets) {
     const ProfileScene scene = build_scene(run, sheet.path, sheet.case_index, sheet.number, &index);
     const PlotFrame f = draw_profile(scene, panel, canvas);

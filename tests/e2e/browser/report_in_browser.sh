@@ -49,8 +49,8 @@ for variant in metric us; do
     bash -c '[ "$0" -gt 0 ] && xmllint --noout "${@}" 2>/dev/null' "$nsvg" "${svgs[@]}"
   pages="$(pdfinfo "$out/profiles.pdf" 2>/dev/null | awk '/^Pages:/ {print $2}')"
   size="$(pdfinfo "$out/profiles.pdf" 2>/dev/null | awk -F': *' '/^Page size:/ {print $2}')"
-  check "$variant: profiles.pdf has one page per profile (${pages:-no} pages, $nsvg profiles)" \
-    test "${pages:-0}" -eq "$nsvg" -a "$nsvg" -gt 0
+  check "$variant: profiles.pdf has the plan and one page per profile (${pages:-no} pages, $nsvg profiles)" \
+    test "${pages:-0}" -eq $((nsvg + 1)) -a "$nsvg" -gt 0
   check "$variant: profiles.pdf pages are A3 landscape ($size)" bash -c '[[ "$0" == *"1190.55 x 841.89"* ]]' "$size"
   pdftoppm -r 30 -f 1 -l 1 -png "$out/profiles.pdf" "$work/$variant-page" 2>/dev/null
   page_png="$(ls "$work/$variant"-page*.png 2>/dev/null | head -1)"
