@@ -20,18 +20,6 @@ using units::Dimension;
 std::string esc(std::string_view s) { return xml_escape(s); }
 std::string num(double v) { return fixed_text(v, 1); }
 
-const StatusColour& structure_colour(std::string_view status) {
-  for (const auto& c : structure_palette)
-    if (c.status == status) return c;
-  return structure_palette.back();
-}
-
-const StatusColour& conduit_colour(std::string_view status) {
-  if (status == "force_main") return force_main_colour;
-  for (const auto& c : conduit_palette)
-    if (c.status == status) return c;
-  return conduit_palette.back();
-}
 
 // Worst first: a group of features takes the status of its worst member.
 int structure_rank(std::string_view s) {

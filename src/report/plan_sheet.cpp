@@ -20,18 +20,6 @@ const Rgb black{0, 0, 0};
 
 Rgb rgb(const StatusColour& c) { return Rgb{c.r / 255.0, c.g / 255.0, c.b / 255.0}; }
 
-const StatusColour& structure_colour(std::string_view status) {
-  for (const auto& c : structure_palette)
-    if (c.status == status) return c;
-  return structure_palette.back();
-}
-
-const StatusColour& conduit_colour(std::string_view status) {
-  if (status == "force_main") return force_main_colour;
-  for (const auto& c : conduit_palette)
-    if (c.status == status) return c;
-  return conduit_palette.back();
-}
 
 std::vector<Pt> circle(Pt at, double r, int n = 16) {
   std::vector<Pt> v;

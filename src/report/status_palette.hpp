@@ -34,4 +34,18 @@ inline constexpr std::array<StatusColour, 3> conduit_palette{{
 // Force mains, drawn apart from gravity pipes.
 inline constexpr StatusColour force_main_colour{"force_main", "Force main", "#6a3d9a", 106, 61, 154};
 
+// The colour of a status (an unknown status takes the palette's last, "not checked" grey).
+inline const StatusColour& structure_colour(std::string_view status) {
+  for (const auto& c : structure_palette)
+    if (c.status == status) return c;
+  return structure_palette.back();
+}
+
+inline const StatusColour& conduit_colour(std::string_view status) {
+  if (status == "force_main") return force_main_colour;
+  for (const auto& c : conduit_palette)
+    if (c.status == status) return c;
+  return conduit_palette.back();
+}
+
 }  // namespace rimline::report
