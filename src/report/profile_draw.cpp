@@ -16,8 +16,12 @@ constexpr double txt = min_text_mm;
 constexpr double legend_h = 10.0;
 constexpr double axis_margin = 26.0;  // elevation labels and band row names
 constexpr double station_row_h = 6.0;
-constexpr double value_row_h = 12.0;
-constexpr double pipe_row_h = 22.0;
+constexpr double value_row_h = 11.0;
+constexpr int value_rows = 5;            // per structure: station, rim, invert, HGL, freeboard
+constexpr double pipe_row_h = 22.0;      // per pipe, rotated: id; size and slope
+constexpr double figure_row_h = 5.0;     // per pipe, level: Q, V, length
+constexpr int figure_rows = 3;
+constexpr double band_h = value_rows * value_row_h + pipe_row_h + figure_rows * figure_row_h;
 constexpr double list_gap = 3.0;
 constexpr double list_row_h = 3.6;
 constexpr double headroom_mm = 20.0;  // structure ids above the highest rim
@@ -49,7 +53,7 @@ std::string clip_text(const std::string& s, double size, double width) {
 
 double plot_height(const Panel& p) {
   const double list_h = std::max(4.0 * list_row_h, 0.17 * p.height_mm);
-  return p.height_mm - legend_h - station_row_h - 3.0 * value_row_h - pipe_row_h - list_gap - list_h;
+  return p.height_mm - legend_h - station_row_h - band_h - list_gap - list_h;
 }
 
 // A finding marker: a square with the finding's number in it (solid dark red for an error, white
@@ -232,47 +236,94 @@ void draw_jumps(const ProfileScene& s, const PlotFrame& f, Canvas& c) {
   c.end_group();
 }
 
+// The band below the profile: per structure its station, rim, invert, HGL and freeboard (short
+// freeboard in dark red), per pipe its id, size and slope, then its design flow, highest velocity
+// and length.
 void draw_band(const ProfileScene& s, const PlotFrame& f, const Panel& p, const std::vector<bool>& labelled,
                Canvas& c) {
   const double top = f.top_mm + f.height_mm + station_row_h;
   const double right = f.left_mm + f.width_mm;
   const TextStyle name{txt, Anchor::start, true, 0.0, black};
   const TextStyle value{txt, Anchor::start, false, 90.0, black};
-  const char* rows[] = {"Rim", "Invert", "HGL"};
+  const TextStyle short_value{txt, Anchor::start, true, 90.0, Rgb{0.60, 0.05, 0.05}};
+  const std::string u = " (" + s.length_unit + ")";
+  const std::string rows[] = {"Station", "Rim" + u, "Invert" + u, "HGL" + u, "Freeboard" + u};
   c.begin_group("band", "");
-  for (int r = 0; r <= 3; ++r) {
+  for (int r = 0; r <= value_rows; ++r) {
     const double y = top + r * value_row_h;
     c.polyline({{p.left_mm, y}, {right, y}}, Pen{0.15, {}, black});
-    if (r < 3) c.text({p.left_mm, y + 6.0}, std::string(rows[r]) + " (" + s.length_unit + ")", name);
+    if (r < value_rows) c.text({p.left_mm, y + 6.0}, clip_text(rows[r], txt, axis_margin - 1.0), name);
   }
-  c.text({p.left_mm, top + 3 * value_row_h + 6.0}, "Pipe", name);
-  const double bottom = top + 3 * value_row_h + pipe_row_h;
-  c.polyline({{p.left_mm, bottom}, {right, bottom}}, Pen{0.15, {}, black});
+  const double pipe_top = top + value_rows * value_row_h;
+  c.text({p.left_mm, pipe_top + 6.0}, "Pipe", name);
+  const double figures_top = pipe_top + pipe_row_h;
+  const bool us = s.system == units::System::us;
+  const std::string figure_rows_names[] = {std::string("Q (") + (us ? "cfs" : "m3/s") + ")",
+                                           std::string("V (") + (us ? "ft/s" : "m/s") + ")", "Length" + u};
+  for (int r = 0; r <= figure_rows; ++r) {
+    const double y = figures_top + r * figure_row_h;
+    c.polyline({{p.left_mm, y}, {right, y}}, Pen{0.15, {}, black});
+    if (r < figure_rows) c.text({p.left_mm, y + 3.8}, figure_rows_names[r], name);
+  }
+  const int decimals = display_decimals(units::Dimension::length, s.system, 0.0);  // mm or 0.01 ft
   for (std::size_t i = 0; i < s.structures.size(); ++i) {
     if (!labelled[i]) continue;
     const auto& st = s.structures[i];
     const double px = f.px(st.station) + 0.7;
-    const double v[] = {st.rim, st.invert, st.hgl};
-    const int decimals = display_decimals(units::Dimension::length, s.system, 0.0);  // mm or 0.01 ft
-    for (int r = 0; r < 3; ++r) c.text({px, top + (r + 1) * value_row_h - 1.0}, fixed(v[r], decimals), value);
+    const double fb = st.rim - st.hgl;
+    const std::string v[] = {station_label(st.station, s.system, s.system == units::System::us ? 2 : 1),
+                             fixed(st.rim, decimals), fixed(st.invert, decimals), fixed(st.hgl, decimals),
+                             fixed(fb, decimals)};
+    for (int r = 0; r < value_rows; ++r)
+      c.text({px, top + (r + 1) * value_row_h - 1.0}, v[r],
+             r == 4 && std::isfinite(fb) && fb < s.freeboard ? short_value : value);
   }
-  // A pipe's two rotated lines need about two label gaps of width.
+  // A pipe's two rotated lines need about two label gaps of width; its level figures their width.
   std::vector<double> mids;
   for (const auto& pp : s.pipes) mids.push_back(f.px(0.5 * (pp.station_down + pp.station_up)));
   const auto pipe_drawn = thin_labels(mids, {}, 2.0 * label_gap_mm);
+  const auto figures_drawn = thin_labels(mids, {}, text_width("0.0000", txt) + 1.0);
   for (std::size_t i = 0; i < s.pipes.size(); ++i) {
-    if (!pipe_drawn[i]) continue;
     const auto& pp = s.pipes[i];
-    const double y = top + 3 * value_row_h + pipe_row_h - 1.0;
-    c.text({mids[i] - 0.3, y}, clip_text(pp.id, txt, pipe_row_h - 2.0), TextStyle{txt, Anchor::start, true, 90.0, black});
-    c.text({mids[i] + txt + 0.4, y}, clip_text(pp.size_text + " " + pp.slope_text, txt, pipe_row_h - 2.0),
-           TextStyle{txt, Anchor::start, false, 90.0, black});
+    if (pipe_drawn[i]) {
+      const double y = pipe_top + pipe_row_h - 1.0;
+      c.text({mids[i] - 0.3, y}, clip_text(pp.id, txt, pipe_row_h - 2.0), TextStyle{txt, Anchor::start, true, 90.0, black});
+      c.text({mids[i] + txt + 0.4, y}, clip_text(pp.size_text + " " + pp.slope_text, txt, pipe_row_h - 2.0),
+             TextStyle{txt, Anchor::start, false, 90.0, black});
+    }
+    if (!figures_drawn[i]) continue;
+    const std::string fig[] = {pp.flow_text, pp.velocity_text, pp.length_text};
+    for (int r = 0; r < figure_rows; ++r)
+      c.text({mids[i], figures_top + r * figure_row_h + 3.8}, fig[r], TextStyle{txt, Anchor::middle, false, 0.0, black});
   }
   c.end_group();
 }
 
+// Where the HGL stands above the required-freeboard line at a structure, the gap is shaded.
+void draw_short_freeboard(const ProfileScene& s, const PlotFrame& f, Canvas& c) {
+  c.begin_group("short-freeboard", "freeboard short of the requirement");
+  for (const auto& st : s.structures) {
+    if (!std::isfinite(st.rim) || !std::isfinite(st.hgl) || st.outfall) continue;
+    const double line = st.rim - s.freeboard;
+    if (!(st.hgl > line)) continue;
+    const double x = f.px(st.station), y0 = f.py(std::min(st.hgl, st.rim)), y1 = f.py(line);
+    c.polygon({{x - 2.4, y0}, {x + 2.4, y0}, {x + 2.4, y1}, {x - 2.4, y1}}, Rgb{0.98, 0.78, 0.74}, Pen{0.15, {}, Rgb{0.60, 0.05, 0.05}});
+  }
+  c.end_group();
+}
+
+// The direction of flow: towards the outfall, station 0, on the left.
+void draw_flow_arrow(const PlotFrame& f, Canvas& c) {
+  const double y = f.top_mm + 5.0, x0 = f.left_mm + 6.0, x1 = x0 + 18.0;
+  c.begin_group("flow-arrow", "direction of flow");
+  c.polyline({{x0 + 2.5, y}, {x1, y}}, Pen{0.5, {}, black});
+  c.polygon({{x0, y}, {x0 + 3.0, y - 1.4}, {x0 + 3.0, y + 1.4}}, black, std::nullopt);
+  c.text({x1 + 2.0, y + 0.9}, "FLOW", TextStyle{txt, Anchor::start, true, 0.0, black});
+  c.end_group();
+}
+
 void draw_finding_list(const ProfileScene& s, const PlotFrame& f, const Panel& p, Canvas& c) {
-  const double top = f.top_mm + f.height_mm + station_row_h + 3 * value_row_h + pipe_row_h + list_gap;
+  const double top = f.top_mm + f.height_mm + station_row_h + band_h + list_gap;
   const double bottom = p.top_mm + p.height_mm;
   const int rows = std::max(1, static_cast<int>((bottom - top) / list_row_h) - 1);
   const double col_w = p.width_mm / 2.0;
@@ -349,6 +400,7 @@ PlotFrame draw_profile(const ProfileScene& scene, const Panel& panel, Canvas& ca
   draw_legend(scene, f, panel, canvas);
   draw_grid_and_axes(scene, f, canvas);
   draw_pipes(scene, f, canvas);
+  draw_short_freeboard(scene, f, canvas);
   draw_line(scene.line(Stroke::ground), f, canvas, "ground");
   draw_line(scene.line(Stroke::freeboard), f, canvas, "freeboard");
   draw_line(scene.line(Stroke::crown), f, canvas, "crown");
@@ -359,6 +411,7 @@ PlotFrame draw_profile(const ProfileScene& scene, const Panel& panel, Canvas& ca
   draw_line(scene.line(Stroke::hgl), f, canvas, "hgl");
   draw_jumps(scene, f, canvas);
   draw_markers(scene, f, canvas);
+  draw_flow_arrow(f, canvas);
   draw_band(scene, f, panel, labelled, canvas);
   draw_finding_list(scene, f, panel, canvas);
   return f;

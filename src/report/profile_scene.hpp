@@ -45,6 +45,10 @@ struct ScenePipe {
   bool solved = false;
   double jump_station = 0.0;    // hydraulic jump in the pipe; NaN when none
   double jump_elevation = 0.0;  // HGL at the step point nearest the jump
+  // The band's pipe figures, rendered in the run's units ("" when unknown):
+  std::string flow_text;      // "0.512" (the design flow, m3/s | cfs)
+  std::string velocity_text;  // "2.31" (the highest along it, m/s | ft/s)
+  std::string length_text;    // "72.0" (m | ft)
 };
 
 struct SceneMarker {
