@@ -85,7 +85,7 @@ const std::vector<std::string>& project_key_table() {
 std::vector<std::string> project_keys_set(const std::string& toml_text, const std::string& path_for_messages) {
   std::vector<std::string> keys;
   {
-    detail::KeyRecording recording(keys);
+    detail::KeyCollector collector(keys);
     (void)parse_project(toml_text, path_for_messages);
   }
   std::sort(keys.begin(), keys.end());

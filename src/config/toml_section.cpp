@@ -61,15 +61,15 @@ std::string_view dimension_name(units::Dimension d) {
   return "quantity";
 }
 
-thread_local std::vector<std::string>* recording = nullptr;
+thread_local std::vector<std::string>* collected_keys = nullptr;
 
 }  // namespace
 
-KeyRecording::KeyRecording(std::vector<std::string>& set) : previous_(recording) { recording = &set; }
-KeyRecording::~KeyRecording() { recording = previous_; }
-void KeyRecording::note(const std::string& pattern) {
-  if (recording && std::find(recording->begin(), recording->end(), pattern) == recording->end())
-    recording->push_back(pattern);
+KeyCollector::KeyCollector(std::vector<std::string>& set) : previous_(collected_keys) { collected_keys = &set; }
+KeyCollector::~KeyCollector() { collected_keys = previous_; }
+void KeyCollector::note(const std::string& pattern) {
+  if (collected_keys && std::find(collected_keys->begin(), collected_keys->end(), pattern) == collected_keys->end())
+    collected_keys->push_back(pattern);
 }
 
 TomlSection::TomlSection(const toml::table* table, std::string name, const std::string& file, std::string pattern)
@@ -122,7 +122,7 @@ const toml::node* TomlSection::get(std::string_view key) {
   require_in_key_table(pattern);
   known_.emplace_back(key);
   const toml::node* n = table_ ? table_->get(key) : nullptr;
-  if (n && recording) KeyRecording::note(pattern);
+  if (n && collected_keys) KeyCollector::note(pattern);
   return n;
 }
 
@@ -219,7 +219,7 @@ std::vector<std::pair<std::string, const toml::node*>> TomlSection::entries() {
   std::vector<std::pair<std::string, const toml::node*>> out;
   require_in_key_table(dotted_pattern("*"));
   if (!table_) return out;
-  if (recording && !table_->empty()) KeyRecording::note(dotted_pattern("*"));
+  if (collected_keys && !table_->empty()) KeyCollector::note(dotted_pattern("*"));
   for (const auto& [k, v] : *table_) {
     known_.emplace_back(k.str());
     out.emplace_back(std::string(k.str()), &v);

@@ -26,12 +26,12 @@ void require_in_key_table(const std::string& pattern);
 
 // While one is alive on a thread, every key a section finds in the file is added to `set` as its
 // pattern (for project_keys_set).
-class KeyRecording {
+class KeyCollector {
  public:
-  explicit KeyRecording(std::vector<std::string>& set);
-  ~KeyRecording();
-  KeyRecording(const KeyRecording&) = delete;
-  KeyRecording& operator=(const KeyRecording&) = delete;
+  explicit KeyCollector(std::vector<std::string>& set);
+  ~KeyCollector();
+  KeyCollector(const KeyCollector&) = delete;
+  KeyCollector& operator=(const KeyCollector&) = delete;
   static void note(const std::string& pattern);
 
  private:

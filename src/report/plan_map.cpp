@@ -67,9 +67,7 @@ std::string label(double x, double y, const std::string& text, const char* ancho
 
 }  // namespace
 
-PlanGeometry plan_geometry(const model::Network& net, double width, double max_height) {
-  PlanGeometry g;
-  g.width = width;
+PlanExtent network_extent(const model::Network& net) {
   double x0 = INFINITY, y0 = INFINITY, x1 = -INFINITY, y1 = -INFINITY;
   auto take = [&](const model::Point2& p) {
     if (!std::isfinite(p.x) || !std::isfinite(p.y)) return;
@@ -78,12 +76,19 @@ PlanGeometry plan_geometry(const model::Network& net, double width, double max_h
   for (const auto& s : net.structures) take(s.location);
   for (const auto& c : net.conduits)
     for (const auto& v : c.vertices) take(v);
-  if (!(x1 >= x0)) x0 = y0 = 0.0, x1 = y1 = 1.0;
-  const double dx = std::max(x1 - x0, 1.0), dy = std::max(y1 - y0, 1.0);
+  if (!(x1 >= x0)) return {};
+  return {x0, y0, x1, y1};
+}
+
+PlanGeometry plan_geometry(const model::Network& net, double width, double max_height) {
+  PlanGeometry g;
+  g.width = width;
+  const PlanExtent e = network_extent(net);
+  const double dx = e.dx(), dy = e.dy();
   g.scale = std::min((width - 2 * g.margin) / dx, (max_height - 2 * g.margin) / dy);
-  g.min_x = x0 - ((width - 2 * g.margin) / g.scale - dx) / 2;  // centred across
-  g.min_y = y0;
-  g.max_x = x1, g.max_y = y1;
+  g.min_x = e.x0 - ((width - 2 * g.margin) / g.scale - dx) / 2;  // centred across
+  g.min_y = e.y0;
+  g.max_x = e.x1, g.max_y = e.y1;
   g.height = dy * g.scale + 2 * g.margin;
   return g;
 }

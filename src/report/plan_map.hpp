@@ -16,6 +16,15 @@
 
 namespace rimline::report {
 
+// The network's extent in the run CRS (structures and every pipe vertex; non-finite points skipped),
+// at least 1 m each way; a network with no finite point gives the unit square.
+struct PlanExtent {
+  double x0 = 0.0, y0 = 0.0, x1 = 1.0, y1 = 1.0;
+  double dx() const { return x1 - x0 > 1.0 ? x1 - x0 : 1.0; }
+  double dy() const { return y1 - y0 > 1.0 ? y1 - y0 : 1.0; }
+};
+PlanExtent network_extent(const model::Network& network);
+
 struct PlanGeometry {
   double min_x = 0.0, min_y = 0.0, max_x = 1.0, max_y = 1.0;  // run CRS, metres
   double width = 1000.0, height = 700.0;                       // drawing units (SVG viewBox)

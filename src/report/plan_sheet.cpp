@@ -44,19 +44,12 @@ std::string draw_plan_sheet(const run::CheckRun& run, const Panel& panel, Canvas
   const auto sys = run.report_units;
   const double legend_h = 12.0;
   // Fit, then round the scale up to one a reviewer can measure with; centre the plan in the panel.
-  double x0 = INFINITY, y0 = INFINITY, x1 = -INFINITY, y1 = -INFINITY;
-  auto take = [&](const model::Point2& p) {
-    if (std::isfinite(p.x) && std::isfinite(p.y)) x0 = std::min(x0, p.x), y0 = std::min(y0, p.y), x1 = std::max(x1, p.x), y1 = std::max(y1, p.y);
-  };
-  for (const auto& s : net.structures) take(s.location);
-  for (const auto& p : net.conduits)
-    for (const auto& v : p.vertices) take(v);
-  if (!(x1 >= x0)) x0 = y0 = 0.0, x1 = y1 = 1.0;
-  const double dx = std::max(x1 - x0, 1.0), dy = std::max(y1 - y0, 1.0);
+  const PlanExtent e = network_extent(net);
+  const double dx = e.dx(), dy = e.dy();
   const double mm_per_m = std::min(0.9 * panel.width_mm / dx, (panel.height_mm - legend_h - 16.0) / dy);
   const double n = round_scale_up(1000.0 / mm_per_m);
   const double k = 1000.0 / n;  // mm on paper per metre on the ground
-  const double mx = 0.5 * (x0 + x1), my = 0.5 * (y0 + y1);
+  const double mx = 0.5 * (e.x0 + e.x1), my = 0.5 * (e.y0 + e.y1);
   const double ox = panel.left_mm + 0.5 * panel.width_mm, oy = panel.top_mm + legend_h + 0.5 * (panel.height_mm - legend_h);
   auto at = [&](const model::Point2& p) { return Pt{ox + (p.x - mx) * k, oy - (p.y - my) * k}; };
 

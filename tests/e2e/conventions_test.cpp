@@ -21,6 +21,7 @@
 #include "rimline/report/report_html.hpp"
 #include "rimline/run/check_run.hpp"
 #include "test_paths.hpp"
+#include "written_outputs.hpp"
 
 using namespace rimline;
 namespace fs = std::filesystem;
@@ -99,11 +100,7 @@ TEST_CASE("sweep: every finding names its case, and the envelope figures come fr
 
 TEST_CASE("results.gpkg: a checked force main has its row in force_mains only; the velocity rules' figures") {
   const auto r = run::run_check(config::load_project((demo_dir("metric") / "project.toml").string()), {});
-  const fs::path out = fs::path(test::binary_dir) / "e2e-conventions";
-  fs::remove_all(out);
-  report::write_outputs(r, out.string());
-  GDALAllRegister();
-  GDALDatasetUniquePtr ds(GDALDataset::Open((out / "results.gpkg").string().c_str(), GDAL_OF_VECTOR | GDAL_OF_READONLY));
+  GDALDatasetUniquePtr ds = test::write_and_open_results(r, "e2e-conventions");
   REQUIRE(ds);
   // The default styles a desktop GIS reads: one per result layer, the default, with QML and SLD.
   OGRLayer* styles = ds->GetLayerByName("layer_styles");

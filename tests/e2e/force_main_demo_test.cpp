@@ -15,6 +15,7 @@
 #include "rimline/report/outputs.hpp"
 #include "rimline/run/check_run.hpp"
 #include "test_paths.hpp"
+#include "written_outputs.hpp"
 
 using namespace rimline;
 namespace fs = std::filesystem;
@@ -92,11 +93,8 @@ TEST_CASE("demo pump station WW-1: operating points and the sub-atmospheric ridg
 
 TEST_CASE("demo pump station: results.gpkg layers, and the US variant shows the same ridge", "[force_main][e2e]") {
   const auto r = run::run_check(config::load_project(demo("metric")), {});
+  GDALDatasetUniquePtr ds = test::write_and_open_results(r, "e2e-force-main");
   const fs::path out = fs::path(test::binary_dir) / "e2e-force-main";
-  fs::remove_all(out);
-  report::write_outputs(r, out.string());
-  GDALAllRegister();
-  GDALDatasetUniquePtr ds(GDALDataset::Open((out / "results.gpkg").string().c_str(), GDAL_OF_VECTOR | GDAL_OF_READONLY));
   REQUIRE(ds);
   for (const auto& [name, count] : {std::pair{"force_mains", 1}, {"force_main_points", 7}, {"pump_cases", 4}}) {
     OGRLayer* l = ds->GetLayerByName(name);
