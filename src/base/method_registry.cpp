@@ -5,7 +5,7 @@
 namespace rimline {
 namespace {
 
-constexpr std::array<MethodRow, 28> rows{{
+constexpr std::array<MethodRow, 32> rows{{
     {"friction", "manning", "Manning", "V = (1/n) R^(2/3) S^(1/2) on the hydraulic radius of the wetted section",
      "Manning (1891); SI form, and the US form with 1.486 = (1/0.3048)^(1/3) ft^(1/3)/m^(1/3)"},
     {"friction", "darcy_weisbach", "Darcy-Weisbach with Colebrook-White",
@@ -90,6 +90,20 @@ constexpr std::array<MethodRow, 28> rows{{
      "common practice, no source"},
     {"criterion", "cover_min", "Minimum cover", "rim minus crown at each end (off unless set)",
      "common practice, no source (set from the local standard)"},
+    {"data", "level_tolerance", "Pipe inverts against their structures",
+     "a pipe end's invert more than 0.1 m below the structure's invert, or above its rim, is a finding",
+     "common practice, no source (survey and digitising slack of levels)"},
+    {"data", "invert_step_max", "Plausible invert step at a structure",
+     "an arriving pipe's outlet more than 3 m above or below the main outflow's inlet is a finding",
+     "common practice, no source (drop structures rarely exceed a few metres)"},
+    {"data", "unit_check", "Unit of the mapped levels",
+     "the median pipe slope (1e-4 to 0.3) and the agreement of pipe inverts with the structures' inverts (1 m) and "
+     "rims (below them, within 30 m) under the declared unit, and under m, mm, cm, ft, in",
+     "common practice, no source"},
+    {"data", "ground_rims", "Rims from a ground raster",
+     "the raster's level at the structure (bilinear between pixel centres), plus the stated offset, where no rim is "
+     "recorded; a recorded rim more than 0.5 m from it is a finding",
+     "common practice, no source"},
     {"pump", "operating_point", "Pump operating point on the force-main system curve",
      "n identical duty pumps in parallel: H_pump(Q/n) = static lift + friction + (K_fittings + 1) V^2/2g, at the low "
      "and high wet-well level with one and all duty pumps; pump curve interpolated monotone",

@@ -142,8 +142,10 @@ std::string summary_json(const run::CheckRun& run) {
 
   const auto ns = topology::summarize(net, run.topology);
   j["network"] = {{"structures", ns.structures}, {"conduits", ns.conduits}, {"outfalls", ns.outfalls},
+                  {"outfalls_assumed", ns.outfalls_assumed},  // tree ends no type or [outfalls] entry names
                   {"trees", ns.trees},           {"diversions", ns.diversions},
                   {"total_length", std::stod(distance_number(ns.total_length_m, sys))}};
+  j["checked_nothing"] = run::checked_nothing(run);
 
   ordered_json cases = ordered_json::array();
   for (const auto& c : run.cases) {

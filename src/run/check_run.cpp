@@ -9,6 +9,9 @@
 
 #include "rimline/hydraulics/friction.hpp"
 #include "run/catchment_run.hpp"
+#include "run/ground_rims.hpp"
+#include "run/level_checks.hpp"
+#include "run/project_checks.hpp"
 #include "run/input_hashes.hpp"
 #include "run/pump_run.hpp"
 
@@ -238,27 +241,6 @@ void gather_march_findings(std::vector<Case>& cases, Findings& into, std::vector
   }
 }
 
-// TOPOLOGY_NO_OUTFALL: a tree that ends at a manhole, inlet or junction when the export types its
-// structures: it names no outfall there (a missing outfall, a pipe missing downstream, a cut loop).
-// Untyped layers (every structure a manhole by default) are left out: there the end is the only clue.
-void report_untyped_outfalls(const config::Project& project, const model::Network& net, const topology::Topology& topo,
-                             Findings& findings) {
-  if (project.structures.source.empty() || project.structure_fields.type.empty()) return;
-  using K = model::StructureKind;
-  for (const auto& tree : topo.trees) {
-    const auto& st = net.structures[tree.outfall];
-    if (st.kind != K::manhole && st.kind != K::inlet && st.kind != K::junction) continue;
-    Finding f;
-    f.code = "TOPOLOGY_NO_OUTFALL";
-    f.severity = Severity::warning;
-    f.layer = LayerRole::structures;
-    f.feature_id = st.id;
-    f.message = "structure " + st.id + " is a " + std::string(model::structure_kind_name(st.kind)) +
-                ", not an outfall, but no marched pipe leaves it; its tree is marched from it as if it were the outfall";
-    findings.push_back(std::move(f));
-  }
-}
-
 bool same_value(double a, double b) { return std::fabs(a - b) <= 1e-9 * std::max(1.0, std::fabs(a)); }
 
 // Each envelope figure from the case that governs it (see CheckRun), ties to the first case.
@@ -344,6 +326,7 @@ CheckRun run_check(const config::Project& project, const RunOptions& options) {
   auto stage = [&options](const std::string& name) {
     if (options.progress) options.progress(name);
   };
+  if (!options.dry_run) require_flow_source(project);  // before a city's layers are read
   stage("reading the layers");
   run.read = gis::read_network(project);
   auto files_read = [&run] {
@@ -360,8 +343,17 @@ CheckRun run_check(const config::Project& project, const RunOptions& options) {
   run.data_findings = run.read.findings;
   topology::TopologyOptions topo_opt;
   topo_opt.snap_tolerance_m = project.snap_tolerance_m;
+  topo_opt.outfall_ids = project.outfalls.ids;
+  topo_opt.direction_from_inverts = project.flow_direction == config::FlowDirection::inverts;
   run.topology = topology::build_topology(run.read.network, topo_opt, run.data_findings);
-  report_untyped_outfalls(project, run.read.network, run.topology, run.data_findings);
+  for (auto& s : run.read.network.structures)  // an outfall's own level from the project beats its field
+    if (const auto it = project.outfalls.tailwater_m.find(s.id); it != project.outfalls.tailwater_m.end())
+      s.tailwater_m = it->second;
+  apply_ground(project, run.read.network, run.read.input_files, run.data_findings);
+  check_declared_units(project, run.data_findings);
+  check_levels(project, run.read.network, run.topology, run.data_findings);
+  report_unknown_ids(project, run.read.network, run.data_findings);
+  report_outfalls(project, run.read.network, run.topology, run.data_findings);
   run.criteria = criteria_from(project);
   run.overrides = overrides_from(project);
   run.march_options = march_options_from(project);
@@ -371,7 +363,10 @@ CheckRun run_check(const config::Project& project, const RunOptions& options) {
   }
   const bool from_catchments =
       project.flow_mode == config::FlowMode::rational || project.flow_mode == config::FlowMode::sanitary;
-  if (from_catchments) assign_catchment_outlets(project, run);
+  if (from_catchments) {
+    assign_catchment_outlets(project, run);
+    require_catchments_used(project, run);
+  }
   if (options.dry_run) {
     merge_findings(run, {}, {}, {});
     run.inputs = hashes.finish(files_read());
@@ -445,6 +440,8 @@ CheckRun run_check(const config::Project& project, const RunOptions& options) {
 
   const auto& net = run.read.network;
   compute_envelope(run);
+  report_tailwater_below_outfalls(run, run.data_findings);
+  report_nothing_checked(run, run.data_findings);
   std::vector<std::string> criteria_case;
   Findings criteria = worst_per_feature(run.cases, DrawnFeatures(net, run.march_options.keep_step_points), criteria_case);
   // Pump stations: solved once against the highest receiving level over the cases.

@@ -1,7 +1,10 @@
 #pragma once
 // One whole check: read -> network -> topology -> flows -> march (per tailwater level) -> checks.
-// Adds TOPOLOGY_NO_OUTFALL (warning, structures): with a typed structure layer, a tree that ends at a
-// manhole, inlet or junction; it is marched from there as if that were the outfall.
+// Adds TOPOLOGY_NO_OUTFALL (warning, structures): where some structure is an outfall (typed, or named in
+// [outfalls]), a tree that ends at a manhole, inlet, junction or derived structure; it is marched from
+// there as if that were the outfall. The project's own checks (flow source, unknown ids, assumed
+// outfalls, tailwater below an outfall, a run that checked nothing) are in src/run/project_checks.hpp,
+// the level and unit cross-checks in src/run/level_checks.hpp, [ground] in src/run/ground_rims.hpp.
 // No files are written here; report/ writes the outputs from a CheckRun.
 #include <cstddef>
 #include <functional>
@@ -104,6 +107,10 @@ struct CheckRun {
 };
 
 CheckRun run_check(const config::Project& project, const RunOptions& options);
+
+// True when no gravity pipe was solved in any case and no pump station laid out (NOTHING_CHECKED):
+// the command line exits with a code of its own.
+bool checked_nothing(const CheckRun& run);
 
 // How bad a criteria finding is, to keep the worst over the cases and list the worst first:
 // lower freeboard, velocity (minimum) or cover is worse, higher surcharge, velocity or ratio is worse.
