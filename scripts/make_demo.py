@@ -124,6 +124,7 @@ PROJECT = """# rimline demo project ({label}). Invented scenario: Quillfen Heigh
 [project]
 name = "Quillfen Heights storm trunk (invented demo, {label})"
 units = "{units}"
+vertical_datum = "QH local survey datum (invented)"
 
 [pipes]
 source = "pipes.geojson"

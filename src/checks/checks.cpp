@@ -53,7 +53,7 @@ void check_structure(const model::Structure& s, const solve::StructureResult& r,
                    "structure " + s.id + ": the HGL (" + q(r.hgl_m, L) + ") is " + q(-fb, L) + " above the rim (" +
                        q(*s.rim_m, L) + "); water leaves the system here."});
   } else if (fb < freeboard_m) {
-    out.push_back({"FREEBOARD", Severity::warning, LayerRole::structures, s.id, "", fb, freeboard_m,
+    out.push_back({"FREEBOARD", Severity::error, LayerRole::structures, s.id, "", fb, freeboard_m,
                    units::Dimension::length,
                    "structure " + s.id + ": the HGL (" + q(r.hgl_m, L) + ") is " + q(fb, L) +
                        " below the rim, less than the required " + q(freeboard_m, L) + "."});
@@ -94,9 +94,9 @@ void check_conduit(const model::Network& net, std::size_t ci, const solve::Condu
     if (ratio > c.capacity_ratio_max) {
       out.push_back({"CAPACITY", Severity::warning, LayerRole::conduits, p.id, "", ratio, c.capacity_ratio_max,
                      units::Dimension::dimensionless,
-                     "pipe " + p.id + " carries " + fmt(ratio * 100.0, 0) + "% of its full-flow capacity (" +
-                         q(r.capacity_m3_s, units::Dimension::flow) + "), above the allowed " + fmt(c.capacity_ratio_max * 100.0, 0) +
-                         "%."});
+                     "pipe " + p.id + ": the design flow " + q(r.flow_m3_s, units::Dimension::flow) + " is " +
+                         fmt(ratio * 100.0, 0) + "% of its full-flow capacity " + q(r.capacity_m3_s, units::Dimension::flow) +
+                         ", above the allowed " + fmt(c.capacity_ratio_max * 100.0, 0) + "%."});
     }
   }
   if (c.cover_min_m) {

@@ -481,6 +481,7 @@ Project parse_project(const std::string& toml_text, const std::string& path_for_
   p.report_units = proj.choice<units::System>("units", {{"si", units::System::si}, {"us", units::System::us}})
                        .value_or(units::System::si);
   p.crs_override = proj.string("crs").value_or("");
+  p.vertical_datum = proj.string("vertical_datum").value_or("");
   proj.finish();
 
   read_plausibility(plausibility, p);  // first: the pipe defaults are checked against it

@@ -14,7 +14,7 @@ namespace rimline::config {
 const std::vector<std::string>& project_key_table() {
   static const std::vector<std::string> keys = [] {
     std::vector<std::string> k{
-        "project", "project.name", "project.units", "project.crs",
+        "project", "project.name", "project.units", "project.crs", "project.vertical_datum",
         // pipes
         "pipes", "pipes.source", "pipes.layer", "pipes.open_options", "pipes.snap_tolerance", "pipes.shape_from_height",
         "pipes.force_main_values", "pipes.flow_direction", "pipes.fields", "pipes.fields.id", "pipes.fields.from",

@@ -25,6 +25,10 @@ struct Pen {
 
 enum class Anchor { start, middle, end };
 
+// The smallest text on a sheet: 2.5 mm on A3, so a print or a half-size copy stays legible
+// (common drafting practice for A3 sheets, no source).
+inline constexpr double min_text_mm = 2.5;
+
 struct TextStyle {
   double size_mm = 2.5;  // cap-to-descender height, roughly the font size
   Anchor anchor = Anchor::start;

@@ -55,7 +55,9 @@ int decimals_for(double step) {
 }
 
 std::string station_label(double station, units::System system, int decimals) {
-  return station_notation(station, system, decimals);
+  // A tick a rounding error below zero reads "0", not "-0".
+  const double half_step = 0.5 * std::pow(10.0, -decimals);
+  return station_notation(std::fabs(station) < half_step ? 0.0 : station, system, decimals);
 }
 
 std::vector<bool> thin_labels(const std::vector<double>& positions_mm, const std::vector<bool>& priority,

@@ -85,6 +85,10 @@ void write_drawings(const run::CheckRun& run, StagedFiles& files, const DrawingO
     r.length = scene.x_max;
     r.structures = scene.structures.size();
     r.findings = scene.markers.size();
+    r.case_index = sheet.case_index;
+    for (const auto& st : scene.structures) r.structure_ids.push_back(st.id);
+    for (const auto& pp : scene.pipes) r.conduit_ids.push_back(pp.id);
+    for (const auto& m : scene.markers) r.markers.push_back({m.number, m.code, m.feature_id});
     for (const auto& st : scene.structures) {
       const double fb = st.rim - st.hgl;
       if (std::isfinite(fb) && !(fb >= r.least_freeboard)) {

@@ -3,6 +3,7 @@
 #include <sstream>
 
 #include "base/number_text.hpp"
+#include "report/feature_locator.hpp"
 #include "rimline/report/outputs.hpp"
 
 namespace rimline::report {
@@ -37,15 +38,21 @@ double to_report(double si_value, units::Dimension d, units::System s) {
 
 void write_exceptions_csv(const run::CheckRun& run, std::ostream& out) {
   const auto sys = run.report_units;
-  out << "code,severity,layer,feature_id,field,value,limit,unit,case,message\n";
+  out << "code,severity,layer,feature_id,field,value,limit,shortfall,unit,case,x,y,message\n";
+  const FeatureLocator where(run);
+  const double per_unit = run.read.network.crs_metres_per_unit > 0.0 ? run.read.network.crs_metres_per_unit : 1.0;
   for (std::size_t k = 0; k < run.findings.size(); ++k) {
     const Finding& f = run.findings[k];
     const std::string kase = k < run.finding_case.size() ? render_message(run.finding_case[k], sys) : std::string();
+    // shortfall: value - limit with its sign, in the value's unit (negative: below a minimum).
+    const std::string shortfall = number(f.value - f.limit, f.dimension, sys);
+    std::string xy = ",";
+    if (const auto p = where.place(f)) xy = fixed_text(p->x / per_unit, 3) + ',' + fixed_text(p->y / per_unit, 3);
     out << csv_cell(f.code) + ',' + std::string(severity_name(f.severity)) + ',' +
            std::string(layer_role_name(f.layer)) + ',' + csv_cell(f.feature_id) + ',' + csv_cell(f.field) + ',' +
-           number(f.value, f.dimension, sys) + ',' + number(f.limit, f.dimension, sys) + ',' +
+           number(f.value, f.dimension, sys) + ',' + number(f.limit, f.dimension, sys) + ',' + shortfall + ',' +
            csv_cell(std::isfinite(f.value) || std::isfinite(f.limit) ? unit_text(f.dimension, sys) : "") + ',' +
-           csv_cell(kase) + ',' + csv_cell(render_message(f.message, sys)) + '\n';
+           csv_cell(kase) + ',' + xy + ',' + csv_cell(render_message(f.message, sys)) + '\n';
   }
 }
 

@@ -24,9 +24,9 @@ Pen case_pen(std::size_t k) {
 
 }  // namespace
 
-void draw_force_main(const run::CheckRun& run, std::size_t station, const Panel& panel, Canvas& c) {
+std::string draw_force_main(const run::CheckRun& run, std::size_t station, const Panel& panel, Canvas& c) {
   const auto& st = run.pump_stations[station];
-  if (!st.layout.ok) return;
+  if (!st.layout.ok) return "";
   // Room for the tick labels and axis titles inside the panel.
   const double left = panel.left_mm + 18.0, top = panel.top_mm, pw = panel.width_mm - 18.0, ph = panel.height_mm - 14.0;
   const auto sys = run.report_units;
@@ -46,7 +46,7 @@ void draw_force_main(const run::CheckRun& run, std::size_t station, const Panel&
     return Pt{left + pw * rep(station_si) / x_hi, top + ph * (1.0 - (rep(elev_si) - y_lo) / (y_hi - y_lo))};
   };
   const Pen frame{0.25, {}, Rgb{0.2, 0.2, 0.2}}, grid{0.1, {}, Rgb{0.8, 0.8, 0.8}};
-  const TextStyle small{2.4, Anchor::middle, false, 0.0, Rgb{}};
+  const TextStyle small{min_text_mm, Anchor::middle, false, 0.0, Rgb{}};
   const std::string u(units::unit_symbol(units::display_unit(L, sys)));
   // Grid and axes.
   const double xs = nice_step(x_hi, 10), ys = nice_step(y_hi - y_lo, 6);
@@ -58,11 +58,11 @@ void draw_force_main(const run::CheckRun& run, std::size_t station, const Panel&
   for (double y = std::ceil(y_lo / ys) * ys; y <= y_hi; y += ys) {
     const double py = top + ph * (1.0 - (y - y_lo) / (y_hi - y_lo));
     c.polyline({{left, py}, {left + pw, py}}, grid);
-    c.text({left - 1.5, py + 0.8}, fixed_text(y, ys < 1.0 ? 1 : 0), TextStyle{2.4, Anchor::end, false, 0.0, Rgb{}});
+    c.text({left - 1.5, py + 0.8}, fixed_text(y, ys < 1.0 ? 1 : 0), TextStyle{min_text_mm, Anchor::end, false, 0.0, Rgb{}});
   }
   c.polygon({{left, top}, {left + pw, top}, {left + pw, top + ph}, {left, top + ph}}, std::nullopt, frame);
   c.text({left + pw / 2, top + ph + 9.0}, "station from the pump (" + u + ")", small);
-  c.text({left - 16.0, top + ph / 2}, "elevation (" + u + ")", TextStyle{2.6, Anchor::middle, false, 90.0, Rgb{}});
+  c.text({left - 16.0, top + ph / 2}, "elevation (" + u + ")", TextStyle{min_text_mm, Anchor::middle, false, 90.0, Rgb{}});
   // Pressure envelope: the band between the lowest and highest HGL over the operating cases.
   std::vector<Pt> band, low;
   for (std::size_t i = 0; i < pts.size(); ++i) {
@@ -89,7 +89,7 @@ void draw_force_main(const run::CheckRun& run, std::size_t station, const Panel&
   const double lx = left + pw - 128.0;
   double legend_y = top + 4.0;
   c.polyline({{lx + 3.0, legend_y - 0.8}, {lx + 13.0, legend_y - 0.8}}, Pen{0.6, {}, Rgb{}});
-  c.text({lx + 15.0, legend_y}, "pipe centreline", TextStyle{2.4, Anchor::start, true, 0.0, Rgb{}});
+  c.text({lx + 15.0, legend_y}, "pipe centreline", TextStyle{min_text_mm, Anchor::start, true, 0.0, Rgb{}});
   for (std::size_t k = 0; k < st.cases.size(); ++k) {
     const auto& cs = st.cases[k];
     legend_y += 3.6;
@@ -97,7 +97,7 @@ void draw_force_main(const run::CheckRun& run, std::size_t station, const Panel&
                                                                    render_message(q(cs.head_m, L), sys)
                                                              : ": no operating point");
     c.polyline({{lx + 3.0, legend_y - 0.8}, {lx + 13.0, legend_y - 0.8}}, case_pen(k));
-    c.text({lx + 15.0, legend_y}, label, TextStyle{2.4, Anchor::start, false, 0.0, Rgb{}});
+    c.text({lx + 15.0, legend_y}, label, TextStyle{min_text_mm, Anchor::start, false, 0.0, Rgb{}});
     if (!cs.exists) continue;
     std::vector<Pt> line;
     for (std::size_t i = 0; i < pts.size(); ++i) line.push_back(at(pts[i].station_m, cs.hgl_m[i]));
@@ -110,7 +110,8 @@ void draw_force_main(const run::CheckRun& run, std::size_t station, const Panel&
       const Pt p = at(pts[i].station_m, pts[i].centreline_m);
       c.begin_group("subatmospheric", "pressure head " + render_message(q(cs.pressure_head_m[i], Dimension::pressure_head), sys) +
                                           " (" + cs.label + ")");
-      c.polygon({{p.x - 1.2, p.y - 2.4}, {p.x + 1.2, p.y - 2.4}, {p.x, p.y - 0.4}}, Rgb{0.85, 0.1, 0.1}, std::nullopt);
+      c.polygon({{p.x - 1.0, p.y - 2.6}, {p.x + 1.0, p.y - 2.6}, {p.x + 1.0, p.y - 0.6}, {p.x - 1.0, p.y - 0.6}},
+                Rgb{0.85, 0.1, 0.1}, std::nullopt);  // a square: a downward triangle would read as a water surface
       c.end_group();
     }
   }
@@ -118,8 +119,12 @@ void draw_force_main(const run::CheckRun& run, std::size_t station, const Panel&
   c.polygon({{lx + 3.0, legend_y - 2.0}, {lx + 13.0, legend_y - 2.0}, {lx + 13.0, legend_y}, {lx + 3.0, legend_y}},
             Rgb{0.85, 0.92, 1.0}, std::nullopt);
   c.text({lx + 15.0, legend_y}, "HGL envelope over the cases; red marks: pressure head below the limit",
-         TextStyle{2.4, Anchor::start, false, 0.0, Rgb{}});
-
+         TextStyle{min_text_mm, Anchor::start, false, 0.0, Rgb{}});
+  // The scales the plot was fitted at (paper mm per ground metre), stated as the trade writes them.
+  const double metres_per_unit = units::from_si(1.0, units::display_unit(L, sys)) > 0.0 ? 1.0 / units::from_si(1.0, units::display_unit(L, sys)) : 1.0;
+  const double h_n = 1000.0 * x_hi * metres_per_unit / pw, v_n = 1000.0 * (y_hi - y_lo) * metres_per_unit / ph;
+  return "H 1:" + fixed_text(h_n, 0) + "   V 1:" + fixed_text(v_n, 0) + "   vertical exaggeration " + fixed_text(h_n / v_n, 0) +
+         ":1 (fitted to the sheet)";
 }
 
 std::string force_main_title(const run::CheckRun& run, std::size_t station) {
@@ -143,7 +148,7 @@ std::string force_main_svg(const run::CheckRun& run, std::size_t station) {
   svg += "<rect x=\"0\" y=\"0\" width=\"" + n(width) + "\" height=\"" + n(height) + "\" fill=\"#ffffff\"/>\n";
   SvgCanvas head;
   head.text({left, 8.0}, title, TextStyle{3.2, Anchor::start, true, 0.0, Rgb{}});
-  head.text({left, height - 6.0}, caution, TextStyle{2.2, Anchor::start, false, 0.0, Rgb{0.3, 0.3, 0.3}});
+  head.text({left, height - 6.0}, caution, TextStyle{min_text_mm, Anchor::start, false, 0.0, Rgb{0.3, 0.3, 0.3}});
   return svg + head.body() + c.body() + "</svg>\n";
 }
 

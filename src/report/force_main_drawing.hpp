@@ -14,8 +14,9 @@ namespace rimline::report {
 // station was not laid out.
 std::string force_main_svg(const run::CheckRun& run, std::size_t station);
 
-// The plot (axes, pipe, HGL per case, envelope, legend) inside `panel`, for SVG and PDF alike.
-void draw_force_main(const run::CheckRun& run, std::size_t station, const Panel& panel, Canvas& c);
+// The plot (axes, pipe, HGL per case, envelope, legend) inside `panel`, for SVG and PDF alike;
+// returns the scales it was drawn at ("H 1:2631   V 1:83   vertical exaggeration 32:1 (fitted to the sheet)").
+std::string draw_force_main(const run::CheckRun& run, std::size_t station, const Panel& panel, Canvas& c);
 
 // "Force main of pump station WW-1 to T-12 (discharge: ...)".
 std::string force_main_title(const run::CheckRun& run, std::size_t station);

@@ -10,16 +10,25 @@
 namespace rimline::report {
 namespace {
 
+// Text is never smaller than 2.5 mm on the A3 sheet (min_text_mm, canvas.hpp), so every row is
+// sized for it.
+constexpr double txt = min_text_mm;
 constexpr double legend_h = 10.0;
-constexpr double axis_margin = 24.0;  // elevation labels and band row names
+constexpr double axis_margin = 26.0;  // elevation labels and band row names
 constexpr double station_row_h = 6.0;
 constexpr double value_row_h = 11.0;
-constexpr double pipe_row_h = 16.0;
+constexpr int value_rows = 5;            // per structure: station, rim, invert, HGL, freeboard
+constexpr double pipe_row_h = 22.0;      // per pipe, rotated: id; size and slope
+constexpr double figure_row_h = 5.0;     // per pipe, level: Q, V, length
+constexpr int figure_rows = 3;
+constexpr double band_h = value_rows * value_row_h + pipe_row_h + figure_rows * figure_row_h;
 constexpr double list_gap = 3.0;
-constexpr double list_row_h = 3.2;
+constexpr double list_row_h = 3.6;
 constexpr double headroom_mm = 20.0;  // structure ids above the highest rim
 constexpr double char_w = 0.55;       // average glyph width / size for a sans font (common practice, no source)
-constexpr double label_gap_mm = 2.6;  // rotated 2.2 mm text plus a little air
+constexpr double label_gap_mm = 3.0;  // rotated 2.5 mm text plus a little air
+constexpr double marker_mm = 4.2;     // a finding marker: a square with its number inside
+constexpr double marker_pitch_mm = 5.0;  // markers side by side or stacked keep this apart
 constexpr int max_stack = 4;          // markers drawn at one station; the rest are counted
 
 const Rgb black{0, 0, 0};
@@ -29,7 +38,9 @@ const Rgb label_grey{0.35, 0.35, 0.35};
 
 std::string fixed(double v, int decimals) {
   if (!std::isfinite(v)) return "-";
-  return fixed_text(v, decimals);
+  std::string t = fixed_text(v, decimals);
+  if (t.size() > 1 && t[0] == '-' && t.find_first_not_of("-0.") == std::string::npos) t.erase(0, 1);  // no "-0"
+  return t;
 }
 
 double text_width(const std::string& s, double size) { return char_w * size * static_cast<double>(s.size()); }
@@ -42,50 +53,53 @@ std::string clip_text(const std::string& s, double size, double width) {
 
 double plot_height(const Panel& p) {
   const double list_h = std::max(4.0 * list_row_h, 0.17 * p.height_mm);
-  return p.height_mm - legend_h - station_row_h - 3.0 * value_row_h - pipe_row_h - list_gap - list_h;
+  return p.height_mm - legend_h - station_row_h - band_h - list_gap - list_h;
 }
 
-void marker_symbol(Canvas& c, Pt at, Severity sev) {
-  const double r = 1.5;
+// A finding marker: a square with the finding's number in it (solid dark red for an error, white
+// with an amber border for a warning), a circle for a note. Not a triangle: on hydraulic drawings
+// the downward triangle marks a water surface.
+void marker_symbol(Canvas& c, Pt at, Severity sev, int number = 0) {
+  const double r = 0.5 * marker_mm;
   if (sev == Severity::info) {
     std::vector<Pt> ring;
-    for (int k = 0; k < 16; ++k) {
-      const double a = 2.0 * M_PI * k / 16.0;
+    for (int k = 0; k < 20; ++k) {
+      const double a = 2.0 * M_PI * k / 20.0;
       ring.push_back({at.x + r * std::cos(a), at.y + r * std::sin(a)});
     }
-    c.polygon(ring, Rgb{1, 1, 1}, Pen{0.25, {}, black});
-    return;
+    c.polygon(ring, Rgb{1, 1, 1}, Pen{0.3, {}, black});
+  } else {
+    const std::vector<Pt> sq{{at.x - r, at.y - r}, {at.x + r, at.y - r}, {at.x + r, at.y + r}, {at.x - r, at.y + r}};
+    if (sev == Severity::error) c.polygon(sq, Rgb{0.60, 0.05, 0.05}, Pen{0.3, {}, black});
+    else c.polygon(sq, Rgb{1, 1, 1}, Pen{0.5, {}, Rgb{0.55, 0.30, 0.0}});
   }
-  // Errors are solid, warnings hollow: a difference of fill, not only of colour.
-  const std::vector<Pt> tri{{at.x - r, at.y - r}, {at.x + r, at.y - r}, {at.x, at.y + r}};
-  if (sev == Severity::error)
-    c.polygon(tri, Rgb{0.65, 0.05, 0.05}, Pen{0.25, {}, black});
-  else
-    c.polygon(tri, Rgb{1, 1, 1}, Pen{0.4, {}, Rgb{0.55, 0.30, 0.0}});
+  if (number > 0)
+    c.text({at.x, at.y + 0.36 * txt}, std::to_string(number),
+           TextStyle{number > 9 ? txt : txt + 0.3, Anchor::middle, true, 0.0, sev == Severity::error ? Rgb{1, 1, 1} : black});
 }
 
 void draw_legend(const ProfileScene& s, const PlotFrame& f, const Panel& p, Canvas& c) {
   double x = p.left_mm + axis_margin;
   const double y = p.top_mm + 5.0;
-  const TextStyle t{2.2, Anchor::start, false, 0.0, black};
+  const TextStyle t{txt, Anchor::start, false, 0.0, black};
   c.begin_group("legend", "");
   for (Stroke k : {Stroke::ground, Stroke::freeboard, Stroke::crown, Stroke::invert, Stroke::hgl, Stroke::egl}) {
     c.polyline({{x, y - 0.7}, {x + 9.0, y - 0.7}}, pen_for(k));
     const std::string label = stroke_label(k, s);
     c.text({x + 10.5, y}, label, t);
-    x += 14.0 + text_width(label, 2.2);
+    x += 14.0 + text_width(label, txt);
   }
   const std::pair<Severity, const char*> sev[] = {
       {Severity::error, "error"}, {Severity::warning, "warning"}, {Severity::info, "info"}};
   for (const auto& [sv, name] : sev) {
-    marker_symbol(c, {x + 1.5, y - 0.9}, sv);
-    c.text({x + 4.0, y}, name, t);
-    x += 6.0 + text_width(name, 2.2);
+    marker_symbol(c, {x + 2.1, y - 0.9}, sv);
+    c.text({x + 5.0, y}, name, t);
+    x += 7.0 + text_width(name, txt);
   }
   c.polygon({{x, y - 3.0}, {x + 2.0, y - 3.0}, {x + 2.0, y + 1.0}, {x, y + 1.0}}, Rgb{1, 1, 1},
             Pen{0.3, {0.8, 0.6}, black});
   c.text({x + 3.5, y}, "structure, rim unknown", t);
-  c.text({p.left_mm + p.width_mm, y}, scale_text(f), TextStyle{2.2, Anchor::end, true, 0.0, black});
+  c.text({p.left_mm + p.width_mm, y}, scale_text(f), TextStyle{txt, Anchor::end, true, 0.0, black});
   c.end_group();
 }
 
@@ -93,8 +107,8 @@ void draw_grid_and_axes(const ProfileScene& s, const PlotFrame& f, Canvas& c) {
   const double right = f.left_mm + f.width_mm, bottom = f.top_mm + f.height_mm;
   const double ystep = nice_step(f.y1 - f.y0, std::max(2, static_cast<int>(f.height_mm / 15.0)));
   const double xstep = nice_step(f.x1 - f.x0, std::max(2, static_cast<int>(f.width_mm / 30.0)));
-  const TextStyle yl{2.2, Anchor::end, false, 0.0, black};
-  const TextStyle xl{2.2, Anchor::middle, false, 0.0, black};
+  const TextStyle yl{txt, Anchor::end, false, 0.0, black};
+  const TextStyle xl{txt, Anchor::middle, false, 0.0, black};
   c.begin_group("grid", "");
   for (double y : ticks(f.y0, f.y1, ystep)) {
     const double py = f.py(y);
@@ -109,7 +123,7 @@ void draw_grid_and_axes(const ProfileScene& s, const PlotFrame& f, Canvas& c) {
   c.polygon({{f.left_mm, f.top_mm}, {right, f.top_mm}, {right, bottom}, {f.left_mm, bottom}}, std::nullopt,
             Pen{0.3, {}, black});
   c.text({f.left_mm - 17.0, f.top_mm + 0.5 * f.height_mm},
-         "Elevation (" + s.length_unit + ")", TextStyle{2.2, Anchor::middle, false, 90.0, black});
+         "Elevation (" + s.length_unit + ")", TextStyle{txt, Anchor::middle, false, 90.0, black});
   c.end_group();
 }
 
@@ -170,34 +184,43 @@ void draw_structures(const ProfileScene& s, const PlotFrame& f, const std::vecto
               Pen{st.outfall ? 0.45 : 0.3, rim_known ? std::vector<double>{} : std::vector<double>{0.8, 0.6}, black});
     if (!labelled[i]) continue;
     const std::string label = st.id + (st.outfall ? " (outfall)" : "");
-    c.text({px + 0.8, top_mm - 1.5}, label, TextStyle{2.2, Anchor::start, true, 90.0, black});
+    // Above the rim where the label fits below the frame's top, else beside the structure below the rim.
+    const double len = text_width(label, txt);
+    if (top_mm - 1.5 - len >= f.top_mm) c.text({px + 0.8, top_mm - 1.5}, label, TextStyle{txt, Anchor::start, true, 90.0, black});
+    else c.text({px + w + txt + 0.3, std::min(top_mm + 1.5 + len, f.top_mm + f.height_mm - 1.0)}, label,
+                TextStyle{txt, Anchor::start, true, 90.0, black});
   }
   c.end_group();
 }
 
+// Markers stand in columns above the features they concern, one column per station, stacked
+// upwards; neighbouring columns are pushed apart so no two markers overlap, each joined to its
+// feature by a thin leader.
 void draw_markers(const ProfileScene& s, const PlotFrame& f, Canvas& c) {
-  std::map<long, int> stacked;  // markers at one station stack upwards, at most max_stack deep
-  std::map<long, int> hidden;
-  std::map<long, Pt> top;
-  for (const auto& m : s.markers) {
-    const long key = std::lround(f.px(m.station) * 2.0);
-    const int k = stacked[key]++;
-    if (k >= max_stack) {
-      ++hidden[key];
-      continue;
+  std::map<long, std::vector<const SceneMarker*>> columns;  // by station on the paper (0.5 mm)
+  for (const auto& m : s.markers) columns[std::lround(f.px(m.station) * 2.0)].push_back(&m);
+  double last_x = -1e9;
+  for (const auto& [key, list] : columns) {
+    const double x = std::max(f.px(list.front()->station) + 3.5, last_x + marker_pitch_mm);
+    last_x = x;
+    double base = 1e9;  // the column starts above the highest of its features
+    for (const SceneMarker* m : list) base = std::min(base, f.py(m->elevation));
+    base = std::max(base - 4.0, f.top_mm + marker_pitch_mm * static_cast<double>(std::min<std::size_t>(list.size(), max_stack)));
+    for (std::size_t k = 0; k < list.size(); ++k) {
+      const SceneMarker& m = *list[k];
+      if (k >= static_cast<std::size_t>(max_stack)) {
+        c.text({x - 0.5 * marker_mm, base - marker_pitch_mm * max_stack + 0.5}, "+" + std::to_string(list.size() - k),
+               TextStyle{txt, Anchor::start, true, 0.0, black});
+        break;
+      }
+      const Pt at{x, base - marker_pitch_mm * static_cast<double>(k)};
+      c.begin_group(std::string("finding finding-") + std::string(severity_name(m.severity)),
+                    std::to_string(m.number) + " " + m.code + " " + m.feature_id + ": " + m.text);
+      if (k == 0) c.polyline({{f.px(m.station), f.py(m.elevation)}, {at.x - 0.5 * marker_mm, at.y + 0.5 * marker_mm}},
+                             Pen{0.15, {}, label_grey});
+      marker_symbol(c, at, m.severity, m.number);
+      c.end_group();
     }
-    const Pt at{f.px(m.station) + 3.0, f.py(m.elevation) - 3.0 - 4.0 * k};
-    top[key] = at;
-    c.begin_group(std::string("finding finding-") + std::string(severity_name(m.severity)),
-                  m.code + " " + m.feature_id + ": " + m.text);
-    c.polyline({{f.px(m.station), f.py(m.elevation)}, {at.x, at.y + 1.5}}, Pen{0.15, {}, label_grey});
-    marker_symbol(c, at, m.severity);
-    c.text({at.x + 2.0, at.y + 0.9}, std::to_string(m.number), TextStyle{2.2, Anchor::start, true, 0.0, black});
-    c.end_group();
-  }
-  for (const auto& [key, n] : hidden) {
-    const Pt at = top[key];
-    c.text({at.x - 1.5, at.y - 2.8}, "+" + std::to_string(n), TextStyle{2.0, Anchor::start, true, 0.0, black});
   }
 }
 
@@ -208,60 +231,107 @@ void draw_jumps(const ProfileScene& s, const PlotFrame& f, Canvas& c) {
     if (!std::isfinite(p.jump_station) || !std::isfinite(p.jump_elevation)) continue;
     const double x = f.px(p.jump_station), y = f.py(p.jump_elevation);
     c.polyline({{x, y + 2.5}, {x, y - 2.5}}, Pen{0.5, {}, pen_for(Stroke::hgl).color});
-    c.text({x, y - 3.2}, "jump", TextStyle{1.8, Anchor::middle, false, 0.0, black});
+    c.text({x, y - 3.2}, "jump", TextStyle{txt, Anchor::middle, false, 0.0, black});
   }
   c.end_group();
 }
 
+// The band below the profile: per structure its station, rim, invert, HGL and freeboard (short
+// freeboard in dark red), per pipe its id, size and slope, then its design flow, highest velocity
+// and length.
 void draw_band(const ProfileScene& s, const PlotFrame& f, const Panel& p, const std::vector<bool>& labelled,
                Canvas& c) {
   const double top = f.top_mm + f.height_mm + station_row_h;
   const double right = f.left_mm + f.width_mm;
-  const TextStyle name{2.2, Anchor::start, true, 0.0, black};
-  const TextStyle value{1.9, Anchor::start, false, 90.0, black};
-  const char* rows[] = {"Rim", "Invert", "HGL"};
+  const TextStyle name{txt, Anchor::start, true, 0.0, black};
+  const TextStyle value{txt, Anchor::start, false, 90.0, black};
+  const TextStyle short_value{txt, Anchor::start, true, 90.0, Rgb{0.60, 0.05, 0.05}};
+  const std::string u = " (" + s.length_unit + ")";
+  const std::string rows[] = {"Station", "Rim" + u, "Invert" + u, "HGL" + u, "Freeboard" + u};
   c.begin_group("band", "");
-  for (int r = 0; r <= 3; ++r) {
+  for (int r = 0; r <= value_rows; ++r) {
     const double y = top + r * value_row_h;
     c.polyline({{p.left_mm, y}, {right, y}}, Pen{0.15, {}, black});
-    if (r < 3) c.text({p.left_mm, y + 6.0}, std::string(rows[r]) + " (" + s.length_unit + ")", name);
+    if (r < value_rows) c.text({p.left_mm, y + 6.0}, clip_text(rows[r], txt, axis_margin - 1.0), name);
   }
-  c.text({p.left_mm, top + 3 * value_row_h + 6.0}, "Pipe", name);
-  const double bottom = top + 3 * value_row_h + pipe_row_h;
-  c.polyline({{p.left_mm, bottom}, {right, bottom}}, Pen{0.15, {}, black});
+  const double pipe_top = top + value_rows * value_row_h;
+  c.text({p.left_mm, pipe_top + 6.0}, "Pipe", name);
+  const double figures_top = pipe_top + pipe_row_h;
+  const bool us = s.system == units::System::us;
+  const std::string figure_rows_names[] = {std::string("Q (") + (us ? "cfs" : "m3/s") + ")",
+                                           std::string("V (") + (us ? "ft/s" : "m/s") + ")", "Length" + u};
+  for (int r = 0; r <= figure_rows; ++r) {
+    const double y = figures_top + r * figure_row_h;
+    c.polyline({{p.left_mm, y}, {right, y}}, Pen{0.15, {}, black});
+    if (r < figure_rows) c.text({p.left_mm, y + 3.8}, figure_rows_names[r], name);
+  }
+  const int decimals = display_decimals(units::Dimension::length, s.system, 0.0);  // mm or 0.01 ft
   for (std::size_t i = 0; i < s.structures.size(); ++i) {
     if (!labelled[i]) continue;
     const auto& st = s.structures[i];
     const double px = f.px(st.station) + 0.7;
-    const double v[] = {st.rim, st.invert, st.hgl};
-    const int decimals = display_decimals(units::Dimension::length, s.system, 0.0);  // mm or 0.01 ft
-    for (int r = 0; r < 3; ++r) c.text({px, top + (r + 1) * value_row_h - 1.0}, fixed(v[r], decimals), value);
+    const double fb = st.rim - st.hgl;
+    const std::string v[] = {station_label(st.station, s.system, s.system == units::System::us ? 2 : 1),
+                             fixed(st.rim, decimals), fixed(st.invert, decimals), fixed(st.hgl, decimals),
+                             fixed(fb, decimals)};
+    for (int r = 0; r < value_rows; ++r)
+      c.text({px, top + (r + 1) * value_row_h - 1.0}, v[r],
+             r == 4 && std::isfinite(fb) && fb < s.freeboard ? short_value : value);
   }
-  // A pipe's two rotated lines need about two label gaps of width.
+  // A pipe's two rotated lines need about two label gaps of width; its level figures their width.
   std::vector<double> mids;
   for (const auto& pp : s.pipes) mids.push_back(f.px(0.5 * (pp.station_down + pp.station_up)));
   const auto pipe_drawn = thin_labels(mids, {}, 2.0 * label_gap_mm);
+  const auto figures_drawn = thin_labels(mids, {}, text_width("0.0000", txt) + 1.0);
   for (std::size_t i = 0; i < s.pipes.size(); ++i) {
-    if (!pipe_drawn[i]) continue;
     const auto& pp = s.pipes[i];
-    const double y = top + 3 * value_row_h + pipe_row_h - 1.0;
-    c.text({mids[i] - 0.3, y}, clip_text(pp.id, 1.7, pipe_row_h - 2.0), TextStyle{1.7, Anchor::start, true, 90.0, black});
-    c.text({mids[i] + 2.0, y}, clip_text(pp.size_text + " " + pp.slope_text, 1.7, pipe_row_h - 2.0),
-           TextStyle{1.7, Anchor::start, false, 90.0, black});
+    if (pipe_drawn[i]) {
+      const double y = pipe_top + pipe_row_h - 1.0;
+      c.text({mids[i] - 0.3, y}, clip_text(pp.id, txt, pipe_row_h - 2.0), TextStyle{txt, Anchor::start, true, 90.0, black});
+      c.text({mids[i] + txt + 0.4, y}, clip_text(pp.size_text + " " + pp.slope_text, txt, pipe_row_h - 2.0),
+             TextStyle{txt, Anchor::start, false, 90.0, black});
+    }
+    if (!figures_drawn[i]) continue;
+    const std::string fig[] = {pp.flow_text, pp.velocity_text, pp.length_text};
+    for (int r = 0; r < figure_rows; ++r)
+      c.text({mids[i], figures_top + r * figure_row_h + 3.8}, fig[r], TextStyle{txt, Anchor::middle, false, 0.0, black});
   }
   c.end_group();
 }
 
+// Where the HGL stands above the required-freeboard line at a structure, the gap is shaded.
+void draw_short_freeboard(const ProfileScene& s, const PlotFrame& f, Canvas& c) {
+  c.begin_group("short-freeboard", "freeboard short of the requirement");
+  for (const auto& st : s.structures) {
+    if (!std::isfinite(st.rim) || !std::isfinite(st.hgl) || st.outfall) continue;
+    const double line = st.rim - s.freeboard;
+    if (!(st.hgl > line)) continue;
+    const double x = f.px(st.station), y0 = f.py(std::min(st.hgl, st.rim)), y1 = f.py(line);
+    c.polygon({{x - 2.4, y0}, {x + 2.4, y0}, {x + 2.4, y1}, {x - 2.4, y1}}, Rgb{0.98, 0.78, 0.74}, Pen{0.15, {}, Rgb{0.60, 0.05, 0.05}});
+  }
+  c.end_group();
+}
+
+// The direction of flow: towards the outfall, station 0, on the left.
+void draw_flow_arrow(const PlotFrame& f, Canvas& c) {
+  const double y = f.top_mm + 5.0, x0 = f.left_mm + 6.0, x1 = x0 + 18.0;
+  c.begin_group("flow-arrow", "direction of flow");
+  c.polyline({{x0 + 2.5, y}, {x1, y}}, Pen{0.5, {}, black});
+  c.polygon({{x0, y}, {x0 + 3.0, y - 1.4}, {x0 + 3.0, y + 1.4}}, black, std::nullopt);
+  c.text({x1 + 2.0, y + 0.9}, "FLOW", TextStyle{txt, Anchor::start, true, 0.0, black});
+  c.end_group();
+}
+
 void draw_finding_list(const ProfileScene& s, const PlotFrame& f, const Panel& p, Canvas& c) {
-  const double top = f.top_mm + f.height_mm + station_row_h + 3 * value_row_h + pipe_row_h + list_gap;
+  const double top = f.top_mm + f.height_mm + station_row_h + band_h + list_gap;
   const double bottom = p.top_mm + p.height_mm;
   const int rows = std::max(1, static_cast<int>((bottom - top) / list_row_h) - 1);
   const double col_w = p.width_mm / 2.0;
-  const TextStyle t{2.0, Anchor::start, false, 0.0, black};
+  const TextStyle t{txt, Anchor::start, false, 0.0, black};
   c.begin_group("finding-list", "");
   c.text({p.left_mm, top + 2.4}, s.markers.empty() ? "No findings on this path in this case."
                                                    : "Findings on this path (marked by number):",
-         TextStyle{2.2, Anchor::start, true, 0.0, black});
+         TextStyle{txt, Anchor::start, true, 0.0, black});
   const std::size_t capacity = static_cast<std::size_t>(2 * rows);
   for (std::size_t i = 0; i < s.markers.size() && i < capacity; ++i) {
     const auto& m = s.markers[i];
@@ -271,9 +341,9 @@ void draw_finding_list(const ProfileScene& s, const PlotFrame& f, const Panel& p
       c.text({x, y}, "... and " + std::to_string(s.markers.size() - i) + " more: see the exception list", t);
       break;
     }
-    marker_symbol(c, {x + 1.5, y - 0.8}, m.severity);
-    const std::string line = std::to_string(m.number) + "  " + m.code + "  " + m.feature_id + "  " + m.text;
-    c.text({x + 4.0, y}, clip_text(line, 2.0, col_w - 6.0), t);
+    marker_symbol(c, {x + 0.5 * marker_mm, y - 0.9}, m.severity, m.number);
+    const std::string line = m.code + "  " + m.feature_id + "  " + m.text;
+    c.text({x + marker_mm + 1.5, y}, clip_text(line, txt, col_w - marker_mm - 3.0), t);
   }
   c.end_group();
 }
@@ -330,6 +400,7 @@ PlotFrame draw_profile(const ProfileScene& scene, const Panel& panel, Canvas& ca
   draw_legend(scene, f, panel, canvas);
   draw_grid_and_axes(scene, f, canvas);
   draw_pipes(scene, f, canvas);
+  draw_short_freeboard(scene, f, canvas);
   draw_line(scene.line(Stroke::ground), f, canvas, "ground");
   draw_line(scene.line(Stroke::freeboard), f, canvas, "freeboard");
   draw_line(scene.line(Stroke::crown), f, canvas, "crown");
@@ -340,6 +411,7 @@ PlotFrame draw_profile(const ProfileScene& scene, const Panel& panel, Canvas& ca
   draw_line(scene.line(Stroke::hgl), f, canvas, "hgl");
   draw_jumps(scene, f, canvas);
   draw_markers(scene, f, canvas);
+  draw_flow_arrow(f, canvas);
   draw_band(scene, f, panel, labelled, canvas);
   draw_finding_list(scene, f, panel, canvas);
   return f;

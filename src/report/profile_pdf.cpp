@@ -7,6 +7,7 @@
 #include "report/profile_draw.hpp"
 #include "report/sheet_text.hpp"
 #include "report/title_block.hpp"
+#include "report/plan_sheet.hpp"
 #include "rimline/error.hpp"
 
 #if __has_include(<cairo-pdf.h>)
@@ -119,9 +120,18 @@ void write_profiles_pdf(const run::CheckRun& run, const std::vector<ProfileSheet
   int k = 0;
   int stations = 0;
   for (const auto& st : run.pump_stations) stations += st.layout.ok ? 1 : 0;
-  const int pages = static_cast<int>(sheets.size()) + stations;
+  const int pages = 1 + static_cast<int>(sheets.size()) + stations;
   std::optional<FindingIndex> own_index;
   const FindingIndex& index = shared_index ? *shared_index : own_index.emplace(run, &sheets);  // once for every page
+  {  // The plan of the whole network first: where each drawn path and finding is.
+    const std::string scale = draw_plan_sheet(run, panel, canvas);
+    TitleInfo info{run.project.name, "Plan of the network, coloured by result over the tailwater cases",
+                   "every tailwater case (the one that governs each feature)", flow_case_text(run),
+                   units_text(run.report_units), scale, date, ++k, pages, "TAILWATER", run.project.vertical_datum,
+                   "HGL-PLAN", "0"};
+    draw_title_block(info, sheet_width_mm, sheet_height_mm, canvas);
+    cairo_show_page(cr);
+  }
   for (const auto& sheet : sheets) {
     const ProfileScene scene = build_scene(run, sheet.path, sheet.case_index, sheet.number, &index);
     const PlotFrame f = draw_profile(scene, panel, canvas);
@@ -133,16 +143,23 @@ void write_profiles_pdf(const run::CheckRun& run, const std::vector<ProfileSheet
                    scale_text(f),
                    date,
                    ++k,
-                   pages};
+                   pages,
+                   "TAILWATER",
+                   run.project.vertical_datum,
+                   "HGL-" + scene.name(),
+                   "0"};
     draw_title_block(info, sheet_width_mm, sheet_height_mm, canvas);
     cairo_show_page(cr);
   }
   // One page per pump station: its force main over every operating case.
   for (std::size_t i = 0; i < run.pump_stations.size(); ++i) {
     if (!run.pump_stations[i].layout.ok) continue;
-    draw_force_main(run, i, panel, canvas);
-    TitleInfo info{run.project.name, force_main_title(run, i), "every operating case", flow_case_text(run),
-                   units_text(run.report_units), "scales as drawn (no stated scale)", date, ++k, pages};
+    const std::string scales = draw_force_main(run, i, panel, canvas);
+    const auto& ps = run.project.pump_stations[i];
+    TitleInfo info{run.project.name, force_main_title(run, i),
+                   "1 to " + std::to_string(ps.duty_pumps) + " pumps, wet well low and high",
+                   flow_case_text(run), units_text(run.report_units), scales, date, ++k, pages, "OPERATING CASES",
+                   run.project.vertical_datum, "HGL-" + ps.id + "-FM", "0"};
     draw_title_block(info, sheet_width_mm, sheet_height_mm, canvas);
     cairo_show_page(cr);
   }

@@ -176,7 +176,14 @@ ProfileScene build_scene(const run::CheckRun& run, const ProfilePath& path, std:
     const auto& r = kase.march.conduits[ci];
     const auto [down, up] = pipe_inverts(net, r, ci);
     ScenePipe p{c.id, cv(path.station_m[i]), cv(path.station_m[i + 1]), cv(down), cv(up),
-                cv(hydraulics::rise_m(c.section)), size_text(c.section, s.system), "", r.solved, nan, nan};
+                cv(hydraulics::rise_m(c.section)), size_text(c.section, s.system), "", r.solved, nan, nan, "", "", ""};
+    if (r.solved) {
+      p.flow_text = display_number(r.flow_m3_s, units::Dimension::flow, s.system);
+      double v = 0.0;
+      for (const auto& pt : r.profile.points) v = std::max(v, pt.velocity_m_s);
+      p.velocity_text = display_number(v, units::Dimension::velocity, s.system);
+    }
+    if (c.length_m > 0.0) p.length_text = distance_number(c.length_m, s.system);
     if (c.length_m > 0.0 && std::isfinite(up - down)) {
       char buf[32];
       std::snprintf(buf, sizeof buf, "%.2f %%", 100.0 * (up - down) / (p.station_up - p.station_down));
@@ -304,5 +311,7 @@ std::vector<SceneMarker> place_findings(const ProfileScene& scene, const Finding
   }
   return number_markers(std::move(out));
 }
+
+std::string pipe_size_text(const hydraulics::Section& section, units::System system) { return size_text(section, system); }
 
 }  // namespace rimline::report

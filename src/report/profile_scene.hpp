@@ -45,6 +45,10 @@ struct ScenePipe {
   bool solved = false;
   double jump_station = 0.0;    // hydraulic jump in the pipe; NaN when none
   double jump_elevation = 0.0;  // HGL at the step point nearest the jump
+  // The band's pipe figures, rendered in the run's units ("" when unknown):
+  std::string flow_text;      // "0.512" (the design flow, m3/s | cfs)
+  std::string velocity_text;  // "2.31" (the highest along it, m/s | ft/s)
+  std::string length_text;    // "72.0" (m | ft)
 };
 
 struct SceneMarker {
@@ -103,5 +107,8 @@ ProfileScene build_scene(const run::CheckRun& run, const ProfilePath& path, std:
 // Findings of the case (criteria) and of the run (data) that concern a structure or conduit on
 // the path, placed at that feature: structures at their station, conduits mid-pipe.
 std::vector<SceneMarker> place_findings(const ProfileScene& scene, const Findings& findings, units::System system);
+
+// A pipe's size as the drawings label it ("1500 mm", "60 in", "1200 x 900 mm"); also the results tables'.
+std::string pipe_size_text(const hydraulics::Section& section, units::System system);
 
 }  // namespace rimline::report

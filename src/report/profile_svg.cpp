@@ -107,7 +107,7 @@ std::string scene_svg(const ProfileScene& scene, const std::string& project_name
   head.text({sheet_w - margin, margin + 3.0},
             project_name + "  |  " + scene.case_label + "  |  elevations and stations in " + scene.length_unit,
             TextStyle{2.6, Anchor::end, false, 0.0, Rgb{}});
-  head.text({margin, sheet_h - margin + 2.0}, caution, TextStyle{2.2, Anchor::start, false, 0.0, Rgb{0.3, 0.3, 0.3}});
+  head.text({margin, sheet_h - margin + 2.0}, caution, TextStyle{min_text_mm, Anchor::start, false, 0.0, Rgb{0.3, 0.3, 0.3}});
   svg += head.body() + c.body() + "</svg>\n";
   return svg;
 }

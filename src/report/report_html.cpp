@@ -14,8 +14,14 @@
 #include "report/method_text.hpp"
 #include "report/html_cells.hpp"
 #include "report/html_style.hpp"
+#include "report/review_style.hpp"
 #include "report/pump_station_html.hpp"
 #include "report/sheet_text.hpp"
+#include "report/verdict.hpp"
+#include "report/inputs_detail.hpp"
+#include "report/results_tables.hpp"
+#include "report/exception_links.hpp"
+#include "report/plan_map.hpp"
 #include "rimline/hydraulics/friction.hpp"
 #include "rimline/method_registry.hpp"
 #include "rimline/report/outputs.hpp"
@@ -49,6 +55,7 @@ std::string summary_section(const run::CheckRun& run, const std::string& date) {
   h += row({"Run date (UTC)", esc(date)});
   h += row({"rimline", esc(version_string)});
   h += row({"Report units", esc(units_text(sys))});
+  h += row({"Vertical datum", esc(vertical_datum_text(run))});
   h += row({"Coordinate system", esc(net.crs_description) + (net.crs_note.empty() ? "" : " (" + esc(net.crs_note) + ")")});
   h += row({"Flow case", esc(flow_case_text(run))});
   h += row({"Network", std::to_string(ns.structures) + " structures (" + std::to_string(ns.derived_structures) +
@@ -92,6 +99,7 @@ std::string inputs_section(const run::CheckRun& run) {
     }
     h += "</table>\n";
   }
+  h += inputs_detail(run);
   h += "</section>\n";
   return h;
 }
@@ -212,22 +220,26 @@ constexpr std::size_t rows_per_code = 200;
 // linked from the profile index (each is its own SVG file and a PDF sheet).
 constexpr std::size_t max_inline_profiles = inline_profiles;
 
-std::string finding_row(const Finding& f, units::System sys) {
+std::string finding_row(const run::CheckRun& run, const Finding& f, const FeatureLinks& links) {
+  const auto sys = run.report_units;
   const bool has_value = std::isfinite(f.value) || std::isfinite(f.limit);
-  return row({"<b>" + esc(f.code) + "</b>", esc(layer_role_name(f.layer)), esc(f.feature_id), esc(f.field),
-              value(f.value, f.dimension, sys), value(f.limit, f.dimension, sys),
-              has_value ? esc(unit(f.dimension, sys)) : "", esc(render_message(f.message, sys))});
+  const auto k = static_cast<std::size_t>(&f - run.findings.data());  // rows are findings of the run
+  const bool own = k < run.findings.size();
+  const std::string r = row({"<b>" + esc(f.code) + "</b>", esc(layer_role_name(f.layer)), esc(f.feature_id), esc(f.field),
+                             value(f.value, f.dimension, sys), value(f.limit, f.dimension, sys),
+                             has_value ? esc(unit(f.dimension, sys)) : "", esc(render_message(f.message, sys)),
+                             own ? finding_links(run, links, k) : std::string()});
+  return own ? "<tr id=\"exc-" + std::to_string(k) + "\"" + r.substr(3) : r;
 }
 
 std::string findings_table(const run::CheckRun& run, const std::vector<const Finding*>& list, const std::string& id,
-                           bool budgets) {
-  const auto sys = run.report_units;
+                           bool budgets, const FeatureLinks& links) {
   std::unordered_map<std::string, std::size_t> structure_index;
   if (budgets)
     for (std::size_t s = 0; s < run.read.network.structures.size(); ++s)
       structure_index.emplace(run.read.network.structures[s].id, s);
   std::string h = "<table class=\"findings\" id=\"" + id + "\">\n<thead>" +
-                  row({"Code", "Layer", "Feature", "Field", "Value", "Limit", "Unit", "Message"}, "th") + "</thead>\n";
+                  row({"Code", "Layer", "Feature", "Field", "Value", "Limit", "Unit", "Message", "Shown"}, "th") + "</thead>\n";
   for (Severity sev : {Severity::error, Severity::warning, Severity::info}) {
     std::map<std::string, std::vector<const Finding*>> by_code;
     std::size_t n = 0;
@@ -237,7 +249,7 @@ std::string findings_table(const run::CheckRun& run, const std::vector<const Fin
         ++n;
       }
     const std::string name(severity_name(sev));
-    h += "<tbody class=\"sev-" + name + "\"><tr class=\"group\"><th colspan=\"8\">" + name + " (" + std::to_string(n) +
+    h += "<tbody class=\"sev-" + name + "\"><tr class=\"group\"><th colspan=\"9\">" + name + " (" + std::to_string(n) +
          ")</th></tr>\n";
     for (auto& [code, rows] : by_code) {
       const std::size_t total = rows.size();
@@ -255,17 +267,17 @@ std::string findings_table(const run::CheckRun& run, const std::vector<const Fin
         rows = std::move(worst);
       }
       for (const Finding* f : rows) {
-        h += finding_row(*f, sys);
+        h += finding_row(run, *f, links);
         // Budgets answer "why is the HGL this high here": asked of warnings and errors, not of
         // notes such as an unknown rim (thousands of them in a municipal export).
         if (!budgets || f->layer != LayerRole::structures || f->severity == Severity::info || run.cases.empty()) continue;
         const auto it = structure_index.find(f->feature_id);
         if (it == structure_index.end()) continue;
         const std::string b = budget(run, it->second);
-        if (!b.empty()) h += "<tr class=\"budget-row\"><td></td><td colspan=\"7\">" + b + "</td></tr>\n";
+        if (!b.empty()) h += "<tr class=\"budget-row\"><td></td><td colspan=\"8\">" + b + "</td></tr>\n";
       }
       if (total > rows_per_code)
-        h += "<tr class=\"more\"><td colspan=\"8\">" + std::to_string(rows_per_code) + " of " +
+        h += "<tr class=\"more\"><td colspan=\"9\">" + std::to_string(rows_per_code) + " of " +
              std::to_string(total) + " " + esc(code) + " " + name +
              "s shown, the worst first; exceptions.csv lists all of them.</td></tr>\n";
     }
@@ -275,7 +287,8 @@ std::string findings_table(const run::CheckRun& run, const std::vector<const Fin
   return h;
 }
 
-std::string data_findings_section(const run::CheckRun& run, const std::vector<const Finding*>& data) {
+std::string data_findings_section(const run::CheckRun& run, const std::vector<const Finding*>& data,
+                                  const FeatureLinks& links) {
   std::map<std::string, int> by_code;
   for (const Finding* f : data) ++by_code[f->code];
   std::string h = "<section id=\"data-findings\"><h2>Data findings</h2>\n<p>Problems in the input data found while "
@@ -283,7 +296,7 @@ std::string data_findings_section(const run::CheckRun& run, const std::vector<co
   std::string counts;
   for (const auto& [code, n] : by_code) counts += (counts.empty() ? "" : ", ") + esc(code) + " " + std::to_string(n);
   h += (counts.empty() ? "none" : counts) + ".</p>\n";
-  h += findings_table(run, data, "data-table", false);
+  h += findings_table(run, data, "data-table", false, links);
   h += "</section>\n";
   return h;
 }
@@ -351,25 +364,27 @@ void write_report_html(std::ostream& out, const run::CheckRun& run, const std::v
   // Written a section at a time: the page of a city's run is ~22 MB, and built as one string it
   // held ~0.1 GB at once (its growth and the sections appended to it).
   std::string h = "<!DOCTYPE html>\n<html lang=\"en\">\n<head>\n<meta charset=\"utf-8\">\n<title>rimline review: " +
-                  esc(run.project.name) + "</title>\n<style>\n" + std::string(report_css) + "</style>\n</head>\n<body>\n";
+                  esc(run.project.name) + "</title>\n<style>\n" + std::string(report_css) + review_css + "</style>\n</head>\n<body>\n";
   h += "<header><div class=\"mark\">rimline</div><h1>Hydraulic grade line review: " + esc(run.project.name) +
        "</h1>\n<p class=\"caution\" id=\"caution-top\">" + esc(caution) + "</p></header>\n<main>\n";
-  h += "<nav><a href=\"#summary\">Summary</a> <a href=\"#inputs\">Inputs</a> <a href=\"#methods\">Methods</a> "
+  h += "<nav><a href=\"#verdict\">Verdict</a> <a href=\"#plan\">Plan</a> <a href=\"#summary\">Summary</a> <a href=\"#inputs\">Inputs</a> <a href=\"#methods\">Methods</a> "
        "<a href=\"#exceptions\">Exceptions</a> " +
        std::string(run.pump_stations.empty() ? "" : "<a href=\"#pump-stations\">Pump stations</a> ") +
-       "<a href=\"#profiles\">Profiles</a> <a href=\"#data-findings\">Data findings</a>" +
+       "<a href=\"#results\">Results</a> <a href=\"#profiles\">Profiles</a> <a href=\"#data-findings\">Data findings</a>" +
        std::string(run.catchment_flows ? " <a href=\"#design-flows\">Design flows</a>" : "") + "</nav>\n";
-  out << h;
+  const FeatureLinks links(run, profiles);
+  out << h << verdict_section(run) << plan_map_section(run, links);
   out << summary_section(run, date) << inputs_section(run) << methods_section(run) << design_flows_section(run);
   out << "<section id=\"exceptions\"><h2>Exception list</h2>\n<p>Design criteria not met, worst case over the "
          "tailwater cases, by severity. A structure warning or error opens to its energy budget down to the "
          "outfall.</p>\n";
-  out << findings_table(run, criteria, "exception-table", true) << "</section>\n";
+  out << findings_table(run, criteria, "exception-table", true, links) << "</section>\n";
   out << pump_stations_section(run);
+  out << results_tables_section(run, links);
   out << profiles_section(profiles, pdf_written, run.report_units, selection);
-  out << data_findings_section(run, data);
+  out << data_findings_section(run, data, links);
   out << "</main>\n<footer><p class=\"caution\" id=\"caution\">" << esc(caution)
-      << "</p></footer>\n</body>\n</html>\n";
+      << "</p></footer>\n<script>" << sortable_script << "</script>\n</body>\n</html>\n";
 }
 
 std::string report_html(const run::CheckRun& run, const std::vector<RenderedProfile>& profiles,

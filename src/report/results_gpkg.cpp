@@ -21,6 +21,7 @@
 #include "rimline/report/staged_files.hpp"
 #include "report/gpkg_rows.hpp"
 #include "report/gpkg_rtree.hpp"
+#include "report/layer_styles.hpp"
 #include "report/sqlite_db.hpp"
 
 namespace rimline::report {
@@ -74,6 +75,7 @@ class Writer {
     write_conduit_rows(db, indexes);
     for (auto& [layer, rq] : indexes_) indexes.push_back(std::move(rq));
     add_gpkg_spatial_indexes(db, indexes);
+    write_layer_styles(db);
     db.exec("COMMIT", "");
   }
 

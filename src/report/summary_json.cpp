@@ -111,6 +111,8 @@ std::string summary_json(const run::CheckRun& run) {
                 {"flow", units::unit_symbol(units::display_unit(units::Dimension::flow, sys))},
                 {"velocity", units::unit_symbol(units::display_unit(units::Dimension::velocity, sys))}};
   j["crs"] = {{"run", net.crs_description}, {"note", net.crs_note}};
+  // The datum of every level in this file ([project] vertical_datum as written; null: not stated).
+  j["vertical_datum"] = run.project.vertical_datum.empty() ? nlohmann::json() : nlohmann::json(run.project.vertical_datum);
   ordered_json energy_by_structure = ordered_json::object();
   for (const auto& [id, e] : structure_energy_exceptions(run)) energy_by_structure[id] = e;
   ordered_json basis_by_pipe = ordered_json::object();

@@ -17,9 +17,13 @@ struct TitleInfo {
   std::string date;
   int sheet = 1;
   int sheets = 1;
+  std::string case_caption = "TAILWATER";  // "OPERATING CASES" on a force-main sheet
+  std::string datum;                       // the vertical datum of the levels
+  std::string number;                      // drawing number, "HGL-OF-1-2"
+  std::string revision = "0";              // rimline issues revision 0; the engineer revises
 };
 
-inline constexpr double title_block_h_mm = 38.0;
+inline constexpr double title_block_h_mm = 40.0;
 inline constexpr double sheet_margin_mm = 10.0;
 
 // Draws the border and title block on a sheet of width x height mm.

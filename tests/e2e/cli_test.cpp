@@ -56,9 +56,12 @@ TEST_CASE("cli: the dry run prints the network summary and the data findings") {
 
 TEST_CASE("cli: exit codes 0/1 follow --fail-on") {
   const auto out = std::string(rimline::test::binary_dir) + "/cli-demo";
-  // The demo has warnings (freeboard, surcharge) and no error-severity finding.
+  // The demo fails freeboard at T-04 under tailwater 3.90 m (FREEBOARD: an error, it decides a permit);
+  // at 3.20 m alone it keeps its freeboard and has warnings only (surcharge, velocity, capacity).
   CHECK(run("check " + demo("metric") + " --out " + out + " -q").code == 1);
-  CHECK(run("check " + demo("metric") + " --out " + out + " -q --fail-on error").code == 0);
+  CHECK(run("check " + demo("metric") + " --out " + out + " -q --fail-on error").code == 1);
+  CHECK(run("check " + demo("metric") + " --out " + out + " -q --fail-on error --tailwater \"3.20 m\"").code == 0);
+  CHECK(run("check " + demo("metric") + " --out " + out + " -q --tailwater \"3.20 m\"").code == 1);
 }
 
 TEST_CASE("cli: a bad project file is exit 2 and names the file, line and key with a suggestion") {
@@ -112,7 +115,7 @@ TEST_CASE("cli: fields proposes a mapping and writes a starter project that pars
 TEST_CASE("cli: --profile-from draws one structure's path; an unknown id is exit 2 with a suggestion") {
   const auto out = std::string(rimline::test::binary_dir) + "/cli-profile";
   std::filesystem::remove_all(out);
-  const auto ok = run("check " + demo("metric") + " --out " + out + " -q --fail-on error --profile-from B-08");
+  const auto ok = run("check " + demo("metric") + " --out " + out + " -q --fail-on error --tailwater \"3.20 m\" --profile-from B-08");
   INFO(ok.out);
   CHECK(ok.code == 0);
   CHECK(std::filesystem::exists(out + "/profiles.pdf"));

@@ -7,10 +7,12 @@
 
 #include <catch2/catch.hpp>
 #include <cmath>
+#include <cstdio>
 #include <filesystem>
 #include <fstream>
 #include <nlohmann/json.hpp>
 #include <regex>
+#include <set>
 #include <sstream>
 
 #include "rimline/config/project.hpp"
@@ -83,9 +85,16 @@ TEST_CASE("sweep: every finding names its case, and the envelope figures come fr
   CHECK(checked >= 10);
   // exceptions.csv carries the case in its own column, before the message.
   const std::string csv = report::exceptions_csv(r);
-  CHECK(csv.rfind("code,severity,layer,feature_id,field,value,limit,unit,case,message\n", 0) == 0);
-  CHECK(csv.find(",tailwater 3.900 m,\"structure T-04: the HGL") != std::string::npos);
-  CHECK(csv.find("REVERSED,info,conduits,C-02,,,,,,") != std::string::npos);  // not a case's finding
+  CHECK(csv.rfind("code,severity,layer,feature_id,field,value,limit,shortfall,unit,case,x,y,message\n", 0) == 0);
+  // T-04: freeboard 0.288 m against 0.300 m, shortfall 0.288 - 0.300 = -0.012 m, at the structure's point.
+  const auto& t04 = r.read.network.structures[index_of(r.read.network.structures, "T-04")].location;
+  char xy[80];
+  std::snprintf(xy, sizeof xy, "%.3f,%.3f", t04.x, t04.y);
+  CHECK(csv.find("FREEBOARD,error,structures,T-04,,0.288,0.300,-0.012,m,tailwater 3.900 m," + std::string(xy) +
+                 ",\"structure T-04: the HGL") != std::string::npos);
+  CHECK(csv.find("REVERSED,info,conduits,C-02,,,,,,,") != std::string::npos);  // not a case's finding
+  // CAPACITY: which number is the flow and which the capacity.
+  CHECK(csv.find("pipe D-05: the design flow 0.0600 m3/s is 121% of its full-flow capacity 0.0497 m3/s") != std::string::npos);
 }
 
 TEST_CASE("results.gpkg: a checked force main has its row in force_mains only; the velocity rules' figures") {
@@ -96,6 +105,18 @@ TEST_CASE("results.gpkg: a checked force main has its row in force_mains only; t
   GDALAllRegister();
   GDALDatasetUniquePtr ds(GDALDataset::Open((out / "results.gpkg").string().c_str(), GDAL_OF_VECTOR | GDAL_OF_READONLY));
   REQUIRE(ds);
+  // The default styles a desktop GIS reads: one per result layer, the default, with QML and SLD.
+  OGRLayer* styles = ds->GetLayerByName("layer_styles");
+  REQUIRE(styles);
+  std::set<std::string> styled;
+  for (auto& f : *styles) {
+    styled.insert(f->GetFieldAsString("f_table_name"));
+    CHECK(f->GetFieldAsInteger("useAsDefault") == 1);
+    CHECK(std::string(f->GetFieldAsString("f_geometry_column")) == "geom");
+    CHECK(std::string(f->GetFieldAsString("styleQML")).find("renderer-v2") != std::string::npos);
+    CHECK(std::string(f->GetFieldAsString("styleSLD")).find("StyledLayerDescriptor") != std::string::npos);
+  }
+  CHECK(styled == std::set<std::string>{"conduits", "conduits_not_checked", "force_main_points", "force_mains", "structures"});
   auto ids = [&](const char* layer) {
     std::vector<std::string> v;
     for (auto& f : *ds->GetLayerByName(layer)) v.push_back(f->GetFieldAsString("id"));

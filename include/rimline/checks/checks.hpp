@@ -1,7 +1,7 @@
 #pragma once
 // The design criteria applied to a march result; every violation becomes a Finding.
 //   FLOODED          error    structure HGL above the rim
-//   FREEBOARD        warning  structure HGL within the required freeboard below the rim
+//   FREEBOARD        error    structure HGL within the required freeboard below the rim
 //   RIM_UNKNOWN      info     no rim level: freeboard and flooding could not be checked
 //   SURCHARGED       warning  pipe HGL above the crown over part or all of its length
 //   VELOCITY_LOW     warning  self-cleansing velocity below the minimum: the design flow at normal depth

@@ -6,7 +6,9 @@
 // The user's reference to every key (unit, default, example, the findings it can raise) is
 // docs/project-file.md; src/config/project_keys.cpp holds the same keys as the parser's table.
 // Schema in brief (all paths relative to the project file; quantities are strings "<number> <unit>"):
-//   [project]   name, units = "si"|"us" (report units), crs = "EPSG:xxxx" (only when a source has none)
+//   [project]   name, units = "si"|"us" (report units), crs = "EPSG:xxxx" (only when a source has none),
+//               vertical_datum = "..." (the datum of every level in the inputs, e.g. the agency's survey
+//               datum; stated wherever the outputs give levels; not converted)
 //   [pipes]     source, layer, snap_tolerance = "0.5 m",
 //               open_options = ["X_POSSIBLE_NAMES=X"]  (GDAL open options, e.g. for CSV; any layer source)
 //               shape_from_height = true   (no shape field: a feature whose mapped height is > 0 is a box
@@ -276,6 +278,7 @@ struct Project {
   std::string name;
   units::System report_units = units::System::si;
   std::string crs_override;
+  std::string vertical_datum;  // [project] vertical_datum, as written; "" when not stated
   LayerSource pipes;
   LayerSource structures;  // source empty: structures derived from pipe ends
   double snap_tolerance_m = 0.5;

@@ -1,8 +1,10 @@
 #pragma once
 // The outputs contract of `rimline check --out DIR`:
-//   DIR/exceptions.csv  one row per finding: code,severity,layer,feature_id,field,value,limit,unit,case,message
-//                       (case: the tailwater case the row comes from, "every tailwater case", or empty when
-//                       the finding does not depend on the case)
+//   DIR/exceptions.csv  one row per finding: code,severity,layer,feature_id,field,value,limit,shortfall,unit,case,x,y,message
+//                       (shortfall: value - limit with its sign; case: the tailwater case the row comes from,
+//                       "every tailwater case", or empty when the finding does not depend on the case;
+//                       x, y: where the feature is, run CRS in its own unit: a structure's point, the middle
+//                       of a pipe, a catchment's centroid, a pump station's wet well; empty for the project)
 //   DIR/results.gpkg    layers structures, conduits (input CRS; values in the run's unit system),
 //                       and, for a tailwater sweep, the table structure_cases (one row per structure and level)
 //   DIR/summary.json    run metadata, inputs with SHA-256, units, criteria, methods, counts, worst freeboard

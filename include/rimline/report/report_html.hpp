@@ -25,6 +25,14 @@ struct RenderedProfile {
   double least_freeboard = std::numeric_limits<double>::quiet_NaN();  // rim - HGL, lowest on the path
   std::string least_freeboard_at;  // structure id
   std::size_t findings = 0;        // findings marked on the drawing
+  // What the drawing shows, for the links from the plan map and the exception list to it:
+  std::size_t case_index = static_cast<std::size_t>(-1);  // the tailwater case drawn (-1: not a case's drawing)
+  std::vector<std::string> structure_ids, conduit_ids;   // the features on the path
+  struct Marker {
+    int number = 0;
+    std::string code, feature_id;
+  };
+  std::vector<Marker> markers;  // the numbered finding markers drawn
 };
 
 // The page shows the first profiles inline; the others are linked to their SVG files (and need
