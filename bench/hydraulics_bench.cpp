@@ -9,7 +9,7 @@ using namespace rimline::hydraulics;
 namespace {
 ConduitReach pipe_100m(double slope, double flow) {
   ConduitReach r;
-  r.section = {Shape::circular, 1.0, 0.0, 0.0};
+  r.section = {Shape::circular, 1.0, 0.0, 0.0, {}};
   r.length_m = 100.0;
   r.invert_down_m = 10.0;
   r.invert_up_m = 10.0 + slope * 100.0;
@@ -41,17 +41,17 @@ static void BM_profile_darcy_M2(benchmark::State& s) {
 }
 
 static void BM_normal_depth(benchmark::State& state) {
-  const Section s{Shape::circular, 1.0, 0.0, 0.0};
+  const Section s{Shape::circular, 1.0, 0.0, 0.0, {}};
   for (auto _ : state) benchmark::DoNotOptimize(normal_depth(Roughness{}, s, 0.5, 0.001).depth_m);
 }
 static void BM_normal_depth_darcy(benchmark::State& state) {
-  const Section s{Shape::circular, 1.0, 0.0, 0.0};
+  const Section s{Shape::circular, 1.0, 0.0, 0.0, {}};
   Roughness r;
   r.law = FrictionLaw::darcy_weisbach;
   for (auto _ : state) benchmark::DoNotOptimize(normal_depth(r, s, 0.5, 0.001).depth_m);
 }
 static void BM_critical_depth(benchmark::State& state) {
-  const Section s{Shape::circular, 1.0, 0.0, 0.0};
+  const Section s{Shape::circular, 1.0, 0.0, 0.0, {}};
   for (auto _ : state) benchmark::DoNotOptimize(critical_depth(s, 0.5).depth_m);
 }
 

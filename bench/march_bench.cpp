@@ -38,7 +38,7 @@ std::vector<PipeCase> partly_full_cases() {
     const double q_full = area * std::pow(d / 4.0, 2.0 / 3.0) * std::sqrt(slope) / 0.013;
     const double q = q_full * (0.1 + 0.6 * ((i * 53) % 97) / 96.0);
     PipeCase c;
-    c.reach.section = {hydraulics::Shape::circular, d, 0.0, 0.0};
+    c.reach.section = {hydraulics::Shape::circular, d, 0.0, 0.0, {}};
     c.reach.length_m = 30.0 + 90.0 * ((i * 29) % 89) / 88.0;
     c.reach.invert_down_m = 10.0;
     c.reach.invert_up_m = 10.0 + slope * c.reach.length_m;
@@ -102,7 +102,7 @@ Built dendritic(std::size_t n) {
     c.id = "P" + std::to_string(k);
     c.from_id = net.structures[k].id;
     c.to_id = net.structures[down].id;
-    c.section = {hydraulics::Shape::circular, std::max(0.225, 2.4 * std::pow(0.8, level(k))), 0.0, 0.0};
+    c.section = {hydraulics::Shape::circular, std::max(0.225, 2.4 * std::pow(0.8, level(k))), 0.0, 0.0, {}};
     c.length_m = c.geometry_length_m = 75.0;
     c.invert_up_m = *net.structures[k].invert_m;
     c.invert_down_m = *c.invert_up_m - 0.375;

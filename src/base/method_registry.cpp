@@ -5,7 +5,7 @@
 namespace rimline {
 namespace {
 
-constexpr std::array<MethodRow, 32> rows{{
+constexpr std::array<MethodRow, 35> rows{{
     {"friction", "manning", "Manning", "V = (1/n) R^(2/3) S^(1/2) on the hydraulic radius of the wetted section",
      "Manning (1891); SI form, and the US form with 1.486 = (1/0.3048)^(1/3) ft^(1/3)/m^(1/3)"},
     {"friction", "darcy_weisbach", "Darcy-Weisbach with Colebrook-White",
@@ -44,6 +44,21 @@ constexpr std::array<MethodRow, 32> rows{{
      "the tailwater or pump-on level is the arriving pipe's HGL at its outlet (its velocity head is spent in the "
      "receiving water), or critical depth at a free outlet when that is higher",
      "common practice, no source (exit loss K = 1)"},
+    {"section", "egg", "Standard egg (ovoid) section",
+     "height H = 1.5 x width: top arc of radius H/3, side arcs of radius H tangent to it at mid-width, invert arc "
+     "of radius H/6; area, perimeter, top width and first moment in closed form zone by zone; geometry from the "
+     "height (a width off that proportion is a finding)",
+     "the old-form egg-shaped sewer; full-bore A = 1.1485 D^2, P = 3.965 D, R = 0.2897 D (D the width), as in "
+     "sewer-design handbooks - from memory, reproduced by the tests"},
+    {"section", "table", "Closed section by a depth -> width table",
+     "[pipes.section_tables.NAME]: width fractions of the span at depth fractions of the rise, linear between rows "
+     "(area, walls, first moment exact for that); a last width above 0 is a flat soffit; full flow on the whole "
+     "closed perimeter",
+     "common practice, no source"},
+    {"section", "equal_area_circle", "Unknown shape code (only by [pipes] unknown_shape)",
+     "a shape value listed nowhere is a finding; with unknown_shape = \"equal_area_circle\" the pipe is checked as "
+     "the circle of the area of the ellipse width x height, D = sqrt(width x height); otherwise it is left out",
+     "common practice, no source"},
     {"water", "viscosity", "Kinematic viscosity of water",
      "nu(T) from the Vogel equation for the dynamic viscosity over the density of water, at [methods] "
      "water_temperature (default 15 C); used by Darcy-Weisbach (Reynolds number), pipes and force mains",

@@ -61,8 +61,48 @@ LayerSource read_layer_source(TomlSection& s, const std::string& directory) {
 }
 
 hydraulics::Shape shape_choice(TomlSection& s, std::string_view key, hydraulics::Shape fallback) {
-  return s.choice<hydraulics::Shape>(key, {{"circular", hydraulics::Shape::circular}, {"box", hydraulics::Shape::box}})
+  return s.choice<hydraulics::Shape>(key, {{"circular", hydraulics::Shape::circular},
+                                           {"box", hydraulics::Shape::box},
+                                           {"egg", hydraulics::Shape::egg}})
       .value_or(fallback);
+}
+
+// An array of plain numbers (integers allowed), e.g. a section table's depths.
+std::vector<double> number_array(TomlSection& s, std::string_view key) {
+  std::vector<double> out;
+  const toml::node* node = s.node(key);
+  if (!node) return out;
+  const toml::array* arr = node->as_array();
+  if (!arr) s.fail_at(node, key, "expected an array of numbers");
+  for (const toml::node& el : *arr) {
+    const auto v = el.value<double>();
+    if (!v) s.fail_at(node, key, "expected an array of numbers");
+    out.push_back(*v);
+  }
+  return out;
+}
+
+// [pipes.section_tables.NAME]: a closed section by its width at each depth; the shape values in
+// `codes` map to it.
+void read_section_tables(TomlSection tables, Project& p) {
+  for (const auto& [name, node] : tables.entries()) {
+    if (!node->is_table()) tables.fail_at(node, name, "must be a table (codes, depth, width)");
+    TomlSection one(node->as_table(), tables.name() + "." + name, p.file, tables.pattern() + ".*");
+    auto t = std::make_shared<hydraulics::SectionTable>();
+    t->name = name;
+    t->depth = number_array(one, "depth");
+    t->width = number_array(one, "width");
+    if (const auto why = hydraulics::table_problem(*t); !why.empty()) one.fail("depth", why);
+    const auto codes = one.strings("codes");
+    if (codes.empty()) one.fail("codes", "lists the pipes' shape values that use this section; none given");
+    for (const auto& code : codes) {
+      if (p.shape_values.count(code)) one.fail("codes", "\"" + code + "\" already names another shape");
+      p.shape_values[code] = hydraulics::Shape::table;
+      p.shape_tables[code] = t;
+    }
+    one.finish();
+  }
+  tables.finish();
 }
 
 // A plausible range for a project value, named by the [plausibility] keys that set it.
@@ -178,9 +218,15 @@ void read_pipes(TomlSection s, Project& p) {
 
   TomlSection shapes = s.table("shapes");
   for (auto [name, shape] : {std::pair<std::string_view, hydraulics::Shape>{"circular", hydraulics::Shape::circular},
-                             {"box", hydraulics::Shape::box}})
+                             {"box", hydraulics::Shape::box},
+                             {"egg", hydraulics::Shape::egg}})
     for (const auto& value : shapes.strings(name)) p.shape_values[value] = shape;
   shapes.finish();
+  read_section_tables(s.table("section_tables"), p);
+  p.unknown_shape_as_circle = s.choice<bool>("unknown_shape", {{"leave_out", false}, {"equal_area_circle", true}})
+                                  .value_or(false);
+  if (p.unknown_shape_as_circle && pf.shape.empty())
+    s.fail("unknown_shape", "needs pipes.fields.shape to be mapped (it is about the shape field's values)");
   s.finish();
 }
 

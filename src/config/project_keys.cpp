@@ -25,7 +25,9 @@ const std::vector<std::string>& project_key_table() {
         "pipes.defaults", "pipes.defaults.shape", "pipes.defaults.manning_n", "pipes.defaults.ks",
         "pipes.defaults.diameter", "pipes.defaults.manning_n_by_material", "pipes.defaults.manning_n_by_material.*",
         "pipes.defaults.ks_by_material", "pipes.defaults.ks_by_material.*", "pipes.shapes", "pipes.shapes.circular",
-        "pipes.shapes.box",
+        "pipes.shapes.box", "pipes.shapes.egg", "pipes.section_tables", "pipes.section_tables.*",
+        "pipes.section_tables.*.codes", "pipes.section_tables.*.depth", "pipes.section_tables.*.width",
+        "pipes.unknown_shape",
         // structures
         "structures", "structures.source", "structures.layer", "structures.open_options", "structures.fields",
         "structures.fields.id", "structures.fields.type", "structures.fields.loss_k", "structures.fields.population",

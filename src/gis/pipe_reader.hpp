@@ -40,8 +40,11 @@ class PipeReader {
 
   void read_length(OGRFeature& feature, model::Conduit& c, const FeatureRef& who);
 
-  // Shape from the shape field, from the height (shape_from_height) or the default.
-  std::optional<hydraulics::Shape> read_shape(OGRFeature& feature, const FeatureRef& who);
+  // Shape from the shape field, from the height (shape_from_height) or the default. `code` receives
+  // the shape field's value when it names a section table; `equal_area` is set for a value listed
+  // nowhere that the project checks as the circle of equal area ([pipes] unknown_shape).
+  std::optional<hydraulics::Shape> read_shape(OGRFeature& feature, const FeatureRef& who, std::string& code,
+                                              bool& equal_area);
 
   // A required size: null -> the default (if any) or DATA_MISSING; bad values -> DATA_IMPLAUSIBLE.
   std::optional<double> read_size(OGRFeature& feature, int col, const FieldRef& ref, std::optional<double> fallback,

@@ -1,5 +1,7 @@
 // Pipe sections (shape, diameter or width x height) and roughness (Manning n, ks) from the
 // mapped fields, the material tables and the project defaults.
+#include <cmath>
+
 #include "gis/pipe_reader.hpp"
 
 namespace rimline::gis::detail {
@@ -8,7 +10,8 @@ using hydraulics::Shape;
 using units::Dimension;
 
 // Shape from the shape field, from the height (shape_from_height) or the default.
-std::optional<Shape> PipeReader::read_shape(OGRFeature& feature, const FeatureRef& who) {
+std::optional<Shape> PipeReader::read_shape(OGRFeature& feature, const FeatureRef& who, std::string& code,
+                                            bool& equal_area) {
   if (col_.shape >= 0) {
     const auto text = read_text(feature, col_.shape);
     if (!text) {
@@ -20,7 +23,19 @@ std::optional<Shape> PipeReader::read_shape(OGRFeature& feature, const FeatureRe
       return s;
     }
     const auto it = find_value(p_.shape_values, *text);
-    if (it != p_.shape_values.end()) return it->second;
+    if (it != p_.shape_values.end()) {
+      code = it->first;
+      return it->second;
+    }
+    if (p_.unknown_shape_as_circle) {
+      // The nearest circle of equal area: the area of an unknown closed section of width w and height h
+      // taken as the ellipse's pi w h / 4, so D = sqrt(w h) (common practice, no source).
+      who.add("DATA_IMPLAUSIBLE", Severity::warning, f_.shape,
+              f_.shape + " \"" + *text + "\" is not listed in [pipes.shapes] or [pipes.section_tables]; the pipe is " +
+                  "checked as the circle of equal area, diameter sqrt(width x height) ([pipes] unknown_shape).");
+      equal_area = true;
+      return Shape::circular;
+    }
     who.add("DATA_IMPLAUSIBLE", Severity::error, f_.shape,
             f_.shape + " \"" + *text + "\" is not listed in [pipes.shapes]; " + left_out + ".");
     return std::nullopt;
@@ -77,12 +92,23 @@ std::optional<double> PipeReader::read_size(OGRFeature& feature, int col, const 
 }
 
 void PipeReader::read_section(OGRFeature& feature, model::Conduit& c, const FeatureRef& who) {
-  const auto shape = read_shape(feature, who);
+  std::string code;
+  bool equal_area = false;
+  const auto shape = read_shape(feature, who, code, equal_area);
   if (!shape) {
     c.usable = false;
     return;
   }
   c.section.shape = *shape;
+  if (equal_area) {
+    const auto w = read_size(feature, col_.width, f_.width, std::nullopt, "width", who);
+    const auto h = read_size(feature, col_.height, f_.height, std::nullopt, "height", who);
+    if (w && h)
+      c.section.diameter_m = std::sqrt(*w * *h);
+    else
+      c.usable = false;
+    return;
+  }
   if (*shape == Shape::circular) {
     const FieldRef& ref = diameter_ref(p_);
     const int col = &ref == &f_.width ? col_.width : col_.diameter;
@@ -95,11 +121,24 @@ void PipeReader::read_section(OGRFeature& feature, model::Conduit& c, const Feat
   }
   const auto w = read_size(feature, col_.width, f_.width, std::nullopt, "width", who);
   const auto h = read_size(feature, col_.height, f_.height, std::nullopt, "height", who);
-  if (w && h) {
-    c.section.width_m = *w;
-    c.section.height_m = *h;
-  } else {
+  if (!w || !h) {
     c.usable = false;
+    return;
+  }
+  c.section.width_m = *w;
+  c.section.height_m = *h;
+  if (*shape == Shape::table) {
+    c.section.table = p_.shape_tables.at(code);
+  } else if (*shape == Shape::egg) {
+    // The standard egg's geometry follows its height (the crown decides surcharge and freeboard);
+    // a width more than 2 % off height / 1.5 is reported (common practice, no source).
+    const double w_egg = *h / hydraulics::egg_height_over_width;
+    if (std::abs(*w - w_egg) > 0.02 * w_egg)
+      who.add("DATA_IMPLAUSIBLE", Severity::warning, f_.width.field,
+              f_.width.field + " " + q(*w, Dimension::length) + " is not the standard egg's " + q(w_egg, Dimension::length) +
+                  " (height " + q(*h, Dimension::length) + " / 1.5); the egg is checked by its height.",
+              *w, w_egg, Dimension::length);
+    c.section.width_m = w_egg;
   }
 }
 

@@ -252,13 +252,15 @@ void PipeReader::read_flow(OGRFeature& feature, model::Conduit& c, const Feature
 
 namespace {
 
+// Box, egg, table and equal-area sections are given by width x height.
 bool box_possible(const Project& p) {
   if (!p.pipe_fields.shape.empty()) {
+    if (p.unknown_shape_as_circle) return true;
     for (const auto& [value, shape] : p.shape_values)
-      if (shape == Shape::box) return true;
-    return p.pipe_defaults.shape == Shape::box;
+      if (shape != Shape::circular) return true;
+    return p.pipe_defaults.shape != Shape::circular;
   }
-  return p.shape_from_height || p.pipe_defaults.shape == Shape::box;
+  return p.shape_from_height || p.pipe_defaults.shape != Shape::circular;
 }
 
 bool circular_possible(const Project& p) {
@@ -275,7 +277,8 @@ void check_pipe_mapping(const Project& p, const OpenLayer& l) {
     throw Error(ErrorKind::bad_config, where,
                 "circular pipes need a diameter: map pipes.fields.diameter or set pipes.defaults.diameter");
   if (box_possible(p) && !(p.pipe_fields.width.mapped() && p.pipe_fields.height.mapped()))
-    throw Error(ErrorKind::bad_config, where, "box sections need pipes.fields.width and pipes.fields.height");
+    throw Error(ErrorKind::bad_config, where, "box, egg and table sections (and unknown_shape = \"equal_area_circle\") need pipes.fields.width and "
+                "pipes.fields.height");
   const auto& d = p.pipe_defaults;
   if ((!d.manning_n_by_material.empty() || !d.ks_m_by_material.empty()) && p.pipe_fields.material.empty())
     throw Error(ErrorKind::bad_config, where,

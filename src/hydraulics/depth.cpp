@@ -34,27 +34,52 @@ double flow_at(const Roughness& r, const Section& s, double y, double slope) {
   return detail::uniform_flow_of(r, geo.area_m2, geo.hydraulic_radius_m, slope);
 }
 
-// For Manning and Hazen-Williams the circle's discharge peak sits at a fixed y/D whatever the
-// diameter, roughness and slope (Q ~ A^a / P^b), so it is found once per law.
-double circle_peak_fraction(const Roughness& r) {
-  auto fraction = [](const Roughness& law) {
-    const Section unit{Shape::circular, 1.0, 0.0, 0.0};
+// For Manning and Hazen-Williams the discharge peak of a circle (and of the egg, a shape of fixed
+// proportions) sits at a fixed y/rise whatever the size, roughness and slope (Q ~ A^a / P^b), so it
+// is found once per law and shape.
+double peak_fraction(const Roughness& r, Shape shape) {
+  auto fraction = [](const Roughness& law, Shape sh) {
+    Section unit;
+    unit.shape = sh;
+    unit.diameter_m = 1.0;
+    unit.height_m = 1.0;
+    unit.width_m = 1.0 / egg_height_over_width;
     return detail::golden_max([&](double y) { return flow_at(law, unit, y, 1e-3); }, 0.5, 1.0, 1e-12).first;
   };
-  static const double manning = fraction(Roughness{});
-  static const double hazen = fraction(Roughness{FrictionLaw::hazen_williams});
+  static const double manning = fraction(Roughness{}, Shape::circular);
+  static const double hazen = fraction(Roughness{FrictionLaw::hazen_williams}, Shape::circular);
+  static const double manning_egg = fraction(Roughness{}, Shape::egg);
+  static const double hazen_egg = fraction(Roughness{FrictionLaw::hazen_williams}, Shape::egg);
+  if (shape == Shape::egg) return r.law == FrictionLaw::manning ? manning_egg : hazen_egg;
   return r.law == FrictionLaw::manning ? manning : hazen;
+}
+
+// A table section may carry its largest partly-full discharge anywhere: a scan of the depths, then
+// a golden-section refinement about the best.
+double table_peak_depth(const Roughness& r, const Section& s, double slope) {
+  const double rise = rise_m(s);
+  constexpr int n = 64;
+  int best = n;
+  double q_best = -1.0;
+  for (int i = 1; i <= n; ++i) {
+    const double q = flow_at(r, s, rise * i / n, slope);
+    if (q > q_best) q_best = q, best = i;
+  }
+  if (best == n) return rise;  // rising to the soffit (a flat soffit opens the section up to it)
+  return detail::golden_max([&](double y) { return flow_at(r, s, y, slope); }, rise * (best - 1) / n,
+                            rise * (best + 1) / n, 1e-9 * rise)
+      .first;
 }
 }  // namespace
 
 double detail::peak_depth(const Roughness& r, const Section& s, double slope) {
   if (s.shape == Shape::box) return s.height_m;  // Q rises with y up to the soffit
-  if (r.law != FrictionLaw::darcy_weisbach) return circle_peak_fraction(r) * s.diameter_m;
-  // Darcy-Weisbach: the peak moves a little with the Reynolds number but stays near 0.93-0.95 D;
-  // Q is flat there, so locating it to 1e-7 D gives the peak discharge to ~1e-14.
-  return golden_max([&](double y) { return flow_at(r, s, y, slope); }, 0.8 * s.diameter_m, s.diameter_m,
-                    1e-7 * s.diameter_m)
-      .first;
+  if (s.shape == Shape::table) return table_peak_depth(r, s, slope);
+  const double rise = rise_m(s);
+  if (r.law != FrictionLaw::darcy_weisbach) return peak_fraction(r, s.shape) * rise;
+  // Darcy-Weisbach: the peak moves a little with the Reynolds number but stays near 0.93-0.95 of the
+  // rise; Q is flat there, so locating it to 1e-7 of the rise gives the peak discharge to ~1e-14.
+  return golden_max([&](double y) { return flow_at(r, s, y, slope); }, 0.8 * rise, rise, 1e-7 * rise).first;
 }
 
 PeakFlow peak_partly_full_flow(const Roughness& r, const Section& s, double slope) {
@@ -116,7 +141,7 @@ DepthSolve critical_depth(const Section& s, double flow_m3_s) {
     const Geometry geo = detail::free_surface_geometry(s, y);
     return 3.0 * std::log(geo.area_m2) - std::log(geo.top_width_m) - target;
   };
-  const double hi = s.shape == Shape::box ? rise : rise - tol;
+  const double hi = closes_at_soffit(s) ? rise - tol : rise;
   const double f_hi = excess(hi);
   if (f_hi < 0.0) {
     out.depth_m = rise;

@@ -310,12 +310,7 @@ double specific_force_at(const PreparedReach& r, const Node& n) {
   if (n.full) return q2g / r.area_full + r.area_full * (n.hgl - r.invert(n.x) - 0.5 * r.rise);
   const double y = n.y;
   const Geometry geo = free_surface_geometry(r.section, y);
-  double moment = 0.5 * r.section.width_m * y * y;
-  if (r.section.shape == Shape::circular) {
-    const double t = geo.top_width_m;
-    moment = (y - 0.5 * r.rise) * geo.area_m2 + t * t * t / 12.0;
-  }
-  return q2g / geo.area_m2 + moment;
+  return q2g / geo.area_m2 + area_moment(r.section, y);
 }
 
 double friction_slope_at(const PreparedReach& r, const Node& n) {

@@ -6,11 +6,14 @@
 
 namespace rimline::hydraulics::detail {
 
-// Free-surface geometry for 0 < y <= rise: at y == rise a box is still open at the top
-// (top width = span, perimeter without the soffit); a circle closes smoothly (top width 0).
+// Free-surface geometry for 0 < y <= rise: at y == rise a box (or a table with a flat soffit) is
+// still open at the top (top width = span, perimeter without the soffit); a circle or an egg closes
+// smoothly (top width 0).
 Geometry free_surface_geometry(const Section& s, double depth_m);
 // y >= rise: the full closed section; otherwise free_surface_geometry.
 Geometry any_geometry(const Section& s, double depth_m);
+// First moment of the wetted area about the surface (A zbar) for 0 < y <= rise, unchecked.
+double area_moment(const Section& s, double depth_m);
 
 // Friction slope for Q through a wetted shape (area, hydraulic radius). Q >= 0.
 double friction_slope_of(const Roughness& r, double flow_m3_s, double area_m2, double hydraulic_radius_m);

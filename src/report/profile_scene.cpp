@@ -26,9 +26,9 @@ struct Converter {
 std::string size_text(const hydraulics::Section& s, units::System sys) {
   const auto u = sys == units::System::us ? units::Unit::in : units::Unit::mm;
   char buf[64];
-  if (s.shape == hydraulics::Shape::box)
-    std::snprintf(buf, sizeof buf, "%.0f x %.0f %s", units::from_si(s.width_m, u), units::from_si(s.height_m, u),
-                  std::string(units::unit_symbol(u)).c_str());
+  if (s.shape != hydraulics::Shape::circular)  // box, egg, table: width x height, and the shape unless a box
+    std::snprintf(buf, sizeof buf, "%s%.0f x %.0f %s", s.shape == hydraulics::Shape::box ? "" : (s.shape == hydraulics::Shape::egg ? "egg " : "table "),
+                  units::from_si(s.width_m, u), units::from_si(s.height_m, u), std::string(units::unit_symbol(u)).c_str());
   else
     std::snprintf(buf, sizeof buf, "%.0f %s", units::from_si(s.diameter_m, u), std::string(units::unit_symbol(u)).c_str());
   return buf;

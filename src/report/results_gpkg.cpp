@@ -383,7 +383,7 @@ class Writer {
       rows.text(col.shape, hydraulics::shape_name(c.section.shape));
       put(rows, col.rise, c.section.shape == hydraulics::Shape::circular ? c.section.diameter_m : c.section.height_m,
           Dimension::length);
-      put(rows, col.width, c.section.shape == hydraulics::Shape::box ? c.section.width_m : NAN, Dimension::length);
+      put(rows, col.width, c.section.shape != hydraulics::Shape::circular ? c.section.width_m : NAN, Dimension::length);
       put(rows, col.length, c.length_m, Dimension::length);
       rows.integer(col.reversed, c.reversed ? 1 : 0);
       put_design_fields(rows, design, ci);

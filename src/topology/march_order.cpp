@@ -20,8 +20,15 @@ double flow_area_m2(const hydraulics::Section& s) {
   switch (s.shape) {
     case hydraulics::Shape::circular: return s.diameter_m > 0.0 ? std::numbers::pi * s.diameter_m * s.diameter_m / 4.0 : 0.0;
     case hydraulics::Shape::box: return s.width_m > 0.0 && s.height_m > 0.0 ? s.width_m * s.height_m : 0.0;
+    case hydraulics::Shape::egg:
+    case hydraulics::Shape::table: break;
   }
-  return 0.0;
+  // Egg and table sections: their full area when the section is valid, else 0 (left to the march's finding).
+  try {
+    return hydraulics::full_geometry(s).area_m2;
+  } catch (const Error&) {
+    return 0.0;
+  }
 }
 
 namespace {

@@ -25,7 +25,14 @@
 //   [pipes.defaults.manning_n_by_material] RC = 0.013; [pipes.defaults.ks_by_material] RC = "1.5 mm"
 //               (a pipe's n / ks: its field, else its material's row, else the default; each default
 //                use is counted in ReadResult::defaults_used)
-//   [pipes.shapes]   circular = ["CIRC", "C"], box = ["BOX", "RECT"]      (source values -> shape)
+//   [pipes.shapes]   circular = ["CIRC", "C"], box = ["BOX", "RECT"], egg = ["EGG", "OV"]
+//                    (source values -> shape; an egg is the standard egg, height = 1.5 x width)
+//   [pipes.section_tables.NAME] codes = ["HS1"], depth = [0, 0.2, ..., 1], width = [0.4, 1, ..., 0]
+//                    (a closed section by its width at each depth, fractions of the pipe's height and
+//                     width fields; pipes whose shape value is one of `codes` use it)
+//   [pipes] unknown_shape = "leave_out" (default) | "equal_area_circle" (a shape value listed nowhere:
+//                    a finding; with equal_area_circle the pipe is checked as the circle of the area of
+//                    the ellipse width x height, D = sqrt(width x height))
 //   [structures] source, layer; [structures.fields] id, type, loss_k, population -> "FIELD";
 //                rim, invert, diameter, inflow, tailwater -> { field, unit }
 //   [structures.types] outfall = ["OF"], inlet = ["CB"], manhole = ["MH"], junction = [...]
@@ -92,6 +99,7 @@
 //   pipes.fields.rated_pressure = { field = "CLASS_KPA", unit = "kPa" }  (kPa, psi, bar, m_head, ft_head)
 //   Vertex Z of a force main's line is the pipe invert at that vertex, in the CRS's vertical unit.
 #include <map>
+#include <memory>
 #include <optional>
 #include <string>
 #include <vector>
@@ -280,6 +288,9 @@ struct Project {
   OutfallSettings outfalls;
   GroundSettings ground;
   std::map<std::string, hydraulics::Shape> shape_values;   // source value -> shape
+  // source value -> its [pipes.section_tables.NAME] (shape_values maps the value to Shape::table)
+  std::map<std::string, std::shared_ptr<const hydraulics::SectionTable>> shape_tables;
+  bool unknown_shape_as_circle = false;                    // [pipes] unknown_shape = "equal_area_circle"
   bool shape_from_height = false;                          // see [pipes] shape_from_height above
   std::vector<std::string> force_main_values;              // values of pipe_fields.force_main
   StructureFields structure_fields;

@@ -9,7 +9,7 @@
 using namespace rimline::hydraulics;
 
 namespace {
-const Section unit_circle{Shape::circular, 1.0, 0.0, 0.0};
+const Section unit_circle{Shape::circular, 1.0, 0.0, 0.0, {}};
 
 struct ElementsRow {
   double y_over_d, area_over_d2, radius_over_d;

@@ -45,7 +45,7 @@ TEST_CASE("Hazen-Williams head loss vs The Engineering ToolBox worked example (2
   Roughness hw;
   hw.law = FrictionLaw::hazen_williams;
   hw.hazen_c = 140.0;
-  const Section pipe{Shape::circular, 3.048 * units::metres_per_inch, 0, 0};
+  const Section pipe{Shape::circular, 3.048 * units::metres_per_inch, 0, 0, {}};
   const double q = units::to_si(200.0, units::Unit::gpm);
   const double slope = full_friction_slope(hw, pipe, q);
   CHECK(slope * 100.0 == Approx(9.0).epsilon(0.05));            // ft per 100 ft = m per 100 m
@@ -67,7 +67,7 @@ TEST_CASE("Hazen-Williams SI head-loss form 10.67 L Q^1.852 / (C^1.852 D^4.87), 
         const double q = v * M_PI * d * d / 4.0;
         const double hf = 10.67 * 1000.0 * std::pow(q, 1.852) / (std::pow(c, 1.852) * std::pow(d, 4.87));
         INFO("C " << c << ", D " << d << " m, V " << v << " m/s");
-        CHECK(full_friction_slope(hw, Section{Shape::circular, d, 0, 0}, q) * 1000.0 == Approx(hf).epsilon(0.01));
+        CHECK(full_friction_slope(hw, Section{Shape::circular, d, 0, 0, {}}, q) * 1000.0 == Approx(hf).epsilon(0.01));
       }
     }
   }
@@ -91,7 +91,7 @@ TEST_CASE("Darcy-Weisbach head loss vs the Swamee-Jain (1976) explicit head-loss
         const double ln = std::log(ks / (3.7 * d) + 4.62 * std::pow(dw.kinematic_viscosity_m2_s * d / q, 0.9));
         const double hf = 1.07 * q * q * length / (units::gravity_m_s2 * std::pow(d, 5)) / (ln * ln);
         INFO("ks " << ks << " m, D " << d << " m, V " << v << " m/s");
-        CHECK(full_friction_slope(dw, Section{Shape::circular, d, 0, 0}, q) * length == Approx(hf).epsilon(0.03));
+        CHECK(full_friction_slope(dw, Section{Shape::circular, d, 0, 0, {}}, q) * length == Approx(hf).epsilon(0.03));
       }
     }
   }

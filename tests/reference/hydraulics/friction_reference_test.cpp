@@ -65,7 +65,7 @@ TEST_CASE("Hazen-Williams SI form matches the US customary form 1.318 C R^0.63 S
   Roughness hw;
   hw.law = FrictionLaw::hazen_williams;
   hw.hazen_c = 110.0;
-  const Section main{Shape::circular, 0.45, 0, 0};
+  const Section main{Shape::circular, 0.45, 0, 0, {}};
   const double r_ft = 0.45 / 4.0 / 0.3048;
   const double v_us = 1.318 * 110.0 * std::pow(r_ft, 0.63) * std::pow(0.004, 0.54);
   const double v_si = full_capacity_m3_s(hw, main, 0.004) / full_geometry(main).area_m2;

@@ -36,7 +36,7 @@ double depth_at_distance(double x, double y0, double yc, double n, double q) {
 TEST_CASE("H2 profile on a horizontal wide channel vs the closed-form integral (Chow 1959 ch. 10, from memory), 1 mm", "[reference][gvf]") {
   const double width = 1.0e4, q = 1.0, n = 0.013;
   ConduitReach r;
-  r.section = {Shape::box, 0.0, width, 3.0};
+  r.section = {Shape::box, 0.0, width, 3.0, {}};
   r.roughness.manning_n = n;
   r.length_m = 400.0;
   r.invert_up_m = r.invert_down_m = 0.0;
@@ -61,7 +61,7 @@ TEST_CASE("H2 profile on a horizontal wide channel vs the closed-form integral (
 // station is solved to 1e-6 of the length).
 TEST_CASE("jump in a box conduit: conjugate depths obey the Belanger equation (Chow 1959 ch. 15)", "[reference][gvf]") {
   ConduitReach r;
-  r.section = {Shape::box, 0.0, 2.0, 1.5};
+  r.section = {Shape::box, 0.0, 2.0, 1.5, {}};
   r.length_m = 80.0;
   r.invert_down_m = 20.0;
   r.invert_up_m = 20.0 + 0.02 * 80.0;

@@ -230,3 +230,31 @@ TEST_CASE("bookkeeping whole_loss: below the arriving pipe's critical energy it 
   for (const auto& item : solve::loss_budget(c.net, r, 2)) sum += item.head_m;
   CHECK(sum == Approx(r.structures[2].hgl_m).margin(1e-9));
 }
+
+TEST_CASE("an egg-shaped surcharged chain by hand, on the published full-bore egg elements") {
+  // The same chain in standard egg sections of width D (height 1.5 D). Full bore: A = 1.1485 D^2,
+  // R = 0.2897 D (the old-form egg's hydraulic elements in sewer-design handbooks - from memory);
+  // the hand sums use these printed values, not rimline's geometry, so they agree to their 4-5 digits.
+  auto c = chain({0.8, 0.7, 0.7, 0.6}, {0.5, 0.4, 0.3, 0.2}, 0.002, 80.0, 0.0);
+  for (auto& p : c.net.conduits) {
+    const double d = p.section.diameter_m;
+    p.section = hydraulics::Section{};
+    p.section.shape = hydraulics::Shape::egg;
+    p.section.width_m = d;
+    p.section.height_m = 1.5 * d;
+  }
+  const auto r = solve::march(c.net, c.topo, c.flow, options(hydraulics::StructureEnergy::whole_loss, 14.0));
+  double egl = 14.0;
+  for (std::size_t i = 0; i < 4; ++i) {
+    const double d = c.net.conduits[i].section.width_m, q = c.flow[i];
+    const double a = 1.1485 * d * d, rh = 0.2897 * d;
+    const double hv = std::pow(q / a, 2.0) / (2.0 * g);
+    const double sf = std::pow(n * (q / a) / std::pow(rh, 2.0 / 3.0), 2.0);
+    REQUIRE(r.conduits[i].solved);
+    CHECK(r.conduits[i].profile.surcharged_length_m == Approx(80.0).margin(1e-6));
+    if (i == 0) egl += hv;
+    CHECK(r.conduits[i].profile.outlet().hgl_m == Approx(egl - hv).margin(2e-5));
+    egl += sf * 80.0 + k * hv;
+    CHECK(r.structures[i + 1].hgl_m == Approx(egl).margin(2e-5));
+  }
+}

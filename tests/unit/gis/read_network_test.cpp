@@ -434,3 +434,65 @@ TEST_CASE("a layer without geometry or without features stops the run", "[io][re
   CHECK_THROWS_WITH(gis::read_network(config::parse_project("[pipes]\nsource = \"empty.geojson" + tail, run)),
                     (dir / "empty.geojson").string() + ":empty: the pipes layer has no features");
 }
+
+TEST_CASE("shape codes: egg, a section table, an unknown code left out or (by the project) an equal-area circle",
+          "[io][read][section]") {
+  const auto dir = test::fresh_dir("shape_codes");
+  const std::vector<Row> rows{
+      pipe("egg", {{1, "OV"}, {2, std::nullopt}, {3, "800"}, {4, "1200"}}),
+      pipe("egg_off", {{1, "OV"}, {2, std::nullopt}, {3, "1000"}, {4, "1200"}}),
+      pipe("hs", {{1, "HS"}, {2, std::nullopt}, {3, "1500"}, {4, "1400"}}),
+      pipe("arch", {{1, "ARCH"}, {2, std::nullopt}, {3, "1600"}, {4, "900"}}),
+  };
+  test::write_layer(dir / "pipes.gpkg", "GPKG", "pipes", 32755, wkbUnknown, catalogue_fields, rows);
+  const std::string tables = R"(egg = ["OV"]
+[pipes.section_tables.horseshoe]
+codes = ["HS"]
+depth = [0, 0.5, 1]
+width = [0.6, 1, 0]
+)";
+  using V = std::vector<std::string>;
+  {
+    const config::Project project =
+        config::parse_project(std::string(catalogue_project) + tables, (dir / "run.toml").string());
+    const gis::ReadResult r = gis::read_network(project);
+    const auto f = by_feature(r.findings);
+    const auto& egg = conduit(r.network, "egg");
+    CHECK(egg.usable);
+    CHECK(egg.section.shape == hydraulics::Shape::egg);
+    CHECK(egg.section.height_m == Approx(1.2).epsilon(1e-15));
+    CHECK(egg.section.width_m == Approx(0.8).epsilon(1e-15));
+    CHECK(f.count("egg") == 0);
+    CHECK(f.at("egg_off") == V{"DATA_IMPLAUSIBLE W_MM 1.000 m is not the standard egg's 0.800 m (height 1.200 m / "
+                               "1.5); the egg is checked by its height."});
+    CHECK(conduit(r.network, "egg_off").section.width_m == Approx(0.8).epsilon(1e-15));
+    const auto& hs = conduit(r.network, "hs");
+    CHECK(hs.usable);
+    CHECK(hs.section.shape == hydraulics::Shape::table);
+    REQUIRE(hs.section.table);
+    CHECK(hs.section.table->name == "horseshoe");
+    CHECK(hs.section.table->width == std::vector<double>{0.6, 1.0, 0.0});
+    CHECK(f.at("arch") == V{"DATA_IMPLAUSIBLE SHAPE \"ARCH\" is not listed in [pipes.shapes]; the pipe is left out "
+                            "of the analysis."});
+    CHECK_FALSE(conduit(r.network, "arch").usable);
+  }
+  {
+    std::string text = std::string(catalogue_project) + tables;
+    text.replace(text.find("layer = \"pipes\""), 15, "layer = \"pipes\"\nunknown_shape = \"equal_area_circle\"");
+    const config::Project project = config::parse_project(text, (dir / "run.toml").string());
+    const gis::ReadResult r = gis::read_network(project);
+    const auto f = by_feature(r.findings);
+    const auto& arch = conduit(r.network, "arch");
+    CHECK(arch.usable);
+    CHECK(arch.section.shape == hydraulics::Shape::circular);
+    CHECK(arch.section.diameter_m == Approx(std::sqrt(1.6 * 0.9)).epsilon(1e-14));
+    CHECK(f.at("arch") == V{"DATA_IMPLAUSIBLE SHAPE \"ARCH\" is not listed in [pipes.shapes] or "
+                            "[pipes.section_tables]; the pipe is checked as the circle of equal area, diameter "
+                            "sqrt(width x height) ([pipes] unknown_shape)."});
+  }
+  // A table whose depths fall stops the run with the project file's own error.
+  std::string bad = std::string(catalogue_project) + tables;
+  bad.replace(bad.find("depth = [0, 0.5, 1]"), 19, "depth = [0, 1, 1]");
+  CHECK_THROWS_WITH(config::parse_project(bad, (dir / "run.toml").string()),
+                    Catch::Matchers::Contains("depths must rise strictly"));
+}

@@ -12,8 +12,8 @@
 using namespace rimline::hydraulics;
 
 namespace {
-const Section circle{Shape::circular, 0.75, 0.0, 0.0};
-const Section box{Shape::box, 0.0, 1.8, 1.2};
+const Section circle{Shape::circular, 0.75, 0.0, 0.0, {}};
+const Section box{Shape::box, 0.0, 1.8, 1.2, {}};
 constexpr double g = rimline::units::gravity_m_s2;
 }  // namespace
 
@@ -108,7 +108,7 @@ TEST_CASE("bad depth arguments are rimline::Error(bad_argument)", "[depth][bad]"
   };
   CHECK(is_bad([&] { normal_depth(Roughness{}, circle, nan, 0.01); }));
   CHECK(is_bad([&] { normal_depth(Roughness{}, circle, 0.1, nan); }));
-  CHECK(is_bad([&] { normal_depth(Roughness{}, Section{Shape::circular, -1, 0, 0}, 0.1, 0.01); }));
+  CHECK(is_bad([&] { normal_depth(Roughness{}, Section{Shape::circular, -1, 0, 0, {}}, 0.1, 0.01); }));
   CHECK(is_bad([&] { critical_depth(circle, -0.1); }));
   CHECK(is_bad([&] { peak_partly_full_flow(Roughness{}, circle, 0.0); }));
   CHECK(is_bad([&] { froude_number(circle, 0.1, 0.0); }));

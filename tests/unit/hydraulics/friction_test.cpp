@@ -13,7 +13,7 @@
 using namespace rimline::hydraulics;
 
 namespace {
-const Section circle{Shape::circular, 0.6, 0.0, 0.0};
+const Section circle{Shape::circular, 0.6, 0.0, 0.0, {}};
 constexpr double g = rimline::units::gravity_m_s2;
 
 Roughness darcy(double ks) {

@@ -14,7 +14,7 @@ using namespace rimline::hydraulics;
 
 namespace {
 constexpr double g = rimline::units::gravity_m_s2;
-const Section d1000{Shape::circular, 1.0, 0.0, 0.0};
+const Section d1000{Shape::circular, 1.0, 0.0, 0.0, {}};
 
 ConduitReach reach(double slope, double flow, double length = 100.0, Section s = d1000) {
   ConduitReach r;
@@ -48,7 +48,7 @@ std::vector<Case> battery() {
       {"adverse (A2)", reach(-0.001, 0.5), 9.0},
       {"near-full mild", reach(0.001, 1.0), 10.99},
       {"tiny flow", reach(0.004, 1e-4), 9.0},
-      {"small pipe steep", reach(0.05, 0.02, 40.0, Section{Shape::circular, 0.225, 0, 0}), 9.0},
+      {"small pipe steep", reach(0.05, 0.02, 40.0, Section{Shape::circular, 0.225, 0, 0, {}}), 9.0},
   };
 }
 

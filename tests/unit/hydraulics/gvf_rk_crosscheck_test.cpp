@@ -63,17 +63,17 @@ void cross_check(const Section& s, double slope, double flow, double outlet_dept
 }  // namespace
 
 TEST_CASE("step method vs RK4: M1 backwater in a 1000 mm pipe", "[gvf][rk]") {
-  cross_check(Section{Shape::circular, 1.0, 0, 0}, 0.001, 0.5, 0.90, "M1");
+  cross_check(Section{Shape::circular, 1.0, 0, 0, {}}, 0.001, 0.5, 0.90, "M1");
 }
 
 TEST_CASE("step method vs RK4: strong M1 in a 600 mm pipe at 0.3 %", "[gvf][rk]") {
-  cross_check(Section{Shape::circular, 0.6, 0, 0}, 0.003, 0.12, 0.55, "M1");
+  cross_check(Section{Shape::circular, 0.6, 0, 0, {}}, 0.003, 0.12, 0.55, "M1");
 }
 
 TEST_CASE("step method vs RK4: M2 drawdown in a 1000 mm pipe", "[gvf][rk]") {
-  cross_check(Section{Shape::circular, 1.0, 0, 0}, 0.001, 0.5, 0.45, "M2");
+  cross_check(Section{Shape::circular, 1.0, 0, 0, {}}, 0.001, 0.5, 0.45, "M2");
 }
 
 TEST_CASE("step method vs RK4: M2 drawdown in a 1.8 m x 1.2 m box", "[gvf][rk]") {
-  cross_check(Section{Shape::box, 0, 1.8, 1.2}, 0.0015, 1.5, 0.47, "M2");
+  cross_check(Section{Shape::box, 0, 1.8, 1.2, {}}, 0.0015, 1.5, 0.47, "M2");
 }

@@ -22,7 +22,7 @@ TEST_CASE("sweep: 20000 random reaches keep the profile contract", "[gvf][sweep]
     ConduitReach r;
     const bool box = u(rng) < 0.3;
     const double rise = 0.1 + 3.0 * u(rng) * u(rng);
-    r.section = box ? Section{Shape::box, 0.0, rise * (0.5 + 2.0 * u(rng)), rise} : Section{Shape::circular, rise, 0.0, 0.0};
+    r.section = box ? Section{Shape::box, 0.0, rise * (0.5 + 2.0 * u(rng)), rise, {}} : Section{Shape::circular, rise, 0.0, 0.0, {}};
     if (u(rng) < 0.3) {
       r.roughness.law = FrictionLaw::darcy_weisbach;
       r.roughness.ks_m = 1e-5 + 3e-3 * u(rng);

@@ -18,7 +18,7 @@ PumpCurve pump() { return PumpCurve({{0.0, 30.0}, {0.05, 28.5}, {0.10, 24.0}, {0
 SystemCurve main_line() {
   SystemCurve s;
   s.static_lift_m = 8.0;
-  s.section = {Shape::circular, 0.3, 0.0, 0.0};
+  s.section = {Shape::circular, 0.3, 0.0, 0.0, {}};
   s.roughness.law = FrictionLaw::hazen_williams;
   s.roughness.hazen_c = 120.0;
   s.length_m = 800.0;

@@ -12,8 +12,8 @@ using namespace rimline::hydraulics;
 using Catch::Matchers::Contains;
 
 namespace {
-const Section circle{Shape::circular, 0.9, 0.0, 0.0};
-const Section box{Shape::box, 0.0, 2.0, 1.5};
+const Section circle{Shape::circular, 0.9, 0.0, 0.0, {}};
+const Section box{Shape::box, 0.0, 2.0, 1.5, {}};
 
 template <class F>
 void expect_bad_argument(F&& f) {
@@ -84,12 +84,12 @@ TEST_CASE("area moment about the surface: box b y^2/2, semicircle 2 r^3/3, full 
 
 TEST_CASE("bad section arguments are rimline::Error(bad_argument)", "[section][bad]") {
   const double nan = std::numeric_limits<double>::quiet_NaN();
-  expect_bad_argument([] { geometry_at(Section{Shape::circular, -0.3, 0, 0}, 0.1); });
-  expect_bad_argument([] { full_geometry(Section{Shape::circular, 0.0, 0, 0}); });
-  expect_bad_argument([&] { geometry_at(Section{Shape::circular, nan, 0, 0}, 0.1); });
-  expect_bad_argument([] { geometry_at(Section{Shape::box, 0.0, 1.0, -1.0}, 0.1); });
+  expect_bad_argument([] { geometry_at(Section{Shape::circular, -0.3, 0, 0, {}}, 0.1); });
+  expect_bad_argument([] { full_geometry(Section{Shape::circular, 0.0, 0, 0, {}}); });
+  expect_bad_argument([&] { geometry_at(Section{Shape::circular, nan, 0, 0, {}}, 0.1); });
+  expect_bad_argument([] { geometry_at(Section{Shape::box, 0.0, 1.0, -1.0, {}}, 0.1); });
   expect_bad_argument([] { geometry_at(circle, 0.0); });
   expect_bad_argument([] { geometry_at(circle, -0.1); });
   expect_bad_argument([&] { geometry_at(circle, nan); });
-  CHECK_THROWS_WITH(geometry_at(Section{Shape::circular, -0.3, 0, 0}, 0.1), Contains("diameter"));
+  CHECK_THROWS_WITH(geometry_at(Section{Shape::circular, -0.3, 0, 0, {}}, 0.1), Contains("diameter"));
 }
