@@ -142,20 +142,9 @@ flows::DesignFlows NetworkRun::settle(const DesignFlowsFn& design, const std::ve
   const int max_rounds = project_.network_solve.design_flow_iterations;
   std::vector<double> along;
   summary.design_flows_converged = true;
-  if (first_.level_m.empty()) {
-    // The first guess: the march's levels with these design flows along the pipes' digitised or
-    // invert direction (loops cut, diversions split by capacity): continuity holds and the levels
-    // agree with the flows everywhere but at the diversions and loop cuts. A low point has no level
-    // of its own there (the march took it as an outfall): the solve's own first guess fills it.
-    const auto marched = solve::march(run_.read.network, run_.topology, d.flow_m3_s, first);
-    first_.level_m.assign(run_.read.network.structures.size(), nan);
-    for (std::size_t s = 0; s < marched.structures.size(); ++s)
-      if (marched.structures[s].solved && !marched.structures[s].outfall) first_.level_m[s] = marched.structures[s].hgl_m;
-    first_.flow_m3_s = d.flow_m3_s;
-  }
   for (int round = 1;; ++round) {
     if (round == 1 || !given) inputs_.net_inflow_m3_s = net_inflow(d.flow_m3_s, own);
-    first_ = solve_case(first, &first_);
+    first_ = solve_case(first, first_.level_m.empty() ? nullptr : &first_);
     if (round == 1) fall_back(first_);
     bool solved = true;
     for (const auto& r : first_.components) solved = solved && r.converged;
@@ -213,9 +202,11 @@ void NetworkRun::fall_back(solve::NetworkSolution& sol) {
       for (std::size_t s : comp.outlets) inputs_.outlet[s] = false;
       continue;
     }
-    solved_[kept] = solved_[k];
-    problem_[kept] = std::move(problem_[k]);
-    sol.components[kept] = std::move(sol.components[k]);
+    if (kept != k) {  // (a vector moved onto itself is left empty)
+      solved_[kept] = solved_[k];
+      problem_[kept] = std::move(problem_[k]);
+      sol.components[kept] = std::move(sol.components[k]);
+    }
     ++kept;
   }
   solved_.resize(kept);
@@ -243,6 +234,7 @@ solve::MarchResult NetworkRun::march_case(std::size_t case_index, const solve::M
   const auto& net = run_.read.network;
   if (case_index == 0) {
     summary.cases.assign(1, case_figures(first_, label));
+    summary.level_m = first_.level_m;
     return solve::march(net, run_.topology, run_.flows.flow_m3_s, options);
   }
   const solve::NetworkSolution sol = solve_case(options, &first_);
@@ -314,6 +306,18 @@ void NetworkRun::finish(Findings& findings) {
     }
   }
   fallbacks_.clear();
+  // Against the source: every pipe the march takes as the topology turned it, every solved pipe
+  // that carries flow as the solve turned it (FLOW_AGAINST_SOURCE below).
+  auto& summary0 = run_.network;
+  const auto& topo0 = run_.topology;
+  summary0.against_source_count = 0;
+  for (std::size_t ci = 0; ci < net0.conduits.size(); ++ci) {
+    const auto& c = net0.conduits[ci];
+    const std::size_t src = ci < topo0.source_upstream.size() ? topo0.source_upstream[ci] : model::no_index;
+    const bool flows = !summary0.solved_conduit[ci] || run_.flows.flow_m3_s[ci] > 0.0;
+    summary0.against_source[ci] = model::marched(c) && src != model::no_index && src != c.from && flows;
+    summary0.against_source_count += summary0.against_source[ci];
+  }
   if (!active()) return;
   auto& summary = run_.network;
   const auto& net = run_.read.network;
@@ -322,6 +326,10 @@ void NetworkRun::finish(Findings& findings) {
   // (REVERSED, ADVERSE_SLOPE by the digitised or invert direction), the loop cuts, the diversions'
   // main outflows and the untyped dead ends. Ids shared with a pipe outside stay.
   std::unordered_set<std::string> conduit_ids, structure_ids, keep_conduits, keep_structures;
+  std::vector<char> in_solved(net.structures.size(), 0);
+  for (std::size_t k : solved_)
+    for (std::size_t s : components_.list[k].structures) in_solved[s] = 1;
+  auto in_solved_structure = [&in_solved](std::size_t s) { return in_solved[s] != 0; };
   std::vector<char> low_point(net.structures.size(), 0);
   for (std::size_t k : solved_) {
     for (std::size_t ci : components_.list[k].conduits) conduit_ids.insert(net.conduits[ci].id);
@@ -330,20 +338,18 @@ void NetworkRun::finish(Findings& findings) {
   }
   for (std::size_t ci = 0; ci < net.conduits.size(); ++ci)
     if (!summary.solved_conduit[ci]) keep_conduits.insert(net.conduits[ci].id);
-  std::vector<char> in_solved(net.structures.size(), 0);
-  for (std::size_t k : solved_)
-    for (std::size_t s : components_.list[k].structures) in_solved[s] = 1;
+
   for (std::size_t s = 0; s < net.structures.size(); ++s)
     if (!in_solved[s]) keep_structures.insert(net.structures[s].id);
-  std::unordered_set<std::string> low_point_ids;
+  std::unordered_set<std::string> low_point_ids;  // in a solved component but no outlet of it
   for (std::size_t s = 0; s < net.structures.size(); ++s)
-    if (low_point[s]) low_point_ids.insert(net.structures[s].id);
+    if (in_solved_structure(s) && !inputs_.outlet[s]) low_point_ids.insert(net.structures[s].id);
   auto replaced = [&](const Finding& f) {
     if (f.layer == LayerRole::conduits && (f.code == "REVERSED" || f.code == "ADVERSE_SLOPE" || f.code == "TOPOLOGY_LOOP"))
       return conduit_ids.count(f.feature_id) > 0 && keep_conduits.count(f.feature_id) == 0;
     if (f.layer == LayerRole::structures && f.code == "DIVERSION")
       return structure_ids.count(f.feature_id) > 0 && keep_structures.count(f.feature_id) == 0;
-    // An untyped dead end stays an outlet of the solve (and its finding stays) unless it is a low point.
+    // An untyped dead end that stays an outlet of the solve keeps its finding.
     if (f.layer == LayerRole::structures && f.code == "TOPOLOGY_NO_OUTFALL")
       return low_point_ids.count(f.feature_id) > 0 && keep_structures.count(f.feature_id) == 0;
     return false;
@@ -411,10 +417,7 @@ void NetworkRun::finish(Findings& findings) {
   for (std::size_t ci = 0; ci < net.conduits.size(); ++ci) {
     if (!summary.solved_conduit[ci]) continue;
     const auto& c = net.conduits[ci];
-    const std::size_t src = ci < topo.source_upstream.size() ? topo.source_upstream[ci] : model::no_index;
-    if (src != model::no_index && src != c.from && first_flow[ci] > 0.0) {
-      summary.against_source[ci] = 1;
-      ++summary.against_source_count;
+    if (summary.against_source[ci]) {
       const bool ids = ci < topo.source_from_ids.size() && topo.source_from_ids[ci];
       findings.push_back(topology::conduit_finding(
           c, "FLOW_AGAINST_SOURCE", Severity::info,

@@ -50,7 +50,7 @@ Components gravity_components(const model::Network& net, const Topology& topo, b
     while (parent[s] != s) s = parent[s] = parent[parent[s]];
     return s;
   };
-  std::vector<std::size_t> gravity_out(ns, 0);
+  std::vector<std::size_t> gravity_out(ns, 0), any_out(ns, 0);
   std::vector<char> linked(ns, 0), link(nc, 0);
   for (std::size_t ci = 0; ci < nc; ++ci) {
     if (!gravity_link(net, topo, ci)) continue;
@@ -58,6 +58,7 @@ Components gravity_components(const model::Network& net, const Topology& topo, b
     const auto& c = net.conduits[ci];
     linked[c.from] = linked[c.to] = 1;
     if (topo.status[ci] == MarchStatus::marched) ++gravity_out[c.from];
+    ++any_out[c.from];
     const std::size_t a = root(c.from), b = root(c.to);
     if (a != b) parent[std::max(a, b)] = std::min(a, b);
   }
@@ -80,7 +81,9 @@ Components gravity_components(const model::Network& net, const Topology& topo, b
     out.list[out.of_conduit[ci]].conduits.push_back(ci);
   }
   for (auto& comp : out.list) {
-    std::vector<std::size_t> sinks, wells;
+    // Dead ends: no pipe leaves them at all; cut ends: only a pipe cut from a loop leaves them
+    // (not an outlet of anything: the solve takes them as ordinary structures).
+    std::vector<std::size_t> dead_ends, cut_ends, wells;
     for (std::size_t s : comp.structures) {
       if (gravity_out[s] > 1) ++comp.diversions;
       const auto kind = net.structures[s].kind;
@@ -89,10 +92,14 @@ Components gravity_components(const model::Network& net, const Topology& topo, b
           typed && (kind == model::StructureKind::outfall || kind == model::StructureKind::pump_station);
       if (typed_outlet || well) comp.outlets.push_back(s);
       if (well && !typed_outlet) wells.push_back(s);
-      if (gravity_out[s] == 0 && !typed_outlet && !well) sinks.push_back(s);
+      if (gravity_out[s] == 0 && !typed_outlet && !well) (any_out[s] == 0 ? dead_ends : cut_ends).push_back(s);
     }
-    if (comp.outlets.size() == wells.size()) comp.outlets.insert(comp.outlets.end(), sinks.begin(), sinks.end());
-    else comp.low_points = sinks;
+    if (comp.outlets.size() == wells.size()) {
+      comp.outlets.insert(comp.outlets.end(), dead_ends.begin(), dead_ends.end());
+      if (comp.outlets.empty()) comp.outlets = cut_ends;  // a ring of pipes and nothing else: the march's end
+    } else {
+      comp.low_points = dead_ends;
+    }
     std::sort(comp.outlets.begin(), comp.outlets.end());
     comp.loops = comp.conduits.size() + 1 - comp.structures.size();
   }

@@ -69,6 +69,9 @@ struct NetworkSolveSummary {
   double design_flow_change_m3_s = 0.0;  // largest change of a pipe's flow in the last round
   std::vector<NetworkSolveCase> cases;
   std::vector<char> solved_conduit;  // per conduit: its flow and direction come from the solve
+  // Per structure, the solve's own level in the first tailwater case (NaN where it needed none); the
+  // march of the solved flows reproduces it (to the root solves' tolerance).
+  std::vector<double> level_m;
   std::vector<char> against_source;  // per conduit: it flows against its from/to ids or digitising
 };
 

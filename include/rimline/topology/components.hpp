@@ -11,9 +11,10 @@
 // Outlets (the structures that hold a level of their own in the solve): the pump wet wells (only
 // force mains leave them) and, where the export types its structures (`typed`), those of kind
 // outfall or pump_station; elsewhere, or in a typed component that has none of those, the
-// structures no pipe leaves by the orientation rule (the march's outfalls). In a typed component
-// with typed outlets, a structure no pipe leaves that is not one of them is a low point: the solve
-// takes it as an ordinary structure (its water leaves through whichever pipes the levels say).
+// structures no pipe leaves by the orientation rule (dead ends; a structure that only a pipe cut
+// from a loop leaves is no outlet, unless nothing else is). In a typed component with typed
+// outlets, a dead end that is not one of them is a low point: the solve takes it, like a cut end,
+// as an ordinary structure (its water leaves through whichever pipes the levels say).
 #include <cstddef>
 #include <string>
 #include <vector>
