@@ -414,6 +414,8 @@ def main():
         with open(os.path.join(d, "project-relief.toml"), "w") as f:
             f.write(RELIEF_NOTE + relief_text)
     print(f"{len(nodes)} structures, {len(pipes)} pipes written to {os.path.normpath(OUT)}")
+    import make_ground  # the invented ground model and project-ground.toml (scripts/make_ground.py)
+    make_ground.main()
 
 if __name__ == "__main__":
     main()

@@ -126,10 +126,15 @@ class CatchmentReader {
     }
     rings_of(*g, scale, k);
     if (auto s = read_text(feature, structure_)) k.structure_id = std::move(*s);
-    if (!read_runoff_c(feature, who, k)) return false;
-    if (!land_use.empty()) composite_c(*g, land_use, who, k);
-    read_inlet_time(feature, who, k);
-    read_population(feature, who, k);
+    // Each flows mode reads only its own inputs: a sanitary run needs no runoff coefficient, a storm
+    // run no population.
+    if (p_.flow_mode == FlowMode::rational) {
+      if (!read_runoff_c(feature, who, k)) return false;
+      if (!land_use.empty()) composite_c(*g, land_use, who, k);
+      read_inlet_time(feature, who, k);
+    } else {
+      read_population(feature, who, k);
+    }
     return true;
   }
 

@@ -88,9 +88,8 @@ std::string format_value(double raw, units::Unit u) {
   return format_number(raw) + " " + std::string(units::unit_symbol(u));
 }
 
-std::string format_si(double si, units::Dimension d) {
-  return format_value(si, units::display_unit(d, units::System::si));
-}
+// A token rendered in the run's units where the text is shown (render_message).
+std::string format_si(double si, units::Dimension d) { return q(si, d); }
 
 std::string format_fixed(double v, int decimals) {
   char buf[48];

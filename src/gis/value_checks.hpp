@@ -29,7 +29,7 @@ std::optional<std::string> read_text(OGRFeature& f, int idx);
 
 std::string format_number(double v);                   // up to 10 significant digits, no trailing zeros
 std::string format_value(double raw, units::Unit u);   // "760 mm", "0.013"
-std::string format_si(double si, units::Dimension d);  // "0.76 m", "0.25 m3/s"
+std::string format_si(double si, units::Dimension d);  // a q() token: "0.760 m" / "2.49 ft" as rendered
 std::string format_fixed(double v, int decimals);      // rounded, trailing zeros dropped: "105.7"
 
 // Who a finding is about: the layer role and the feature's own id.

@@ -18,9 +18,10 @@ std::string csv_cell(const std::string& s) {
   return out + "\"";
 }
 
+// Rounded as in the messages (rimline::display_decimals): what the data supports.
 std::string number(double v, units::Dimension d, units::System sys) {
   if (!std::isfinite(v)) return "";
-  return fixed_text(to_report(v, d, sys), 4);
+  return display_number(v, d, sys);
 }
 
 std::string unit_text(units::Dimension d, units::System sys) {
@@ -36,13 +37,15 @@ double to_report(double si_value, units::Dimension d, units::System s) {
 
 void write_exceptions_csv(const run::CheckRun& run, std::ostream& out) {
   const auto sys = run.report_units;
-  out << "code,severity,layer,feature_id,field,value,limit,unit,message\n";
-  for (const auto& f : run.findings) {
+  out << "code,severity,layer,feature_id,field,value,limit,unit,case,message\n";
+  for (std::size_t k = 0; k < run.findings.size(); ++k) {
+    const Finding& f = run.findings[k];
+    const std::string kase = k < run.finding_case.size() ? render_message(run.finding_case[k], sys) : std::string();
     out << csv_cell(f.code) + ',' + std::string(severity_name(f.severity)) + ',' +
            std::string(layer_role_name(f.layer)) + ',' + csv_cell(f.feature_id) + ',' + csv_cell(f.field) + ',' +
            number(f.value, f.dimension, sys) + ',' + number(f.limit, f.dimension, sys) + ',' +
            csv_cell(std::isfinite(f.value) || std::isfinite(f.limit) ? unit_text(f.dimension, sys) : "") + ',' +
-           csv_cell(render_message(f.message, sys)) + '\n';
+           csv_cell(kase) + ',' + csv_cell(render_message(f.message, sys)) + '\n';
   }
 }
 

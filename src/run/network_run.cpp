@@ -40,7 +40,7 @@ NetworkRun::NetworkRun(const config::Project& project, CheckRun& run) : project_
   summary.against_source.assign(net.conduits.size(), 0);
   const bool hydraulic = project.split_rule == config::SplitRule::hydraulic;
   if (!hydraulic && !project.network_solve.all_components) return;
-  // Typed as in report_untyped_outfalls: a structure layer with a type field names its outfalls.
+  // Typed as in report_outfalls (project_checks.cpp): a structure layer with a type field names its outfalls.
   const bool typed = !project.structures.source.empty() && !project.structure_fields.type.empty();
   components_ = topology::gravity_components(net, run_.topology, typed);
   inputs_.outlet.assign(net.structures.size(), false);
@@ -350,7 +350,7 @@ void NetworkRun::finish(Findings& findings) {
     if (f.layer == LayerRole::structures && f.code == "DIVERSION")
       return structure_ids.count(f.feature_id) > 0 && keep_structures.count(f.feature_id) == 0;
     // An untyped dead end that stays an outlet of the solve keeps its finding.
-    if (f.layer == LayerRole::structures && f.code == "TOPOLOGY_NO_OUTFALL")
+    if (f.layer == LayerRole::structures && (f.code == "TOPOLOGY_NO_OUTFALL" || f.code == "OUTFALL_ASSUMED"))
       return low_point_ids.count(f.feature_id) > 0 && keep_structures.count(f.feature_id) == 0;
     return false;
   };

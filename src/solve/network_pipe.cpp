@@ -15,8 +15,9 @@ constexpr double nan = std::numeric_limits<double>::quiet_NaN();
 constexpr double jump_ramp = 0.01;
 }
 
-StructureRelation::StructureRelation(const model::Network& network, const MarchOptions& options)
-    : net_(network), opt_(options) {
+StructureRelation::StructureRelation(const model::Network& network, const MarchOptions& options,
+                                     const std::vector<bool>& outlet)
+    : net_(network), opt_(options), outlet_(outlet) {
   if (opt_.loss_method != hydraulics::StructureLossMethod::constant_k) inflows_.resize(net_.structures.size());
 }
 
@@ -46,6 +47,11 @@ double StructureRelation::loss_m(std::size_t s, std::size_t outflow, double flow
   return structure_loss_for(opt_, in, nullptr).loss_m;
 }
 
+bool StructureRelation::outlet_energy_control(std::size_t s) const {
+  if (s < outlet_.size() && outlet_[s]) return false;
+  return structure_energy_at(opt_, s) == hydraulics::StructureEnergy::whole_loss;
+}
+
 double threshold_level(const PipeLaw& pipe, bool /*forward: still water stands level either way*/, double h_down) {
   return std::max({h_down, pipe.invert_a_m, pipe.invert_b_m});
 }
@@ -56,7 +62,9 @@ Required required_level(const model::Network& network, const PipeLaw& pipe, bool
   const double z_up = forward ? pipe.invert_a_m : pipe.invert_b_m;
   const double z_down = forward ? pipe.invert_b_m : pipe.invert_a_m;
   const hydraulics::ConduitReach reach{c.section, c.roughness, c.length_m, z_up, z_down, q};
-  const auto profile = hydraulics::compute_profile(reach, downstream_level_of_inflow(h_down), gvf);
+  const auto profile = loss.outlet_energy_control(forward ? pipe.b : pipe.a)
+                           ? hydraulics::compute_profile_to_energy(reach, h_down, gvf)
+                           : hydraulics::compute_profile(reach, downstream_level_of_inflow(h_down), gvf);
   hydraulics::StructureLoss l;
   l.loss_m = loss.loss_m(forward ? pipe.a : pipe.b, pipe.conduit, q, profile.inlet());
   Required r;

@@ -33,16 +33,22 @@ struct PipeLaw {
 // the previous solve (lagged).
 class StructureRelation {
  public:
-  StructureRelation(const model::Network& network, const MarchOptions& options);
+  // `outlet`: per structure, it holds a level of its own (an outfall or wet well: a still pool).
+  StructureRelation(const model::Network& network, const MarchOptions& options, const std::vector<bool>& outlet);
   // Pipes arriving at each structure, for the bend and HEC-22 methods: flow signed along from -> to.
   void set_inflows(const std::vector<std::size_t>& structures, const std::vector<std::size_t>& conduits,
                    const std::vector<double>& signed_flow_m3_s, const std::vector<double>& deflection_deg);
   double loss_m(std::size_t structure, std::size_t outflow, double flow_m3_s,
                 const hydraulics::ProfilePoint& inlet) const;
+  // As the march: a pipe arriving at a structure whose loss is the whole loss across it keeps its
+  // velocity head to its outlet (its outlet EGL is the structure's level); into a still pool, an
+  // outfall or a wet well its outlet water level is the structure's level.
+  bool outlet_energy_control(std::size_t structure) const;
 
  private:
   const model::Network& net_;
   const MarchOptions& opt_;
+  const std::vector<bool>& outlet_;
   std::vector<std::vector<hydraulics::StructureInflow>> inflows_;  // by structure (empty: none known)
 };
 

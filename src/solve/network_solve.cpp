@@ -256,7 +256,7 @@ NetworkSolution solve_network(const model::Network& network, const topology::Top
   threads_asked.threads = options.threads;
   const unsigned workers =
       std::max(1u, std::min<unsigned>(march_threads(threads_asked, pipes), static_cast<unsigned>(components.size())));
-  detail::StructureRelation relation(network, march);
+  detail::StructureRelation relation(network, march, inputs.outlet);
   const auto work = share_out(components, workers);
   std::vector<std::exception_ptr> failed(workers);
   auto run = [&](unsigned w) {

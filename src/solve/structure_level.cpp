@@ -29,6 +29,12 @@ double structure_k(const model::Structure& s, const MarchOptions& options) {
   return it != options.k_by_type.end() ? it->second : options.default_k;
 }
 
+hydraulics::StructureEnergy structure_energy_at(const MarchOptions& options, std::size_t index) {
+  if (options.loss_method == hydraulics::StructureLossMethod::hec22) return hydraulics::StructureEnergy::whole_loss;
+  const auto it = options.structure_energy_at.find(index);
+  return it != options.structure_energy_at.end() ? it->second : options.structure_energy;
+}
+
 hydraulics::StructureInflow structure_inflow(const model::Conduit& c, double flow_m3_s, double deflection_deg,
                                              double structure_invert_m) {
   hydraulics::StructureInflow f;

@@ -1,6 +1,8 @@
 #pragma once
 // The outputs contract of `rimline check --out DIR`:
-//   DIR/exceptions.csv  one row per finding: code,severity,layer,feature_id,field,value,limit,unit,message
+//   DIR/exceptions.csv  one row per finding: code,severity,layer,feature_id,field,value,limit,unit,case,message
+//                       (case: the tailwater case the row comes from, "every tailwater case", or empty when
+//                       the finding does not depend on the case)
 //   DIR/results.gpkg    layers structures, conduits (input CRS; values in the run's unit system),
 //                       and, for a tailwater sweep, the table structure_cases (one row per structure and level)
 //   DIR/summary.json    run metadata, inputs with SHA-256, units, criteria, methods, counts, worst freeboard

@@ -50,6 +50,10 @@ hydraulics::StructureLossInputs structure_loss_inputs(const model::Network& netw
 hydraulics::StructureLoss structure_loss_for(const MarchOptions& options, const hydraulics::StructureLossInputs& in,
                                              std::string* fallback_reason);
 
+// How the energy at structure `index` is kept (the run's choice, per structure where given; HEC-22
+// takes the whole loss across the structure).
+hydraulics::StructureEnergy structure_energy_at(const MarchOptions& options, std::size_t index);
+
 // Still pool: the structure level for one outflow is its inlet EGL plus the loss.
 inline double structure_level_for_outflow(const hydraulics::ProfilePoint& outflow_inlet,
                                           const hydraulics::StructureLoss& loss) {
