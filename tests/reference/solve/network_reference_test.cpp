@@ -38,6 +38,9 @@ solve::MarchOptions no_structure_loss(double tailwater_m) {
   m.tailwater_mode = solve::TailwaterMode::fixed;
   m.tailwater_m = tailwater_m;
   m.default_k = 0.0;
+  // Each pipe loses its exit velocity head where it arrives (the textbook pipe-network form, r
+  // including 1/(2gA^2)): still-pool bookkeeping at every structure.
+  m.structure_energy = hydraulics::StructureEnergy::still_pool;
   return m;
 }
 

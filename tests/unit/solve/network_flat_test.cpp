@@ -26,9 +26,12 @@ struct Lcg {
 
 // The level the upstream structure needs to pass q through pipe ci into level h_down: the same
 // relation the march uses (inlet EGL + K V^2/2g), recomputed here from the hydraulics alone.
-double needed_level(const model::Conduit& c, double z_up, double z_down, double q, double h_down, double k) {
+// `energy`: the receiving structure keeps the whole loss across it (the default bookkeeping, README
+// "How the march works"): the pipe's outlet EGL is its level; into the wet well, its water level.
+double needed_level(const model::Conduit& c, double z_up, double z_down, double q, double h_down, double k,
+                    bool energy) {
   const hydraulics::ConduitReach reach{c.section, c.roughness, c.length_m, z_up, z_down, q};
-  const auto p = hydraulics::compute_profile(reach, h_down);
+  const auto p = energy ? hydraulics::compute_profile_to_energy(reach, h_down) : hydraulics::compute_profile(reach, h_down);
   return p.inlet().egl_m + k * hydraulics::velocity_head_m(p.inlet().velocity_m_s);
 }
 
@@ -117,7 +120,7 @@ TEST_CASE("network solve: a flat looped grid to one pumped outlet converges, clo
     against += forward ? 0 : 1;
     CHECK(s.level_m[up] > s.level_m[down]);
     const double k = up == ww ? 0.0 : 0.5;
-    CHECK(std::fabs(needed_level(c, z_up, z_down, std::fabs(q), s.level_m[down], k) - s.level_m[up]) < 1e-3);
+    CHECK(std::fabs(needed_level(c, z_up, z_down, std::fabs(q), s.level_m[down], k, down != ww) - s.level_m[up]) < 1e-3);
   }
   CHECK(against * 4 >= pipes);      // at least a quarter ...
   CHECK(against * 2 <= pipes);      // ... and at most half flow against their digitised direction
