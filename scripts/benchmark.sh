@@ -9,6 +9,9 @@
 #            with --quick, WORK/RESULTS-quick.md)
 #            --stages "N ..." (stage timings and RSS of a run of N pipes, bench/pipeline_bench.cpp)
 #            --timeout S (give up on a rimline run after S seconds; recorded as such)
+#            --loops "N ..." (issue 21: a network of N tree pipes with 5 % of its structures on loops,
+#            make_network.py --loops 0.05, through the network solve, against the tree march of the
+#            same N; wall time, RSS, the ratio and the solve's convergence from summary.json)
 #            --keep-results (no build and no end-to-end runs: rewrite RESULTS from the timings and
 #            profile of the last run in WORK, adding --stages / --profile / micro figures)
 #
@@ -33,6 +36,7 @@ QUICK=0
 KEEP=0
 STAGES_N=""
 TIMEOUT=0
+LOOPS_N=""
 
 while [[ $# -gt 0 ]]; do
   case "$1" in
@@ -46,6 +50,7 @@ while [[ $# -gt 0 ]]; do
     --keep-results) KEEP=1; shift ;;
     --stages) STAGES_N="$2"; shift 2 ;;
     --timeout) TIMEOUT="$2"; shift 2 ;;
+    --loops) LOOPS_N="$2"; shift 2 ;;
     --results) RESULTS="$2"; shift 2 ;;
     -h|--help) sed -n '2,22p' "$0"; exit 0 ;;
     *) echo "benchmark.sh: unknown option $1 (see --help)" >&2; exit 2 ;;
@@ -137,6 +142,51 @@ for n in $SIZES; do
     "$(awk "BEGIN{print $rss_b/1024}")" "$best_r" "$(awk "BEGIN{print $rss_r/1024}")" "$(awk "BEGIN{print $best_r/$best_b}")"
 done
 
+# Looped networks (issue 21): the network solve against the tree march of the same size.
+LOOPS_TXT="$WORK/loops.txt"
+[[ $KEEP -eq 1 && -z "$LOOPS_N" ]] || : > "$LOOPS_TXT"
+for n in $LOOPS_N; do
+  tree="$WORK/n$n-s$SEED"; looped="$WORK/n$n-s$SEED-loops5"
+  for pair in "$tree:" "$looped:0.05"; do
+    d="${pair%%:*}"; share="${pair##*:}"
+    if [[ ! -f "$d/project.toml" || "$ROOT/scripts/make_network.py" -nt "$d/project.toml" ]]; then
+      echo "== generate N=$n${share:+, loops $share}"
+      /usr/bin/python3 "$ROOT/scripts/make_network.py" --pipes "$n" --seed "$SEED" --out "$d" ${share:+--loops "$share"}
+    fi
+  done
+  declare -A wall rss
+  for d in "$tree" "$looped"; do
+    rm -rf "$WORK/out-loops"
+    rc=0
+    /usr/bin/time -v -o "$WORK/loops.time" "$RIMLINE" check "$d/project.toml" --out "$WORK/out-loops" --quiet || rc=$?
+    [[ $rc -le 1 ]] || { echo "rimline check failed (exit $rc) on $d" >&2; exit 1; }
+    read -r w r c < <(parse_time "$WORK/loops.time")
+    wall[$d]=$w; rss[$d]=$r
+  done
+  {
+    printf "N=%s tree pipes: tree march %.2f s %.0f MiB | 5 %% of structures on loops, network solve %.2f s %.0f MiB | ratio %.2f\n" \
+      "$n" "${wall[$tree]}" "$(awk "BEGIN{print ${rss[$tree]}/1024}")" "${wall[$looped]}" \
+      "$(awk "BEGIN{print ${rss[$looped]}/1024}")" "$(awk "BEGIN{print ${wall[$looped]}/${wall[$tree]}}")"
+    /usr/bin/python3 - "$WORK/out-loops/summary.json" <<'PY'
+import json, sys
+n = json.load(open(sys.argv[1])).get("network_solve")
+if not n:
+    print("  no component went to the network solve")
+    sys.exit(0)
+u = n["units"]
+print("  solved: %d networks, %d structures, %d pipes, %d loops; %d levels by Newton in %d pieces; "
+      "%d pipes against their source direction; design flows settled in %d rounds (%s); not converged: %d"
+      % (n["networks"], n["structures"], n["pipes"], n["loops"], n["levels_by_newton"], n["newton_pieces"],
+         n["pipes_against_source"], n["design_flow_rounds"], "yes" if n["design_flows_settled"] else "no",
+         n["networks_not_converged"]))
+for c in n["cases"]:
+    print("  %s: %d Newton steps (most in a piece), largest continuity error %s %s, last level change %s %s, "
+          "converged %s" % (c["case"], c["newton_steps"], c["largest_continuity_error"], u["continuity_error"],
+                            c["last_level_change"], u["level_change"], c["converged"]))
+PY
+  } | tee -a "$LOOPS_TXT"
+done
+
 PROFILE_TXT="$WORK/profile.txt"
 [[ $KEEP -eq 1 && -z "$PROFILE_N" ]] || : > "$PROFILE_TXT"
 if [[ -n "$PROFILE_N" ]]; then
@@ -200,7 +250,7 @@ if [[ $MICRO -eq 1 ]]; then
     2>/dev/null | tee "$MICRO_TXT"
 fi
 
-/usr/bin/python3 - "$TSV" "$RESULTS" "$PROFILE_TXT" "$MICRO_TXT" "$SEED" "$QUICK" "$STAGES_TXT" "$STAGES_N" "$ROOT" <<'PY'
+/usr/bin/python3 - "$TSV" "$RESULTS" "$PROFILE_TXT" "$MICRO_TXT" "$SEED" "$QUICK" "$STAGES_TXT" "$STAGES_N" "$ROOT" "$LOOPS_TXT" <<'PY'
 import math, os, subprocess, sys, time
 tsv, out, prof, micro, seed, quick, stages, stages_n, root = sys.argv[1:10]
 rows = [l.split("\t") for l in open(tsv).read().splitlines() if l]
@@ -246,6 +296,10 @@ if os.path.getsize(stages):
               open(stages).read().rstrip()]
 if os.path.getsize(prof):
     lines += ["", "## Profile", "", "```", open(prof).read().rstrip(), "```"]
+loops_txt = sys.argv[10]
+if os.path.exists(loops_txt) and os.path.getsize(loops_txt):
+    lines += ["", "## Looped networks: network solve against the tree march (--loops)", "", "```",
+              open(loops_txt).read().rstrip(), "```"]
 if os.path.getsize(micro):
     lines += ["", "## Google Benchmark (bench/march_bench.cpp)", "", "```", open(micro).read().rstrip(), "```"]
 text = "\n".join(lines) + "\n"

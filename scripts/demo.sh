@@ -25,4 +25,12 @@ echo "== demo, rims against a ground model (metric) -> $out/ground-metric" >&2
 status=0
 "$here/build/rimline" check "$here/data/demo/metric/project-ground.toml" --out "$out/ground-metric" || status=$?
 [ "$status" -le 1 ] || exit "$status"
-echo "outputs: $out/{metric,us,rational-metric,rational-us,ground-metric} (exceptions.csv, results.gpkg, summary.json)" >&2
+# The network with a relief sewer beside the trunk (two loops): the network solve splits the flow
+# between trunk and relief by the levels, both unit systems.
+for variant in metric us; do
+  echo "== demo, relief sewer: network solve ($variant) -> $out/relief-$variant" >&2
+  status=0
+  "$here/build/rimline" check "$here/data/demo/$variant/project-relief.toml" --out "$out/relief-$variant" || status=$?
+  [ "$status" -le 1 ] || exit "$status"
+done
+echo "outputs: $out/{metric,us,rational-metric,rational-us,ground-metric,relief-metric,relief-us} (exceptions.csv, results.gpkg, summary.json)" >&2

@@ -14,6 +14,11 @@ drawn off its inlet, so the nearest structure takes it).
 A pump station (wet well WW-1) south of the trunk lifts its inflow through the 150 mm force main
 FM-1 over a ridge into T-12 (pump_station() below); with one pump running the HGL passes under the
 ridge, a sub-atmospheric high point.
+project-relief.toml runs the same network with a relief sewer beside the lower trunk (files
+pipes-relief.geojson and structures-relief.geojson: the demo's layers plus the relief): a 900 mm
+sewer leaves T-09 0.60 m above the trunk invert, runs beside the trunk 20 m to its south through
+R-01..R-03 and rejoins it at T-02, with a 450 mm cross connection from T-05 to R-02. The network
+is no longer a tree: the network solve splits the flow by the levels (relief() below).
 Deterministic: no random numbers.
 """
 import json, math, os, sys
@@ -335,6 +340,38 @@ def with_pump_station(text, units):
     text = text.replace('manhole = ["MH"]\n', 'manhole = ["MH"]\npump_station = ["PS"]\n', 1)
     return text + tables
 
+def relief(nodes):
+    """The relief sewer (invented): new structures R-01..R-03 and five pipes; returns (nodes, pipes)."""
+    by_id = {n["id"]: n for n in nodes}
+    t9, t2, t5 = by_id["T-09"], by_id["T-02"], by_id["T-05"]
+    rn, rp = [], []
+    start = t9["invert"] + 0.60          # the relief leaves T-09 0.60 m above the trunk invert
+    prev, prev_inv = t9, start
+    for k, beside in enumerate(("T-08", "T-06", "T-04"), start=1):
+        b = by_id[beside]
+        x, y = b["x"], b["y"] - 20.0
+        length = math.hypot(x - prev["x"], y - prev["y"])
+        inv_down = prev_inv - 0.0030 * length
+        n = dict(id=f"R-{k:02d}", type="MH", x=x, y=y, invert=round(inv_down - 0.02, 3),
+                 rim=round(b["rim"] + 0.10, 3), inflow=0.0)
+        rn.append(n)
+        rp.append(dict(id=f"R-{k:02d}", up=prev["id"], down=n["id"], dia=900, mat="RCP",
+                       inv_up=round(prev_inv, 3), inv_down=round(inv_down, 3)))
+        prev, prev_inv = n, n["invert"]
+    # Back into the trunk at T-02, 0.30 m above its invert.
+    rp.append(dict(id="R-04", up=prev["id"], down="T-02", dia=900, mat="RCP", inv_up=round(prev_inv, 3),
+                   inv_down=round(t2["invert"] + 0.30, 3)))
+    # Cross connection from T-05 to R-02, level: the levels decide which way it runs.
+    r2 = rn[1]
+    rp.append(dict(id="X-01", up="T-05", down=r2["id"], dia=450, mat="RCP", inv_up=round(t5["invert"] + 0.45, 3),
+                   inv_down=round(t5["invert"] + 0.45, 3)))
+    return rn, rp
+
+RELIEF_NOTE = """# The demo network with a relief sewer beside the lower trunk (R-01..R-04 from T-09 to T-02, and
+# the cross connection X-01 from T-05 to R-02): loops, so the network solve splits the flows by the
+# levels. Layers: the demo's plus the relief (pipes-relief.geojson, structures-relief.geojson).
+"""
+
 def main():
     nodes, pipes = build()
     fix_trunk_inverts(nodes, pipes)
@@ -365,6 +402,18 @@ def main():
                 json.dump(obj, f, indent=1); f.write("\n")
         with open(os.path.join(d, "project-rational.toml"), "w") as f:
             f.write(with_pump_station(rational_project(text, units), units))
+        rn, rp = relief(nodes)
+        s_r, p_r = features(nodes + rn, pipes + rp, units)
+        force_main_features(p_r["features"], units)
+        for name, obj in (("structures-relief.geojson", s_r), ("pipes-relief.geojson", p_r)):
+            with open(os.path.join(d, name), "w") as f:
+                json.dump(obj, f, indent=1); f.write("\n")
+        relief_text = with_pump_station(text, units)
+        relief_text = relief_text.replace('source = "pipes.geojson"', 'source = "pipes-relief.geojson"')
+        relief_text = relief_text.replace('source = "structures.geojson"', 'source = "structures-relief.geojson"')
+        relief_text = relief_text.replace("(invented demo,", "(invented demo, relief sewer,")
+        with open(os.path.join(d, "project-relief.toml"), "w") as f:
+            f.write(RELIEF_NOTE + relief_text)
     print(f"{len(nodes)} structures, {len(pipes)} pipes written to {os.path.normpath(OUT)}")
     import make_ground  # the invented ground model and project-ground.toml (scripts/make_ground.py)
     make_ground.main()

@@ -18,6 +18,12 @@ Invented data only, for benchmarking; nothing in it is a check value. The layout
   crown of the pipe leaving the manhole; half the outfalls have a tailwater level;
 - 1 % of pipes are digitised against the flow (inverts in digitising order, as such exports
   carry them), 10 % have a bend vertex.
+- with --loops F (e.g. 0.05): extra pipes join neighbouring manholes of the same tree that the tree
+  joins only a few pipes apart (relief and cross connections), until a share F of the structures
+  lies on a loop; each is the smaller of the sizes at its ends, its inverts 5 cm above the sumps,
+  digitised either way. The N pipes of the tree stay as they are (N counts the tree pipes; the
+  loop pipes come on top, about F x N / 4 of them). They draw from their own random stream, so
+  without --loops the network is the same as before.
 Deterministic for a given seed and N (Python's random.Random, Mersenne Twister).
 """
 import argparse
@@ -77,7 +83,48 @@ def grow_tree(rng, n_pipes):
     return cells, parent, side
 
 
-def build(n_total, seed):
+def add_loops(rng, cells, parent, share, max_cycle=8):
+    """Pairs (a, b) of grid neighbours in one tree, not parent and child, whose tree path is at
+    most max_cycle pipes, until a share of the cells lies on a cycle."""
+    m = len(cells)
+    depth = [0] * m
+    for k in range(1, m):
+        depth[k] = depth[parent[k]] + 1
+    index = {c: k for k, c in enumerate(cells)}
+    on_cycle = [False] * m
+    covered = 0
+    links = []
+    order = list(range(1, m))
+    rng.shuffle(order)
+    for a in order:
+        if covered >= share * m:
+            break
+        i, j = cells[a]
+        for di, dj in ((1, 0), (0, 1), (-1, 0), (0, -1)):
+            b = index.get((i + di, j + dj))
+            if b is None or b == 0 or parent[a] == b or parent[b] == a:
+                continue
+            path, x, y = [], a, b
+            while x != y and len(path) <= max_cycle + 1:
+                if depth[x] >= depth[y]:
+                    path.append(x)
+                    x = parent[x]
+                else:
+                    path.append(y)
+                    y = parent[y]
+            if x != y or len(path) > max_cycle:
+                continue
+            path.append(x)
+            for k in path:
+                if not on_cycle[k]:
+                    on_cycle[k] = True
+                    covered += 1
+            links.append((a, b))
+            break
+    return links
+
+
+def build(n_total, seed, loop_share=0.0):
     rng = random.Random(seed)
     n_trees = max(3, n_total // 2500)
     base = n_total // n_trees
@@ -173,6 +220,15 @@ def build(n_total, seed):
                 iu, idn = idn, iu
             mat = "RCP" if SIZES_MM[size_ix[k]] >= 450 else "PVC"
             pipes.append(("P%d-%d" % (t, k), us, ds, SIZES_MM[size_ix[k]], mat, iu, idn, coords))
+        if loop_share > 0.0:
+            lrng = random.Random(seed * 1000003 + t)
+            for n_link, (a, b) in enumerate(add_loops(lrng, cells, parent, loop_share)):
+                if lrng.random() < 0.5:
+                    a, b = b, a
+                dia = min(SIZES_MM[size_ix[a]], SIZES_MM[size_ix[b]])
+                pipes.append(("L%d-%d" % (t, n_link), "S%d-%d" % (t, a), "S%d-%d" % (t, b), dia,
+                              "RCP" if dia >= 450 else "PVC", round(sump[a] + 0.05, 3), round(sump[b] + 0.05, 3),
+                              [xy[a], xy[b]]))
     return nodes, pipes, n_trees
 
 
@@ -217,7 +273,7 @@ def fill_pipe(f, r):
 
 
 PROJECT = """# rimline benchmark project: a synthetic network written by scripts/make_network.py
-# (N = {n} pipes, seed {seed}, {trees} outfall trees). Invented data; nothing here is a check value.
+# (N = {n} pipes, seed {seed}, {trees} outfall trees{loops}). Invented data; nothing here is a check value.
 [project]
 name = "Synthetic dendritic network, {n} pipes (invented, seed {seed})"
 units = "si"
@@ -286,11 +342,13 @@ def main():
     ap.add_argument("--pipes", type=int, required=True, help="number of pipes N")
     ap.add_argument("--seed", type=int, default=1)
     ap.add_argument("--out", required=True, help="output directory")
+    ap.add_argument("--loops", type=float, default=0.0,
+                    help="share of structures on loops (0.05: 5 %%), by extra cross pipes; default none")
     a = ap.parse_args()
     if a.pipes < 3:
         sys.exit("make_network.py: --pipes must be at least 3")
     t0 = time.time()
-    nodes, pipes, trees = build(a.pipes, a.seed)
+    nodes, pipes, trees = build(a.pipes, a.seed, a.loops)
     t1 = time.time()
     os.makedirs(a.out, exist_ok=True)
     path = os.path.join(a.out, "network.gpkg")
@@ -306,7 +364,8 @@ def main():
                  ("DS_INV", ogr.OFTReal)], pipes, fill_pipe)
     ds = None
     with open(os.path.join(a.out, "project.toml"), "w") as f:
-        f.write(PROJECT.format(n=a.pipes, seed=a.seed, trees=trees))
+        loops = ", %g %% of structures on loops" % (100 * a.loops) if a.loops > 0 else ""
+        f.write(PROJECT.format(n=a.pipes, seed=a.seed, trees=trees, loops=loops))
     print("make_network: %d pipes, %d structures, %d outfall trees -> %s (build %.1f s, write %.1f s)"
           % (len(pipes), len(nodes), trees, a.out, t1 - t0, time.time() - t1))
 

@@ -9,7 +9,7 @@ shift || true
 packages=(cmake g++ make pkg-config
           libgdal-dev libsqlite3-dev gdal-bin python3-gdal libgeos-dev libproj-dev proj-bin
           libcli11-dev catch2 libtomlplusplus-dev nlohmann-json3-dev libcairo2-dev
-          poppler-utils libxml2-utils)
+          poppler-utils libxml2-utils libeigen3-dev)
 missing=()
 for p in "${packages[@]}"; do
   dpkg-query -W -f='${Status}' "$p" 2>/dev/null | grep -q "install ok installed" || missing+=("$p")

@@ -5,7 +5,7 @@
 namespace rimline {
 namespace {
 
-constexpr std::array<MethodRow, 35> rows{{
+constexpr std::array<MethodRow, 39> rows{{
     {"friction", "manning", "Manning", "V = (1/n) R^(2/3) S^(1/2) on the hydraulic radius of the wetted section",
      "Manning (1891); SI form, and the US form with 1.486 = (1/0.3048)^(1/3) ft^(1/3)/m^(1/3)"},
     {"friction", "darcy_weisbach", "Darcy-Weisbach with Colebrook-White",
@@ -89,6 +89,20 @@ constexpr std::array<MethodRow, 35> rows{{
      "Q = PF q P + infiltration per length of pipe or per area; PF = 1 + 14 / (4 + sqrt(P)), P in thousands",
      "Harmon (1918); as (18 + sqrt P) / (4 + sqrt P) in Recommended Standards for Wastewater Facilities (Ten States "
      "Standards) - section and edition from memory"},
+    {"diversion split", "hydraulic", "Network solve: flows split by the levels",
+     "components with a loop, a diversion or several outlets: water levels at the structures by Newton's method with an "
+     "Armijo line search on the continuity residuals (sparse LU), each pipe's discharge from its two end levels by "
+     "inverting the march's own profile in Q, either direction; pipes on no loop whose far side holds no outlet carry "
+     "their known flow; design flows accumulated by the solved split until they agree with the solved flows",
+     "Newton-Raphson; checked against Hardy Cross (1936), Univ. of Illinois Eng. Exp. Station Bulletin 286 (citation "
+     "from memory); node-by-node rescue after Rheinboldt (1970), J. Math. Anal. Appl. 32 (from memory)"},
+    {"diversion split", "capacity", "Diversion split by full-flow capacity",
+     "each outflow of a diversion takes a share in proportion to its full-flow capacity at its slope; loops cut",
+     "common practice, no source"},
+    {"diversion split", "field", "Diversion split by given fractions",
+     "each outflow takes the share its split field gives (normalised); loops cut", "the agency's own shares"},
+    {"diversion split", "fixed", "Diversion split by shares in the project",
+     "each outflow takes its share from [flows.shares] (normalised); loops cut", "the agency's own shares"},
     {"criterion", "freeboard", "Freeboard below the rim", "HGL at least this far below the rim (default 0.3 m, about 1 ft)",
      "common practice, no source (agency manuals range from 0 to 1 ft)"},
     {"criterion", "velocity_min", "Minimum velocity",

@@ -424,6 +424,20 @@ void read_plausibility(TomlSection s, Project& p) {
   s.finish();
 }
 
+void read_network_solve(TomlSection s, Project& p) {
+  auto& n = p.network_solve;
+  n.all_components = s.choice<bool>("components", {{"non_tree", false}, {"all", true}}).value_or(n.all_components);
+  auto count = [&s](std::string_view key, int fallback) {
+    const auto v = s.number(key);
+    if (!v) return fallback;
+    if (!(*v >= 1.0 && *v <= 1000.0) || *v != std::floor(*v)) s.fail(key, "must be a whole number from 1 to 1000");
+    return static_cast<int>(*v);
+  };
+  n.max_iterations = count("max_iterations", n.max_iterations);
+  n.design_flow_iterations = count("design_flow_iterations", n.design_flow_iterations);
+  s.finish();
+}
+
 void read_flows_and_tailwater(TomlSection flows, TomlSection tw, Project& p) {
   p.flow_mode = flows
                     .choice<FlowMode>("mode", {{"pipe_field", FlowMode::pipe_field},
@@ -431,12 +445,24 @@ void read_flows_and_tailwater(TomlSection flows, TomlSection tw, Project& p) {
                                                {"rational", FlowMode::rational},
                                                {"sanitary", FlowMode::sanitary}})
                     .value_or(p.flow_mode);
-  p.split_rule = flows.choice<SplitRule>("split", {{"capacity", SplitRule::capacity}, {"field", SplitRule::field}})
+  p.split_rule = flows
+                     .choice<SplitRule>("split", {{"hydraulic", SplitRule::hydraulic},
+                                                  {"capacity", SplitRule::capacity},
+                                                  {"field", SplitRule::field},
+                                                  {"fixed", SplitRule::fixed}})
                      .value_or(p.split_rule);
   p.default_inflow_m3_s = flows.quantity("default_inflow", Dimension::flow);
+  TomlSection shares = flows.table("shares");
+  for (const auto& [id, node] : shares.entries()) {
+    const auto v = node->value<double>();
+    if (!v || !(*v >= 0.0 && *v <= 1.0)) shares.fail_at(node, id, "a share must be a number from 0 to 1");
+    p.split_shares[id] = *v;
+  }
   flows.finish();
   if (p.split_rule == SplitRule::field && p.pipe_fields.split.empty())
     flows.fail("split", "\"field\" needs pipes.fields.split to be mapped");
+  if (p.split_rule == SplitRule::fixed && p.split_shares.empty())
+    flows.fail("split", "\"fixed\" needs the shares in [flows.shares] (\"PIPE-ID\" = 0.3)");
   p.tailwater_mode =
       tw.choice<TailwaterMode>(
             "mode", {{"fixed", TailwaterMode::fixed}, {"free", TailwaterMode::free}, {"higher", TailwaterMode::higher}})
@@ -472,7 +498,7 @@ Project parse_project(const std::string& toml_text, const std::string& path_for_
               plausibility = top.table("plausibility"), criteria = top.table("criteria"),
               force_mains = top.table("force_mains"), pump_curves = top.table("pump_curves"),
               pump_points = top.table("pump_station_points"), outfalls = top.table("outfalls"),
-              ground = top.table("ground");
+              ground = top.table("ground"), network_solve = top.table("network_solve");
   const toml::node* pump_stations = top.node("pump_stations");
   detail::CatchmentSections catchment_sections{top.table("catchments"), top.table("land_use"), top.table("rational"),
                                                top.table("sanitary")};
@@ -490,6 +516,7 @@ Project parse_project(const std::string& toml_text, const std::string& path_for_
   read_outfalls(outfalls, p);
   read_ground(ground, p);
   read_flows_and_tailwater(flows, tailwater, p);
+  read_network_solve(network_solve, p);
   detail::read_catchment_sections(catchment_sections, p, &read_layer_source);
   read_methods(methods, p);
   read_criteria(criteria, p);

@@ -41,7 +41,9 @@ const std::vector<std::string>& project_key_table() {
         "ground", "ground.source", "ground.band", "ground.unit", "ground.offset", "ground.fill_rims",
         "ground.compare_rims", "ground.rim_tolerance",
         // flows, tailwater
-        "flows", "flows.mode", "flows.split", "flows.default_inflow", "tailwater", "tailwater.mode", "tailwater.levels",
+        "flows", "flows.mode", "flows.split", "flows.default_inflow", "flows.shares", "flows.shares.*",
+        "network_solve", "network_solve.components", "network_solve.max_iterations",
+        "network_solve.design_flow_iterations", "tailwater", "tailwater.mode", "tailwater.levels",
         // catchments
         "catchments", "catchments.source", "catchments.layer", "catchments.open_options", "catchments.outlet_search",
         "catchments.allow_left_out", "catchments.fields", "catchments.fields.id", "catchments.fields.structure",

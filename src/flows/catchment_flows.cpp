@@ -27,7 +27,7 @@ double longest(double a, double b) {
 // structure; `pipe_flow` sets the pipe's design flow (and its travel time) from that share.
 template <typename PipeFlow>
 CatchmentFlows along_tree(const model::Network& net, const topology::Topology& topo,
-                          const std::vector<LocalInflow>& local, Split split, const FixedFlows& fixed,
+                          const std::vector<LocalInflow>& local, const SplitRule& split, const FixedFlows& fixed,
                           PipeFlow&& pipe_flow) {
   const std::size_t nc = net.conduits.size();
   CatchmentFlows out;
@@ -90,7 +90,7 @@ std::vector<LocalInflow> local_inflows(const model::Network& network, const std:
 
 CatchmentFlows storm_along_tree(const model::Network& network, const topology::Topology& topo,
                                 const std::vector<LocalInflow>& local, const model::IdfCurve& idf,
-                                const TravelTimeFn& travel, Split split, Findings& findings,
+                                const TravelTimeFn& travel, const SplitRule& split, Findings& findings,
                                 const FixedFlows& fixed) {
   auto out = along_tree(network, topo, local, split, fixed, [&](std::size_t ci, PipeDesign& p, double, double inflow) {
     p.flow_m3_s = inflow;
@@ -114,7 +114,7 @@ CatchmentFlows storm_along_tree(const model::Network& network, const topology::T
 }
 
 CatchmentFlows sanitary_along_tree(const model::Network& network, const topology::Topology& topo,
-                                   const std::vector<LocalInflow>& local, const SanitaryOptions& o, Split split,
+                                   const std::vector<LocalInflow>& local, const SanitaryOptions& o, const SplitRule& split,
                                    const FixedFlows& fixed) {
   auto out = along_tree(network, topo, local, split, fixed, [&](std::size_t, PipeDesign& p, double length_m, double inflow) {
     p.peaking_factor = o.peaking == Peaking::harmon ? harmon_peaking_factor(p.population) : o.peaking_constant;

@@ -10,16 +10,33 @@ namespace {
 
 constexpr double nan = std::numeric_limits<double>::quiet_NaN();
 
-// Share of each outflow at a diversion: given fractions, or in proportion to full capacity
-// (common practice, no source) when fractions are missing or the rule says so.
-std::vector<double> outflow_shares(const model::Network& net, const std::vector<std::size_t>& outs, Split split) {
+// The shares the network solve found at a structure, or nothing when they are missing there.
+bool solved_shares(const std::vector<std::size_t>& outs, const SplitRule& split, std::vector<double>& share) {
+  if (split.split != Split::hydraulic || split.share.empty()) return false;
+  double total = 0.0;
+  for (std::size_t i = 0; i < outs.size(); ++i) {
+    const double s = outs[i] < split.share.size() ? split.share[outs[i]] : nan;
+    if (!std::isfinite(s) || s < 0.0) return false;
+    share[i] = s;
+    total += s;
+  }
+  if (!(total > 0.0)) return false;
+  for (auto& s : share) s /= total;
+  return true;
+}
+
+// Share of each outflow at a diversion: given fractions, the solved shares, or in proportion to
+// full capacity (common practice, no source) when those are missing or the rule says so.
+std::vector<double> outflow_shares(const model::Network& net, const std::vector<std::size_t>& outs,
+                                   const SplitRule& split) {
   std::vector<double> share(outs.size(), 0.0);
   if (outs.size() == 1) {
     share[0] = 1.0;
     return share;
   }
+  if (solved_shares(outs, split, share)) return share;
   double total = 0.0;
-  bool all_given = split == Split::field;
+  bool all_given = split.split == Split::field;
   for (std::size_t i = 0; i < outs.size() && all_given; ++i)
     all_given = net.conduits[outs[i]].split_fraction.has_value();
   for (std::size_t i = 0; i < outs.size(); ++i) {
@@ -112,7 +129,8 @@ DesignFlows design_flows(const model::Network& network, const topology::Topology
   return out;
 }
 
-std::vector<double> diversion_shares(const model::Network& network, const std::vector<std::size_t>& outs, Split split) {
+std::vector<double> diversion_shares(const model::Network& network, const std::vector<std::size_t>& outs,
+                                     const SplitRule& split) {
   return outflow_shares(network, outs, split);
 }
 

@@ -15,6 +15,7 @@
 #include "report/html_cells.hpp"
 #include "report/html_style.hpp"
 #include "report/review_style.hpp"
+#include "report/network_solve_html.hpp"
 #include "report/pump_station_html.hpp"
 #include "report/sheet_text.hpp"
 #include "report/verdict.hpp"
@@ -173,6 +174,7 @@ std::string methods_section(const run::CheckRun& run) {
     else if (m.group == "water") here = darcy ? "<span class=\"used\">in use</span>" : "";
     else if (m.group == "profile") here = "<span class=\"used\">in use</span>";
     else if (m.group == "flows") here = flows_row_in_use(run, m.id) ? "<span class=\"used\">in use</span>" : "";
+    else if (m.group == "diversion split") here = m.id == run.network.split ? "<span class=\"used\">in use</span>" : "";
     else if (auto it = criterion_value.find(std::string(m.id)); it != criterion_value.end())
       here = "<span class=\"used\">" + esc(it->second) + "</span>";
     h += row({esc(m.group), esc(m.name) + " <code>" + esc(m.id) + "</code>", esc(m.description), here, esc(m.source)});
@@ -374,7 +376,8 @@ void write_report_html(std::ostream& out, const run::CheckRun& run, const std::v
        std::string(run.catchment_flows ? " <a href=\"#design-flows\">Design flows</a>" : "") + "</nav>\n";
   const FeatureLinks links(run, profiles);
   out << h << verdict_section(run) << plan_map_section(run, links);
-  out << summary_section(run, date) << inputs_section(run) << methods_section(run) << design_flows_section(run);
+  out << summary_section(run, date) << inputs_section(run) << methods_section(run) << design_flows_section(run)
+      << network_solve_section(run);
   out << "<section id=\"exceptions\"><h2>Exception list</h2>\n<p>Design criteria not met, worst case over the "
          "tailwater cases, by severity. A structure warning or error opens to its energy budget down to the "
          "outfall.</p>\n";

@@ -280,7 +280,7 @@ class Writer {
   std::vector<Column> conduit_columns() const {
     std::vector<Column> out;
     for (const char* n : {"id", "from_id", "to_id", "shape", "regime", "governs", "profile_class", "note", "tailwater_case",
-                          "velocity_selfclean_basis", "velocity_selfclean_case", "velocity_highest_case"})
+                          "velocity_selfclean_basis", "velocity_selfclean_case", "velocity_highest_case", "solved_by"})
       out.push_back({n, OFTString});
     for (const char* n : {"rise", "width", "length", "slope", "flow", "capacity", "capacity_ratio", "velocity_up",
                           "velocity_down", "depth_up", "depth_down", "hgl_up", "hgl_down", "egl_up", "egl_down",
@@ -288,6 +288,7 @@ class Writer {
                           "velocity_selfclean", "velocity_highest"})
       out.push_back({n, OFTReal});
     out.push_back({"reversed", OFTInteger});
+    out.push_back({"against_source", OFTInteger});
     for (const char* n : design_columns()) out.push_back({n, OFTReal});
     return out;
   }
@@ -340,7 +341,7 @@ class Writer {
     int id, from_id, to_id, shape, regime, governs, profile_class, note, tailwater_case, rise, width, length, slope,
         flow, capacity, capacity_ratio, velocity_up, velocity_down, depth_up, depth_down, hgl_up, hgl_down, egl_up,
         egl_down, normal_depth, critical_depth, surcharged_length, invert_up, invert_down, reversed,
-        selfclean, selfclean_basis, selfclean_case, highest, highest_case;
+        selfclean, selfclean_basis, selfclean_case, highest, highest_case, solved_by, against_source;
     explicit ConduitColumns(const GpkgRows& r)
         : id(r.column("id")), from_id(r.column("from_id")), to_id(r.column("to_id")), shape(r.column("shape")),
           regime(r.column("regime")), governs(r.column("governs")), profile_class(r.column("profile_class")),
@@ -355,7 +356,8 @@ class Writer {
           invert_down(r.column("invert_down")), reversed(r.column("reversed")),
           selfclean(r.column("velocity_selfclean")), selfclean_basis(r.column("velocity_selfclean_basis")),
           selfclean_case(r.column("velocity_selfclean_case")), highest(r.column("velocity_highest")),
-          highest_case(r.column("velocity_highest_case")) {}
+          highest_case(r.column("velocity_highest_case")), solved_by(r.column("solved_by")),
+          against_source(r.column("against_source")) {}
   };
 
   // Pipes that could not be solved go to their own layer with the reason, so that every row of
@@ -386,6 +388,12 @@ class Writer {
       put(rows, col.width, c.section.shape != hydraulics::Shape::circular ? c.section.width_m : NAN, Dimension::length);
       put(rows, col.length, c.length_m, Dimension::length);
       rows.integer(col.reversed, c.reversed ? 1 : 0);
+      // The direction from_id -> to_id is the one the pipe flows: the march's orientation, or the
+      // network solve's where it took the pipe; against_source: against its from/to ids or digitising.
+      const auto& ns = run_.network;
+      const bool by_network = ci < ns.solved_conduit.size() && ns.solved_conduit[ci];
+      rows.text(col.solved_by, by_network ? "network" : "march");
+      rows.integer(col.against_source, ci < ns.against_source.size() && ns.against_source[ci] ? 1 : 0);
       put_design_fields(rows, design, ci);
       if (!run_.cases.empty()) {
         const auto& cs = run_.cases[run_.envelope_conduit_case[ci]];

@@ -5,6 +5,7 @@
 
 #include "base/number_text.hpp"
 #include "report/method_text.hpp"
+#include "report/network_solve_html.hpp"
 #include "rimline/hydraulics/friction.hpp"
 #include "rimline/report/outputs.hpp"
 #include "rimline/topology/summary.hpp"
@@ -58,6 +59,38 @@ ordered_json design_flows_json(const run::CheckRun& run) {
     d["travel_velocity"] = run.project.rational.full_flow_velocity ? "full_flow" : "normal_depth";
   }
   return d;
+}
+
+// The network solve: what it took, how the design flows settled, each case's convergence (the
+// small figures in L/s and mm, or gpm and in).
+ordered_json network_solve_json(const run::CheckRun& run) {
+  const auto& n = run.network;
+  const auto q = small_flow_unit(run.report_units), l = small_length_unit(run.report_units);
+  auto small = [](double si, units::Unit u) { return std::round(units::from_si(si, u) * 1e4) / 1e4; };
+  ordered_json cases = ordered_json::array();
+  for (const auto& c : n.cases)
+    cases.push_back({{"case", render_message(c.label, run.report_units)},
+                     {"newton_steps", c.iterations},
+                     {"profiles_computed", c.evaluations},
+                     {"largest_continuity_error", small(c.max_continuity_error_m3_s, q)},
+                     {"last_level_change", small(c.max_level_change_m, l)},
+                     {"converged", c.converged},
+                     {"pipes_other_way_than_first_case", c.flipped}});
+  return {{"diversion_split", n.split},
+          {"all_components", n.all_components},
+          {"units", {{"continuity_error", units::unit_symbol(q)}, {"level_change", units::unit_symbol(l)}}},
+          {"networks", n.components},
+          {"structures", n.structures},
+          {"pipes", n.conduits},
+          {"loops", n.loops},
+          {"diversions", n.diversions},
+          {"levels_by_newton", n.unknowns},
+          {"newton_pieces", n.newton_pieces},
+          {"pipes_against_source", n.against_source_count},
+          {"design_flow_rounds", n.design_flow_rounds},
+          {"design_flows_settled", n.design_flows_converged},
+          {"networks_not_converged", n.fallback_components},
+          {"cases", cases}};
 }
 
 // Each outfall's tailwater in a case and where it came from (the run's level, the outfall's own
@@ -133,8 +166,10 @@ std::string summary_json(const run::CheckRun& run) {
       {"kinematic_viscosity_unit", us ? "ft2/s" : "m2/s"},
       {"velocity_min_basis", checks::velocity_basis_name(run.criteria.velocity_basis)},
       {"velocity_min_basis_by_pipe", basis_by_pipe},
-      {"velocity_rules", velocity_rules_text(run)}};
+      {"velocity_rules", velocity_rules_text(run)},
+      {"diversion_split", run.network.split}};
   if (run.catchment_flows) j["design_flows"] = design_flows_json(run);
+  if (run.network.components > 0 || run.network.fallback_components > 0) j["network_solve"] = network_solve_json(run);
   ordered_json crit = {{"freeboard", length(run.criteria.freeboard_m, sys)},
                        {"velocity_min", velocity(run.criteria.velocity_min_m_s, sys)},
                        {"capacity_ratio_max", run.criteria.capacity_ratio_max}};

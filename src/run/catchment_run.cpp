@@ -1,9 +1,11 @@
 #include "run/catchment_run.hpp"
 
+#include <cmath>
 #include <cstdio>
 
 #include "rimline/flows/catchment_outlets.hpp"
 #include "rimline/flows/idf.hpp"
+#include "rimline/flows/peaking.hpp"
 
 namespace rimline::run {
 namespace {
@@ -22,7 +24,7 @@ void assign_catchment_outlets(const config::Project& project, CheckRun& run) {
                         run.data_findings);
 }
 
-flows::DesignFlows catchment_design_flows(const config::Project& project, flows::Split split,
+flows::DesignFlows catchment_design_flows(const config::Project& project, const flows::SplitRule& split,
                                           const flows::FixedFlows& fixed, CheckRun& run, Findings& findings) {
   const auto& net = run.read.network;
   const auto local = flows::local_inflows(net, run.catchments);
@@ -54,6 +56,24 @@ flows::DesignFlows catchment_design_flows(const config::Project& project, flows:
   }
   run.catchment_flows = cf;
   return cf.flows;
+}
+
+std::vector<double> own_catchment_flows(const config::Project& project, const CheckRun& run) {
+  const auto local = flows::local_inflows(run.read.network, run.catchments);
+  std::vector<double> out(local.size(), 0.0);
+  for (std::size_t s = 0; s < local.size(); ++s) {
+    const auto& l = local[s];
+    double q = l.inflow_m3_s;
+    if (project.flow_mode == config::FlowMode::rational) {
+      if (!std::isnan(l.inlet_time_s)) q += flows::idf_intensity(project.rational.idf, l.inlet_time_s).intensity_m_s * l.ca_m2;
+    } else {
+      const auto& sp = project.sanitary;
+      const double pf = sp.peaking_constant ? *sp.peaking_constant : flows::harmon_peaking_factor(l.population);
+      q += pf * sp.per_capita_m3_s * l.population + sp.infiltration_per_area_m3_s_m2.value_or(0.0) * l.area_m2;
+    }
+    out[s] = q;
+  }
+  return out;
 }
 
 }  // namespace rimline::run

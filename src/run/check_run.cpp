@@ -13,6 +13,7 @@
 #include "run/level_checks.hpp"
 #include "run/project_checks.hpp"
 #include "run/input_hashes.hpp"
+#include "run/network_run.hpp"
 #include "run/pump_run.hpp"
 
 namespace rimline::run {
@@ -211,6 +212,41 @@ std::string case_label(double tw, const config::Project& p, const model::Network
   return with_field == outfalls ? "outfall tailwater fields" : "outfall tailwater fields (free outfall elsewhere)";
 }
 
+// The split rule of the design flows: shares from [flows.shares] become the pipes' split fractions.
+flows::SplitRule split_rule_of(const config::Project& p, CheckRun& run) {
+  switch (p.split_rule) {
+    case config::SplitRule::hydraulic: return flows::Split::hydraulic;
+    case config::SplitRule::capacity: return flows::Split::capacity;
+    case config::SplitRule::field: return flows::Split::field;
+    case config::SplitRule::fixed: break;
+  }
+  auto& net = run.read.network;
+  std::unordered_map<std::string, std::size_t> index;
+  for (std::size_t ci = 0; ci < net.conduits.size(); ++ci) index.try_emplace(net.conduits[ci].id, ci);
+  for (const auto& [id, share] : p.split_shares) {
+    const auto it = index.find(id);
+    if (it == index.end()) {
+      run.data_findings.push_back({"DATA_MISSING", Severity::warning, LayerRole::project, id, "flows.shares", share, nan,
+                                   units::Dimension::dimensionless,
+                                   "[flows.shares] names pipe " + id + ", which is not in the pipe layer; its share is not used."});
+      continue;
+    }
+    net.conduits[it->second].split_fraction = share;
+  }
+  return flows::Split::field;
+}
+
+// What each structure sends down when nothing reaches it from upstream (network_run.hpp).
+std::vector<double> own_flows(const config::Project& p, const flows::FlowOptions& flow_opt, const CheckRun& run) {
+  if (p.flow_mode == config::FlowMode::rational || p.flow_mode == config::FlowMode::sanitary)
+    return own_catchment_flows(p, run);
+  std::vector<double> own(run.read.network.structures.size(), 0.0);
+  if (p.flow_mode == config::FlowMode::structure_inflows)
+    for (std::size_t s = 0; s < own.size(); ++s)
+      own[s] = run.read.network.structures[s].inflow_m3_s.value_or(flow_opt.default_inflow_m3_s);
+  return own;
+}
+
 // The march problems of every case, each once, labelled with the cases it arose in.
 void gather_march_findings(std::vector<Case>& cases, Findings& into, std::vector<std::string>& case_of) {
   std::unordered_map<std::string, std::size_t> seen;  // key -> index into `into`
@@ -378,7 +414,7 @@ CheckRun run_check(const config::Project& project, const RunOptions& options) {
 
   flows::FlowOptions flow_opt;
   flow_opt.mode = project.flow_mode == config::FlowMode::pipe_field ? flows::Mode::pipe_field : flows::Mode::structure_inflows;
-  flow_opt.split = project.split_rule == config::SplitRule::field ? flows::Split::field : flows::Split::capacity;
+  flow_opt.split = split_rule_of(project, run);
   flow_opt.friction = project.methods.friction;
   flow_opt.default_inflow_m3_s = project.default_inflow_m3_s.value_or(0.0);
 
@@ -394,16 +430,29 @@ CheckRun run_check(const config::Project& project, const RunOptions& options) {
   constexpr int max_pump_iterations = 10;
   Findings flow_findings;
   bool settled = layouts.empty();
+  // Components with loops, diversions or several outlets: the network solve (network_run.hpp).
+  NetworkRun network(project, run);
   for (run.pump_iterations = 1;; ++run.pump_iterations) {
     flow_opt.fixed_conduit_flow_m3_s.clear();
     for (const auto& st : run.pump_stations)
       for (std::size_t ci : st.layout.chain) flow_opt.fixed_conduit_flow_m3_s[ci] = st.design_flow_m3_s;
     stage("design flows");
-    flow_findings.clear();
-    if (from_catchments)
-      run.flows = catchment_design_flows(project, flow_opt.split, flow_opt.fixed_conduit_flow_m3_s, run, flow_findings);
-    else
-      run.flows = flows::design_flows(run.read.network, run.topology, flow_opt, flow_findings);
+    auto design = [&](const flows::SplitRule& rule) {
+      flow_findings.clear();
+      auto opt = flow_opt;
+      opt.split = rule;
+      if (from_catchments)
+        return catchment_design_flows(project, rule, flow_opt.fixed_conduit_flow_m3_s, run, flow_findings);
+      return flows::design_flows(run.read.network, run.topology, opt, flow_findings);
+    };
+    if (network.active()) {
+      stage("network solve");
+      auto first = run.march_options;
+      first.tailwater_m = levels.front();
+      run.flows = network.settle(design, own_flows(project, flow_opt, run), first);
+    } else {
+      run.flows = design(flow_opt.split);
+    }
     run.cases.clear();
     for (double tw : levels) {
       stage("march " + std::to_string(run.cases.size() + 1) + "/" + std::to_string(levels.size()));
@@ -412,7 +461,8 @@ CheckRun run_check(const config::Project& project, const RunOptions& options) {
       c.label = case_label(tw, project, run.read.network, run.topology);
       auto opt = run.march_options;
       opt.tailwater_m = tw;
-      c.march = solve::march(run.read.network, run.topology, run.flows.flow_m3_s, opt);
+      c.march = network.active() ? network.march_case(run.cases.size(), opt, c.label)
+                                 : solve::march(run.read.network, run.topology, run.flows.flow_m3_s, opt);
       c.findings = checks::run_checks(run.read.network, c.march, run.criteria, run.overrides);
       run.cases.push_back(std::move(c));
     }
@@ -427,6 +477,7 @@ CheckRun run_check(const config::Project& project, const RunOptions& options) {
     if (settled) break;
   }
   for (auto& f : flow_findings) run.data_findings.push_back(std::move(f));
+  network.finish(run.data_findings);
   if (!settled)
     run.data_findings.push_back({"FM_NOT_CONVERGED", Severity::warning, LayerRole::project, "pump_stations", "", nan, nan,
                                  units::Dimension::dimensionless,

@@ -9,13 +9,14 @@
 #include "rimline/error.hpp"
 #include "rimline/hydraulics/depth.hpp"
 #include "rimline/hydraulics/friction.hpp"
+#include "rimline/solve/structure_level.hpp"
 
 namespace rimline::solve {
 namespace {
 
 constexpr double nan = std::numeric_limits<double>::quiet_NaN();
 // A level far below any invert: the pipe discharges freely into it.
-constexpr double free_level_m = -1.0e6;
+constexpr double free_level_m = free_outlet_level_m;
 
 // Marches the structures it is seeded with and everything upstream of them. Several marchers
 // run at once on disjoint connected components: each writes only the results of its own
@@ -44,23 +45,6 @@ class Marcher {
   }
 
  private:
-  double structure_k(const model::Structure& s) const {
-    if (s.loss_k) return *s.loss_k;
-    const auto it = opt_.k_by_type.find(std::string(model::structure_kind_name(s.kind)));
-    return it != opt_.k_by_type.end() ? it->second : opt_.default_k;
-  }
-
-  double tailwater_of(const model::Structure& s) const {
-    if (s.tailwater_m) return *s.tailwater_m;
-    return opt_.tailwater_m;
-  }
-
-  hydraulics::StructureEnergy energy_at(std::size_t s) const {
-    if (opt_.loss_method == hydraulics::StructureLossMethod::hec22) return hydraulics::StructureEnergy::whole_loss;
-    const auto it = opt_.structure_energy_at.find(s);
-    return it != opt_.structure_energy_at.end() ? it->second : opt_.structure_energy;
-  }
-
   void solve_structure(std::size_t s) {
     auto& r = out_.structures[s];
     const auto& st = net_.structures[s];
@@ -75,35 +59,28 @@ class Marcher {
       if (c.force_main) pumped = true;
       else outs.push_back(ci);
     }
-    if (outs.empty() && pumped) {
-      r.pumped = true;
-      r.solved = true;
-      const auto level = opt_.wet_well_level_m.find(s);
-      // At its pump-on level the wet well backs water up into the incoming sewers; without one the
-      // inflows discharge freely into it.
-      r.hgl_m = r.egl_m = level != opt_.wet_well_level_m.end() ? level->second : free_level_m;
-      return;
-    }
     if (outs.empty()) {
-      r.outfall = true;
+      r.pumped = pumped;
+      r.outfall = !pumped;
       r.solved = true;
-      const double tw = tailwater_of(st);
-      r.tailwater_m = tw;
-      r.tailwater_from_field = st.tailwater_m.has_value();
-      const bool use_tw = std::isfinite(tw) && opt_.tailwater_mode != TailwaterMode::free;
-      r.hgl_m = r.egl_m = use_tw ? tw : free_level_m;
+      r.tailwater_from_field = !pumped && st.tailwater_m.has_value();
+      r.hgl_m = r.egl_m = outlet_level_m(st, s, pumped, opt_, pumped ? nullptr : &r.tailwater_m);
       return;
     }
-    r.energy = energy_at(s);
+    r.energy = structure_energy_at(opt_, s);
     double best = -std::numeric_limits<double>::infinity();
+    // A dry outflow (no flow: a relief pipe set above the water, as the network solve finds) does
+    // not hold water up in the structure while another outflow carries the flow.
+    const bool some_flow = std::any_of(outs.begin(), outs.end(), [this](std::size_t ci) { return flow_[ci] > 0.0; });
     for (std::size_t ci : outs) {
       const auto& cr = out_.conduits[ci];
       if (!cr.solved) {
         r.solved = false;  // a level downstream is unknown: nothing upstream can be checked
         return;
       }
+      if (some_flow && !(flow_[ci] > 0.0)) continue;
       const auto loss = loss_into(s, ci);
-      const double level = cr.profile.inlet().egl_m + loss.loss_m;
+      const double level = structure_level_for_outflow(cr.profile.inlet(), loss);
       if (level > best) {
         best = level;
         r.governing_outflow = ci;
@@ -119,46 +96,25 @@ class Marcher {
 
   hydraulics::StructureLoss loss_into(std::size_t s, std::size_t outflow) {
     const auto& st = net_.structures[s];
-    const auto& oc = net_.conduits[outflow];
     const auto& inlet = out_.conduits[outflow].profile.inlet();
-    hydraulics::StructureLossInputs in;
-    in.k_constant = structure_k(st);
-    in.outflow_velocity_m_s = inlet.velocity_m_s;
-    in.outflow_flow_m3_s = out_.conduits[outflow].flow_m3_s;
-    in.outflow_diameter_m = hydraulics::rise_m(oc.section);
-    in.outflow_depth_m = inlet.depth_m;
-    in.structure_diameter_m = st.diameter_m.value_or(opt_.default_structure_diameter_m);
-    in.structure_invert_m = st.invert_m.value_or(inlet.invert_m);
-    in.water_level_m = inlet.egl_m;
-    in.benching = opt_.benching;
+    const double structure_invert = st.invert_m.value_or(inlet.invert_m);
+    std::vector<hydraulics::StructureInflow> inflows;
     for (std::size_t ci : topo_.nodes[s].inflows) {
       const auto& c = net_.conduits[ci];
       if (!model::marched(c) || c.to != s) continue;
-      hydraulics::StructureInflow f;
-      f.flow_m3_s = std::isfinite(flow_[ci]) ? flow_[ci] : 0.0;
-      f.diameter_m = hydraulics::rise_m(c.section);
-      f.outlet_invert_m = c.invert_down_m.value_or(in.structure_invert_m);
       const double d = ci < topo_.deflection_deg.size() ? topo_.deflection_deg[ci] : nan;
-      f.deflection_deg = std::isfinite(d) ? d : 0.0;
-      if (c.section.diameter_m > 0.0 || c.section.width_m > 0.0) {
-        const auto full = hydraulics::full_geometry(c.section);
-        f.velocity_m_s = f.flow_m3_s / full.area_m2;
-      }
-      in.inflows.push_back(f);
+      inflows.push_back(structure_inflow(c, flow_[ci], d, structure_invert));
     }
-    std::stable_sort(in.inflows.begin(), in.inflows.end(),
-                     [](const auto& a, const auto& b) { return a.flow_m3_s > b.flow_m3_s; });
-    if (in.outflow_velocity_m_s <= 0.0) return {};
-    try {
-      return hydraulics::structure_loss(opt_.loss_method, in);
-    } catch (const Error& e) {
-      // The chosen method cannot be applied here (e.g. no inflow for HEC-22): fall back to K.
+    const auto in = structure_loss_inputs(net_, opt_, s, outflow, out_.conduits[outflow].flow_m3_s, inlet,
+                                          std::move(inflows));
+    std::string fallback;
+    auto loss = structure_loss_for(opt_, in, &fallback);
+    if (!fallback.empty())
       findings_.push_back({"LOSS_FALLBACK", Severity::info, LayerRole::structures, st.id, "", nan, nan,
                            units::Dimension::dimensionless,
-                               "structure " + st.id + ": the chosen loss method could not be applied (" + e.what() +
+                               "structure " + st.id + ": the chosen loss method could not be applied (" + fallback +
                                    "); the constant K " + q(in.k_constant, units::Dimension::dimensionless) + " was used."});
-      return hydraulics::structure_loss(hydraulics::StructureLossMethod::constant_k, in);
-    }
+    return loss;
   }
 
   void solve_conduit(std::size_t ci) {
@@ -440,6 +396,7 @@ std::vector<BudgetItem> loss_budget(const model::Network& network, const MarchRe
       break;
     }
     const std::size_t ci = r.governing_outflow;
+    if (ci == model::no_index || !result.conduits[ci].solved) return {};
     const auto& cr = result.conduits[ci];
     const std::size_t down = network.conduits[ci].to;
     const auto& pr = cr.profile;

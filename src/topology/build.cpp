@@ -22,6 +22,13 @@ Topology build_topology(model::Network& network, const TopologyOptions& options,
       if (std::find(options.outfall_ids.begin(), options.outfall_ids.end(), s.id) != options.outfall_ids.end())
         s.kind = model::StructureKind::outfall;
   topology.turned_conduits = orient_conduits(network, connection, options, findings);
+  topology.source_upstream.assign(network.conduits.size(), model::no_index);
+  topology.source_from_ids.assign(network.conduits.size(), 0);
+  for (std::size_t i = 0; i < network.conduits.size(); ++i) {
+    topology.source_upstream[i] =
+        connection.ids[i] == IdDirection::last_vertex_upstream ? connection.at_last[i] : connection.at_first[i];
+    topology.source_from_ids[i] = connection.ids[i] != IdDirection::none;
+  }
   report_zero_length(network, options, findings);
   build_march_order(network, topology, findings);
   // A pipe left out for a loop is out for a data problem, which is what usable = false means
@@ -32,6 +39,22 @@ Topology build_topology(model::Network& network, const TopologyOptions& options,
   report_parallels(network, topology, findings);
   compute_structure_geometry(network, topology);
   return topology;
+}
+
+void rebuild_march_order(const model::Network& network, Topology& topology) {
+  const std::vector<MarchStatus> before = topology.status;
+  Topology fresh;
+  Findings scratch;  // what the first build reported stays; nothing new is found by turning pipes
+  build_march_order(network, fresh, scratch);
+  compute_structure_geometry(network, fresh);
+  for (std::size_t i = 0; i < before.size() && i < fresh.status.size(); ++i)
+    if (before[i] == MarchStatus::loop_cut && !network.conduits[i].usable) fresh.status[i] = MarchStatus::loop_cut;
+  topology.nodes = std::move(fresh.nodes);
+  topology.trees = std::move(fresh.trees);
+  topology.deflection_deg = std::move(fresh.deflection_deg);
+  topology.invert_drop_m = std::move(fresh.invert_drop_m);
+  topology.status = std::move(fresh.status);
+  topology.conduit_tree = std::move(fresh.conduit_tree);
 }
 
 }  // namespace rimline::topology

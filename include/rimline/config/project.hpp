@@ -41,8 +41,16 @@
 //               typed ones), [outfalls.tailwater] "OF-1" = "3.2 m" (a level of its own for an outfall)
 //   [ground]    source = "dem.tif" (any GDAL raster), band = 1, unit = "m", offset = "0 m" (added to the
 //               raster's values), fill_rims = true, compare_rims = true, rim_tolerance = "0.5 m"
-//   [flows]     mode = "pipe_field" | "structure_inflows" | "rational" | "sanitary", split = "capacity" | "field",
+//   [flows]     mode = "pipe_field" | "structure_inflows" | "rational" | "sanitary",
+//               split = "hydraulic" (default: the network solve splits diversions and loops by the levels)
+//                       | "capacity" | "field" (pipes.fields.split) | "fixed" ([flows.shares]): a rule at
+//                       every diversion, loops cut, every component marched (the behaviour before the solve),
 //               default_inflow = "5 L/s" (structures without an inflow value)
+//   [flows.shares] "D-05" = 0.3, "D-06" = 0.7   (split = "fixed": each listed pipe's share of the flow
+//               leaving its upstream structure; a diversion's shares are normalised to sum to 1)
+//   [network_solve] components = "non_tree" (default: components with a loop, a diversion or more than one
+//               outlet) | "all" (trees too, to compare with the march), max_iterations = 50 (Newton steps
+//               per piece of a component), design_flow_iterations = 20 (rounds of design flows and solve)
 //   [catchments] source, layer, outlet_search = "30 m" (rational and sanitary modes: polygons, each draining
 //               to one structure; area from the geometry in the run CRS), allow_left_out = false (a
 //               catchment that cannot contribute stops the run unless this is true)
@@ -191,7 +199,14 @@ struct SanitarySettings {
   std::optional<double> infiltration_per_length_m3_s_m;
   std::optional<double> infiltration_per_area_m3_s_m2;
 };
-enum class SplitRule { capacity, field };
+enum class SplitRule { hydraulic, capacity, field, fixed };
+
+// [network_solve]: the steady solve of components that are not simple trees (solve/network_solve.hpp).
+struct NetworkSolveSettings {
+  bool all_components = false;      // also trees (they agree with the march to < 1 mm)
+  int max_iterations = 50;          // Newton steps per piece
+  int design_flow_iterations = 20;  // rounds of design flows (by the solved split) and solve
+};
 enum class TailwaterMode { fixed, free, higher };
 
 // Limits beyond which a source value is treated as a data error rather than used.
@@ -297,7 +312,9 @@ struct Project {
   StructureDefaults structure_defaults;
   std::map<std::string, std::string> structure_type_values;  // source value -> kind name
   FlowMode flow_mode = FlowMode::pipe_field;
-  SplitRule split_rule = SplitRule::capacity;
+  SplitRule split_rule = SplitRule::hydraulic;
+  std::map<std::string, double> split_shares;  // [flows.shares]: pipe id -> share (split = "fixed")
+  NetworkSolveSettings network_solve;
   // Local inflow at every structure that has none (structure_inflows mode): a uniform unit load
   // for exports without design flows. The summary states it.
   std::optional<double> default_inflow_m3_s;

@@ -84,10 +84,10 @@ using TravelTimeFn = std::function<double(std::size_t conduit, double flow_m3_s,
 using FixedFlows = std::map<std::size_t, double>;  // conduit index -> flow [m3/s]
 CatchmentFlows storm_along_tree(const model::Network& network, const topology::Topology& topo,
                                 const std::vector<LocalInflow>& local, const model::IdfCurve& idf,
-                                const TravelTimeFn& travel, Split split, Findings& findings,
+                                const TravelTimeFn& travel, const SplitRule& split, Findings& findings,
                                 const FixedFlows& fixed = {});
 CatchmentFlows sanitary_along_tree(const model::Network& network, const topology::Topology& topo,
-                                   const std::vector<LocalInflow>& local, const SanitaryOptions& options, Split split,
+                                   const std::vector<LocalInflow>& local, const SanitaryOptions& options, const SplitRule& split,
                                    const FixedFlows& fixed = {});
 
 // Local inflows from the catchments (each with its outlet structure set) and the structures' own

@@ -58,6 +58,37 @@ struct Case {
   std::size_t criteria_count = 0;  // criteria findings of this case, drawn or not
 };
 
+// The network solve in one run (solve/network_solve.hpp): which components it took, how the
+// design flows settled with it, and how each tailwater case converged.
+struct NetworkSolveCase {
+  std::string label;
+  int iterations = 0;                     // the most Newton steps any piece took
+  int evaluations = 0;                    // water-surface profiles the solve computed
+  double max_continuity_error_m3_s = 0.0; // over every structure solved
+  double max_level_change_m = 0.0;        // the last Newton step's largest level change
+  bool converged = true;
+  std::size_t flipped = 0;                // pipes flowing the other way than in the first case
+};
+
+struct NetworkSolveSummary {
+  std::string split;              // how diversions were split: "hydraulic", "capacity", "field", "fixed"
+  bool all_components = false;    // [network_solve] components = "all": trees too
+  std::size_t components = 0, structures = 0, conduits = 0, loops = 0, diversions = 0;
+  std::size_t unknowns = 0;       // levels Newton solved (the rest follow from known flows)
+  std::size_t newton_pieces = 0;
+  std::size_t against_source_count = 0;
+  std::size_t fallback_components = 0;  // did not converge: marched with the capacity split instead
+  int design_flow_rounds = 0;     // rounds of design flows by the solved split and solve
+  bool design_flows_converged = true;
+  double design_flow_change_m3_s = 0.0;  // largest change of a pipe's flow in the last round
+  std::vector<NetworkSolveCase> cases;
+  std::vector<char> solved_conduit;  // per conduit: its flow and direction come from the solve
+  // Per structure, the solve's own level in the first tailwater case (NaN where it needed none); the
+  // march of the solved flows reproduces it (to the root solves' tolerance).
+  std::vector<double> level_m;
+  std::vector<char> against_source;  // per conduit: it flows against its from/to ids or digitising
+};
+
 // A file the run read, with the SHA-256 of its bytes ("" when the source is not a file, e.g. a database).
 struct InputFile {
   std::string path;
@@ -97,6 +128,7 @@ struct CheckRun {
   std::vector<solve::StationResult> pump_stations;
   std::vector<double> wet_well_inflow_m3_s;  // design inflow reaching each station's wet well
   int pump_iterations = 0;
+  NetworkSolveSummary network;
   Findings data_findings;  // reading, topology, flows, march problems
   Findings findings;       // every finding of the run: data + the worst criteria finding per feature and code
   std::vector<bool> data_finding;  // aligned with findings: true for those of data_findings

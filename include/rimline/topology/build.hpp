@@ -120,6 +120,11 @@ struct Topology {
   std::vector<std::size_t> conduit_tree;    // tree of each conduit; no_index when not marched
   std::size_t derived_structures = 0;       // structures added by build_topology
   std::size_t turned_conduits = 0;          // REVERSED + TOPOLOGY_REVERSED_GEOMETRY
+  // The structure the source names as each conduit's upstream end: its from id where the ids
+  // decided, else the structure at its first vertex as digitised (no_index: not connected). A
+  // pipe flows against its source when its `from` differs (the network solve reports it).
+  std::vector<std::size_t> source_upstream;
+  std::vector<char> source_from_ids;  // per conduit: source_upstream comes from the from/to ids
 };
 
 // Completes the network in place (from/to indices and ids, orientation, derived structures
@@ -127,5 +132,10 @@ struct Topology {
 // a stage that filters on usable and from/to leaves out exactly what the trees leave out)
 // and returns the topology. Never throws for data problems; they are appended to findings.
 Topology build_topology(model::Network& network, const TopologyOptions& options, Findings& findings);
+
+// After conduits were turned (the network solve orients each pipe the way it flows): nodes, trees,
+// deflections and invert drops again, without findings. Pipes that are still cut from a loop
+// (usable == false, status loop_cut) stay so.
+void rebuild_march_order(const model::Network& network, Topology& topology);
 
 }  // namespace rimline::topology

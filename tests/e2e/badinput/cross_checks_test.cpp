@@ -184,8 +184,18 @@ TEST_CASE("badinput cross-checks: from/to in digitising order, flow direction fr
   p[2] = replace(p[2], R"("SIZE":300)", R"("SIZE":300,"FROM":"M3","TO":"M2")");
   p[3] = replace(p[3], R"("SIZE":300)", R"("SIZE":300,"FROM":"M4","TO":"M1")");
   const std::string ids = with_base(R"(id = "PIPE_ID")", "id = \"PIPE_ID\"\nfrom = \"FROM\"\nto = \"TO\"");
-  c.write_network(p, base_structures(), ids);
-  CHECK(find(c.run(), "ADVERSE_SLOPE", "P2") != nullptr);  // the ids decide: a pipe rising against the flow
+  // With a rule at the diversion M1 (the march), the ids decide: a pipe rising against the flow.
+  c.write_network(p, base_structures(),
+                  replace(ids, R"(mode = "structure_inflows")", "mode = \"structure_inflows\"\nsplit = \"capacity\""));
+  CHECK(find(c.run(), "ADVERSE_SLOPE", "P2") != nullptr);
+  // With the hydraulic split (default) M1 is a diversion for the network solve: the levels decide,
+  // and P2 flows from M2 to M1, against its ids.
+  c.write("project.toml", ids);
+  {
+    const auto solved = c.run();
+    INFO(dump(solved));
+    CHECK(find(solved, "FLOW_AGAINST_SOURCE", "P2") != nullptr);
+  }
   c.write("project.toml", replace(ids, "snap_tolerance = \"0.5 m\"\n", "snap_tolerance = \"0.5 m\"\nflow_direction = \"inverts\"\n"));
   const auto r = c.run();
   INFO(dump(r));

@@ -49,8 +49,9 @@ TEST_CASE("badinput topology: a directed loop is cut and reported, the rest is m
   pipes.push_back(pipe("L1", ox - 100, oy + 50, ox - 100, oy, 300, 2.7, 2.6, R"("FROM":"M5","TO":"M2")"));
   pipes.push_back(pipe("L2", ox - 150, oy + 50, ox - 100, oy + 50, 300, 2.7, 2.7, R"("FROM":"M6","TO":"M5")"));
   pipes.push_back(pipe("L3", ox - 100, oy + 50, ox - 150, oy + 50, 300, 2.7, 2.7, R"("FROM":"M5","TO":"M6")"));
-  c.write_network(pipes, s,
-                  replace(base_project(), R"(id = "PIPE_ID")", "id = \"PIPE_ID\"\nfrom = \"FROM\"\nto = \"TO\""));
+  const std::string ids = replace(base_project(), R"(id = "PIPE_ID")", "id = \"PIPE_ID\"\nfrom = \"FROM\"\nto = \"TO\"");
+  // With a split rule (the method before the network solve) the loop is cut.
+  c.write_network(pipes, s, replace(ids, R"(mode = "structure_inflows")", "mode = \"structure_inflows\"\nsplit = \"capacity\""));
   const auto r = c.run();
   INFO(dump(r));
   const Finding* f = nullptr;
@@ -61,6 +62,22 @@ TEST_CASE("badinput topology: a directed loop is cut and reported, the rest is m
       message(f) ==
       R"(pipe L2 (M6 to M5) closes a loop of 2 pipe(s) that flows back to M5; it is cut (left out of the march) so the march ends)");
   check_solved(r, {"OF", "M1", "M2", "M3", "M4", "M5", "M6"});
+  // By default the network solve takes the component: no cut, every pipe solved the way it flows.
+  c.write_network(pipes, s, ids);
+  const auto h = c.run();
+  INFO(dump(h));
+  CHECK(find(h, "TOPOLOGY_LOOP", "L2") == nullptr);
+  CHECK(find(h, "TOPOLOGY_LOOP", "L3") == nullptr);
+  const Finding* solved = find(h, "NETWORK_SOLVED", "OF");
+  REQUIRE(solved != nullptr);
+  // M5 sends water two ways (a diversion); M6, which only the cut left without an outflow, is an
+  // ordinary manhole to the solve (no outlet, no low point of the data).
+  CHECK_THAT(message(solved), Catch::StartsWith("the network of 7 structures and 7 pipes draining to OF (1 loop, 1 "
+                                                "diversion) was solved"));
+  CHECK(find(h, "NETWORK_LOW_POINT", "M6") == nullptr);
+  CHECK(find(h, "TOPOLOGY_NO_OUTFALL", "M6") == nullptr);
+  for (const char* id : {"L1", "L2", "L3"}) CHECK(h.cases.back().march.conduits[conduit_index(h, id)].solved);
+  check_solved(h, {"OF", "M1", "M2", "M3", "M4", "M5", "M6"});
 }
 
 TEST_CASE("badinput topology: parallel pipes between the same structures are both kept") {
@@ -86,17 +103,23 @@ TEST_CASE("badinput topology: a network whose every pipe is in a ring has no out
   std::vector<std::string> p = {pipe("R1", ox, oy, ox - 50, oy, 300, 2.0, 2.0, R"("FROM":"A","TO":"B")"),
                                 pipe("R2", ox - 50, oy, ox - 50, oy + 50, 300, 2.0, 2.0, R"("FROM":"B","TO":"C")"),
                                 pipe("R3", ox - 50, oy + 50, ox, oy, 300, 2.0, 2.0, R"("FROM":"C","TO":"A")")};
-  c.write_network(p, s, replace(base_project(), R"(id = "PIPE_ID")", "id = \"PIPE_ID\"\nfrom = \"FROM\"\nto = \"TO\""));
-  const auto r = c.run();
-  INFO(dump(r));
-  CHECK(find(r, "TOPOLOGY_LOOP", "R3") != nullptr);
-  // Nothing is typed an outfall: the end the loop cut leaves is an assumed outfall, said so and counted.
-  const Finding* f = find(r, "OUTFALL_ASSUMED", "C");
-  REQUIRE(f != nullptr);
-  CHECK(
-      message(f) ==
-      R"(no structure is typed or named an outfall, so structure C is taken as one because no marched pipe leaves it; its tree is marched from its tailwater. Name the real outfalls ([structures.types] outfall, or [outfalls] ids) so that a loop cut or a missing pipe does not pass for an outfall)");
-  CHECK(topology::summarize(r.read.network, r.topology).outfalls_assumed == 1);
+  const std::string ids = replace(base_project(), R"(id = "PIPE_ID")", "id = \"PIPE_ID\"\nfrom = \"FROM\"\nto = \"TO\"");
+  for (const bool capacity : {true, false}) {
+    c.write_network(p, s, capacity ? replace(ids, R"(mode = "structure_inflows")", "mode = \"structure_inflows\"\nsplit = \"capacity\"") : ids);
+    const auto r = c.run();
+    INFO(dump(r));
+    // The cut makes C the end of the march; the network solve keeps C as the outlet it has only,
+    // and R3 flows from A to C, against its ids.
+    CHECK((find(r, "TOPOLOGY_LOOP", "R3") != nullptr) == capacity);
+    CHECK((find(r, "FLOW_AGAINST_SOURCE", "R3") != nullptr) == !capacity);
+    // Nothing is typed an outfall: the end the loop cut leaves is an assumed outfall, said so and counted.
+    const Finding* f = find(r, "OUTFALL_ASSUMED", "C");
+    REQUIRE(f != nullptr);
+    CHECK(
+        message(f) ==
+        R"(no structure is typed or named an outfall, so structure C is taken as one because no marched pipe leaves it; its tree is marched from its tailwater. Name the real outfalls ([structures.types] outfall, or [outfalls] ids) so that a loop cut or a missing pipe does not pass for an outfall)");
+    CHECK(topology::summarize(r.read.network, r.topology).outfalls_assumed == 1);
+  }
 }
 
 TEST_CASE("badinput topology: inverts rising along the flow are ADVERSE_SLOPE, still marched") {
