@@ -269,15 +269,18 @@ void read_catchments(const Project& project, PolygonLayer catchments, const Poly
     OGRFeatureUniquePtr feature(layer.GetNextFeature());
     if (!feature) break;
     model::Catchment& k = out.emplace_back();
+    const std::size_t first_finding = findings.size();
     const bool kept = reader.read(*feature, polygons, k);
     gdal.take(capture, k.id);
+    stamp_fid(findings, first_finding, feature->GetFID());
     if (!kept) out.pop_back();
   }
   gdal.finish(capture);
   std::vector<IdRef> ids;
   for (const auto& k : out) ids.push_back({k.id, k.fid});
   report_duplicate_ids(ids, LayerRole::catchments, project.catchments.fields.id, "catchments",
-                       "so findings that name it are ambiguous", findings);
+                       "so findings that name it are ambiguous", findings,
+                       [&](std::int64_t fid) { return raw_text_by_fid(layer, project.catchments.fields.id, fid); });
 }
 
 void read_catchment_layers(const Project& project, const RunCrs& crs, ReadResult& result) {
@@ -285,7 +288,7 @@ void read_catchment_layers(const Project& project, const RunCrs& crs, ReadResult
   // run whose flows come from elsewhere.
   const bool used = project.flow_mode == FlowMode::rational || project.flow_mode == FlowMode::sanitary;
   if (project.catchments.source.source.empty() || !used) return;
-  auto add_files = [&result](const OpenLayer& l) { add_input_files(result.input_files, l.files); };
+  auto add_files = [&result](const OpenLayer& l) { add_input_files(result.input_files, result.read_hashes, l); };
   OpenLayer k = open_layer(project.catchments.source, "catchments");
   require_geometry_and_features(k, "catchments");
   const TransformPtr k_to_run = transform_into_run(k, crs, project.crs_override);

@@ -282,15 +282,18 @@ void read_pipes(LayerRead& in, std::vector<model::Conduit>& out) {
     OGRFeatureUniquePtr feature(layer.GetNextFeature());
     if (!feature) break;
     model::Conduit& c = out.emplace_back();
+    const std::size_t first_finding = in.findings.size();
     reader.read(*feature, c);
     gdal.take(capture, c.id);
+    stamp_fid(in.findings, first_finding, feature->GetFID());
   }
   gdal.finish(capture);
   std::vector<IdRef> ids;
   ids.reserve(out.size() - first);
   for (std::size_t i = first; i < out.size(); ++i) ids.push_back({out[i].id, out[i].fid});
   report_duplicate_ids(ids, LayerRole::conduits, in.project.pipe_fields.id, "pipes",
-                       "so results under this id are ambiguous", in.findings);
+                       "so results under this id are ambiguous", in.findings,
+                       [&](std::int64_t fid) { return raw_text_by_fid(layer, in.project.pipe_fields.id, fid); });
 }
 
 }  // namespace rimline::gis::detail

@@ -228,8 +228,10 @@ void read_structures(LayerRead& in, std::vector<model::Structure>& out) {
     OGRFeatureUniquePtr feature(layer.GetNextFeature());
     if (!feature) break;
     model::Structure& s = out.emplace_back();
+    const std::size_t first_finding = in.findings.size();
     const bool kept = reader.read(*feature, s);
     gdal.take(capture, s.id);
+    stamp_fid(in.findings, first_finding, feature->GetFID());
     if (!kept) out.pop_back();
   }
   gdal.finish(capture);
@@ -237,7 +239,8 @@ void read_structures(LayerRead& in, std::vector<model::Structure>& out) {
   ids.reserve(out.size() - first);
   for (std::size_t i = first; i < out.size(); ++i) ids.push_back({out[i].id, out[i].fid});
   report_duplicate_ids(ids, LayerRole::structures, in.project.structure_fields.id, "structures",
-                       "so pipes that name this id are ambiguous", in.findings);
+                       "so pipes that name this id are ambiguous", in.findings,
+                       [&](std::int64_t fid) { return raw_text_by_fid(layer, in.project.structure_fields.id, fid); });
 }
 
 }  // namespace rimline::gis::detail

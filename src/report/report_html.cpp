@@ -290,7 +290,8 @@ std::string profiles_section(const std::vector<RenderedProfile>& profiles, bool 
 }  // namespace
 
 void write_report_html(std::ostream& out, const run::CheckRun& run, const std::vector<RenderedProfile>& profiles,
-                       const std::string& date, bool pdf_written, const std::string& selection) {
+                       const std::string& date, bool pdf_written, const std::string& selection,
+                       const Findings* output_findings) {
   std::vector<const Finding*> criteria, data;
   if (run.data_finding.size() == run.findings.size()) {
     for (std::size_t k = 0; k < run.findings.size(); ++k) (run.data_finding[k] ? data : criteria).push_back(&run.findings[k]);
@@ -299,6 +300,8 @@ void write_report_html(std::ostream& out, const run::CheckRun& run, const std::v
     for (const auto& f : run.data_findings) data_keys.insert(finding_key(f));
     for (const auto& f : run.findings) (data_keys.count(finding_key(f)) ? data : criteria).push_back(&f);
   }
+  if (output_findings)
+    for (const auto& f : *output_findings) data.push_back(&f);
 
   // Written a section at a time: the page of a city's run is ~22 MB, and built as one string it
   // held ~0.1 GB at once (its growth and the sections appended to it).
