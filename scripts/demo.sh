@@ -19,4 +19,10 @@ for variant in metric us; do
   "$here/build/rimline" check "$here/data/demo/$variant/project-rational.toml" --out "$out/rational-$variant" || status=$?
   [ "$status" -le 1 ] || exit "$status"
 done
-echo "outputs: $out/{metric,us,rational-metric,rational-us} (exceptions.csv, results.gpkg, summary.json)" >&2
+# The metric network with an invented ground model (data/demo/metric/ground.tif): the rim B-05 lacks
+# comes from the ground, and every recorded rim is compared with it.
+echo "== demo, rims against a ground model (metric) -> $out/ground-metric" >&2
+status=0
+"$here/build/rimline" check "$here/data/demo/metric/project-ground.toml" --out "$out/ground-metric" || status=$?
+[ "$status" -le 1 ] || exit "$status"
+echo "outputs: $out/{metric,us,rational-metric,rational-us,ground-metric} (exceptions.csv, results.gpkg, summary.json)" >&2

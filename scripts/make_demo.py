@@ -365,6 +365,8 @@ def main():
         with open(os.path.join(d, "project-rational.toml"), "w") as f:
             f.write(with_pump_station(rational_project(text, units), units))
     print(f"{len(nodes)} structures, {len(pipes)} pipes written to {os.path.normpath(OUT)}")
+    import make_ground  # the invented ground model and project-ground.toml (scripts/make_ground.py)
+    make_ground.main()
 
 if __name__ == "__main__":
     main()

@@ -36,8 +36,14 @@ struct Finding {
 using Findings = std::vector<Finding>;
 
 // Messages carry quantities as tokens so each report renders them in its own unit system:
-// q(2.5, length) -> "{{2.5|L}}", rendered "2.500 m" (SI) or "8.202 ft" (US).
+// q(2.5, length) -> "{{2.5|L}}", rendered "2.500 m" (SI) or "8.20 ft" (US).
 std::string q(double si_value, units::Dimension d);
+// A distance along a pipe or the network (pipe lengths, surcharged lengths): "72.0 m" / "236 ft".
+std::string q_distance(double si_m);
+// A station along a profile in the trade's notation, without a unit: "0+450.0" / "14+76.38".
+std::string q_station(double si_m);
+// A wall roughness ks (an equivalent sand grain), three significant figures: "1.5 mm" / "0.0591 in".
+std::string q_roughness(double si_m);
 std::string render_message(const std::string& message, units::System system);
 
 // The findings from index `from` on are about the feature `fid` of its source layer (where ids
@@ -45,6 +51,22 @@ std::string render_message(const std::string& message, units::System system);
 inline void stamp_fid(Findings& findings, std::size_t from, std::int64_t fid) {
   for (std::size_t k = from; k < findings.size(); ++k) findings[k].fid = fid;
 }
+// What the data supports, as shown to people (messages, the report, exceptions.csv; results.gpkg
+// keeps the computed values): levels, depths and heads to the millimetre or 0.01 ft; velocities to
+// 0.01 m/s or ft/s; flows (and infiltration allowances) to three significant figures; areas to
+// 0.01 ha or acre; times to 0.1 min; intensities 0.1 mm/h or 0.01 in/h; slopes to 0.0001;
+// temperatures to 0.1 degree; pure numbers to 0.01. `display_value` is the value in the display
+// unit (only flows look at it).
+int display_decimals(units::Dimension d, units::System s, double display_value);
+// The number in the system's display unit, rounded as above (no unit).
+std::string display_number(double si_value, units::Dimension d, units::System s);
+// Distances: 0.1 m or 1 ft (a pipe length is measured on the plan to about that).
+std::string distance_number(double si_m, units::System s);
+// Stations: metric km + metres to 0.1 m ("1+312.3"), US 100-ft stations to 0.01 ft ("13+12.34"),
+// as the trade writes chainage and stationing.
+std::string station_text(double si_m, units::System s);
+// The notation for a value already in the display unit (m or ft) with the given decimals.
+std::string station_notation(double display_value, units::System s, int decimals);
 
 // Stable order for outputs: by severity (worst first), code, layer, feature id.
 void sort_findings(Findings& findings);

@@ -54,6 +54,14 @@ Dimension dimension_of(Unit u);
 // "gpm", "m/s", "ft/s", "ha", "acre", "%", "C", "F", "kPa", "psi", "bar", "m_head", "ft_head" ... Returns nullopt for an unknown spelling.
 std::optional<Unit> parse_unit(std::string_view text);
 std::string_view unit_symbol(Unit u);
+// The symbols of every unit of a dimension, in table order ("m, mm, cm, ft, us_ft, in" for lengths),
+// for messages that list the accepted units.
+std::string unit_symbols(Dimension d);
+
+// The unit a field's name states in its last word ("US_INV_FT" -> ft, "DIA_IN" -> in, "Q_LPS" -> L/s,
+// "depthM" -> m), as exports write it; nullopt when the name states none. Names are split at every
+// character that is not a letter or digit and where a lower-case letter meets an upper-case one.
+std::optional<Unit> unit_named_in(std::string_view field_name);
 
 // value [u] -> SI (m, m^3/s, m/s, m^2, 1, degC)
 double to_si(double value, Unit u);

@@ -81,6 +81,13 @@ std::string lower(std::string_view s) {
 Dimension dimension_of(Unit u) { return row_of(u).dimension; }
 std::string_view unit_symbol(Unit u) { return row_of(u).symbol; }
 
+std::string unit_symbols(Dimension d) {
+  std::string out;
+  for (const Row& r : rows)
+    if (r.dimension == d && r.unit != Unit::one) out += (out.empty() ? "" : ", ") + std::string(r.symbol);
+  return out;
+}
+
 std::optional<Unit> parse_unit(std::string_view text) {
   static const std::array<std::pair<std::string_view, Unit>, 70> spellings{{
       {"m", Unit::m},          {"metre", Unit::m},       {"meter", Unit::m},     {"metres", Unit::m},

@@ -29,6 +29,16 @@ std::string fmt(double v, int decimals = 2) {
 }
 
 
+// The basis, in words, before the velocity.
+std::string velocity_low_text(const SelfCleansingVelocity& v, double flow_m3_s) {
+  const std::string flow = q(flow_m3_s, units::Dimension::flow);
+  if (v.basis == "normal_depth") return "at normal depth the design flow " + flow + " moves at";
+  if (v.basis == "full_flow") return "flowing full at its slope (the self-cleansing basis chosen) it moves at";
+  if (v.basis == "full_at_design_flow")
+    return "the design flow " + flow + " exceeds the largest partly-full discharge, so it runs full at";
+  return "with no normal depth on its flat or adverse slope, the velocity of the march falls to";
+}
+
 void check_structure(const model::Structure& s, const solve::StructureResult& r, double freeboard_m, Findings& out) {
   if (!r.solved) return;
   if (!s.rim_m) {
@@ -56,37 +66,27 @@ void check_conduit(const model::Network& net, std::size_t ci, const solve::Condu
   if (!r.solved) return;
   const auto& prof = r.profile;
   const double rise = hydraulics::rise_m(p.section);
-  const double crown_excess = std::max(prof.outlet().hgl_m - (r.invert_down_m + rise),
-                                       prof.inlet().hgl_m - (r.invert_up_m + rise));
-  if (prof.surcharged_length_m > 0.0 || crown_excess > 1e-6) {
+  const auto [surcharged, crown_excess] = surcharge_of(p, r);
+  if (surcharged) {
     out.push_back({"SURCHARGED", Severity::warning, LayerRole::conduits, p.id, "", std::max(crown_excess, 0.0), 0.0,
                    units::Dimension::length,
-                   "pipe " + p.id + " runs surcharged over " + q(prof.surcharged_length_m, L) + " of its " +
-                       q(p.length_m, L) + "; the HGL stands up to " + q(std::max(crown_excess, 0.0), L) +
+                   "pipe " + p.id + " runs surcharged over " + q_distance(prof.surcharged_length_m) + " of its " +
+                       q_distance(p.length_m) + "; the HGL stands up to " + q(std::max(crown_excess, 0.0), L) +
                        " above the crown."});
   }
   if (r.flow_m3_s <= 0.0) return;
-  double v_low = 0.0;
-  std::string basis;
-  if (c.velocity_basis == VelocityBasis::full_flow && std::isfinite(r.capacity_m3_s)) {
-    v_low = r.capacity_m3_s / hydraulics::full_geometry(p.section).area_m2;
-    basis = "flowing full";
-  } else {
-    v_low = std::min(prof.outlet().velocity_m_s, prof.inlet().velocity_m_s);
-    basis = "at the design flow";
+  const auto low = self_cleansing_velocity(p, r, c.velocity_basis);
+  if (low.velocity_m_s < c.velocity_min_m_s) {
+    out.push_back({"VELOCITY_LOW", Severity::warning, LayerRole::conduits, p.id, "", low.velocity_m_s,
+                   c.velocity_min_m_s, units::Dimension::velocity,
+                   "pipe " + p.id + ": " + velocity_low_text(low, r.flow_m3_s) + " " + q(low.velocity_m_s, V) +
+                       ", below the minimum " + q(c.velocity_min_m_s, V) + " (sediment may settle)."});
   }
-  if (v_low < c.velocity_min_m_s) {
-    out.push_back({"VELOCITY_LOW", Severity::warning, LayerRole::conduits, p.id, "", v_low, c.velocity_min_m_s,
-                   units::Dimension::velocity,
-                   "pipe " + p.id + ": the velocity " + basis + " falls to " + q(v_low, V) + ", below the minimum " +
-                       q(c.velocity_min_m_s, V) + " (sediment may settle)."});
-  }
-  double v_high = 0.0;
-  for (const auto& pt : prof.points) v_high = std::max(v_high, pt.velocity_m_s);
+  const double v_high = highest_velocity_m_s(r);
   if (c.velocity_max_m_s && v_high > *c.velocity_max_m_s) {
     out.push_back({"VELOCITY_HIGH", Severity::warning, LayerRole::conduits, p.id, "", v_high, *c.velocity_max_m_s,
                    units::Dimension::velocity,
-                   "pipe " + p.id + ": the velocity reaches " + q(v_high, V) + ", above the maximum " +
+                   "pipe " + p.id + ": the highest velocity along it reaches " + q(v_high, V) + ", above the maximum " +
                        q(*c.velocity_max_m_s, V) + " (scour; erosion protection may be needed)."});
   }
   if (std::isfinite(r.capacity_m3_s) && r.capacity_m3_s > 0.0) {
@@ -168,6 +168,49 @@ Findings run_checks(const model::Network& network, const solve::MarchResult& res
   return out;
 }
 
+SelfCleansingVelocity self_cleansing_velocity(const model::Conduit& conduit, const solve::ConduitResult& r,
+                                              VelocityBasis basis) {
+  SelfCleansingVelocity out;
+  if (!r.solved) return out;
+  const double q = std::max(0.0, r.flow_m3_s);
+  const double full_area = hydraulics::full_geometry(conduit.section).area_m2;
+  if (basis == VelocityBasis::full_flow && std::isfinite(r.capacity_m3_s)) {
+    out.velocity_m_s = r.capacity_m3_s / full_area;
+    out.basis = "full_flow";
+  } else if (basis == VelocityBasis::normal_depth && r.slope > 0.0) {
+    // The march found the normal depth of this flow at this slope (NaN: above the partly-full peak).
+    const double yn = r.profile.normal_depth_m;
+    if (std::isfinite(yn) && yn > 0.0) {
+      out.velocity_m_s = q / hydraulics::geometry_at(conduit.section, yn).area_m2;
+      out.basis = "normal_depth";
+    } else {
+      out.velocity_m_s = q / full_area;
+      out.basis = "full_at_design_flow";
+    }
+  } else {
+    out.velocity_m_s = std::min(r.profile.outlet().velocity_m_s, r.profile.inlet().velocity_m_s);
+    out.basis = "marched";
+  }
+  return out;
+}
+
+Surcharge surcharge_of(const model::Conduit& conduit, const solve::ConduitResult& r) {
+  Surcharge s;
+  if (!r.solved) return s;
+  const double rise = hydraulics::rise_m(conduit.section);
+  s.crown_excess_m = std::max(r.profile.outlet().hgl_m - (r.invert_down_m + rise), r.profile.inlet().hgl_m - (r.invert_up_m + rise));
+  s.surcharged = r.profile.surcharged_length_m > 0.0 || s.crown_excess_m > 1e-6;
+  return s;
+}
+
+double highest_velocity_m_s(const solve::ConduitResult& r) {
+  double v = 0.0;
+  for (const auto& pt : r.profile.points) v = std::max(v, pt.velocity_m_s);
+  return v;
+}
+
+std::string_view velocity_basis_name(VelocityBasis b) { return b == VelocityBasis::full_flow ? "full_flow" : "normal_depth"; }
+
 Criteria criteria_for(const Criteria& run, const std::map<std::string, Override>& overrides, const std::string& id) {
   const auto it = overrides.find(id);
   if (it == overrides.end()) return run;
@@ -178,6 +221,7 @@ Criteria criteria_for(const Criteria& run, const std::map<std::string, Override>
   if (o.velocity_max_m_s) c.velocity_max_m_s = o.velocity_max_m_s;
   if (o.capacity_ratio_max) c.capacity_ratio_max = *o.capacity_ratio_max;
   if (o.cover_min_m) c.cover_min_m = o.cover_min_m;
+  if (o.velocity_basis) c.velocity_basis = *o.velocity_basis;
   return c;
 }
 

@@ -37,8 +37,10 @@ Severity parse_severity(const std::string& s) {
 void print_summary(const run::CheckRun& run, std::ostream& os) {
   const auto s = topology::summarize(run.read.network, run.topology);
   os << "network: " << s.structures << " structures, " << s.conduits << " conduits (" << s.usable_conduits
-     << " usable), " << s.outfalls << " outfalls, " << s.trees << " trees, " << s.diversions << " diversions, "
-     << render_message(q(s.total_length_m, units::Dimension::length), run.report_units) << " of pipe\n";
+     << " usable), " << s.outfalls << " outfalls"
+     << (s.outfalls_assumed ? " (" + std::to_string(s.outfalls_assumed) + " assumed: nothing names them)" : "")
+     << ", " << s.trees << " trees, " << s.diversions << " diversions, "
+     << render_message(q_distance(s.total_length_m), run.report_units) << " of pipe\n";
   if (!run.read.network.crs_note.empty()) os << "crs: " << run.read.network.crs_note << "\n";
 }
 
@@ -92,6 +94,7 @@ int run_check_command(const CheckArgs& a, const GlobalOptions& g) {
     for (const auto* src : {&project.pipes, &project.structures, &project.force_main_layer, &project.catchments.source,
                             &project.catchments.land_use, &project.pump_station_points})
       if (!src->source.empty()) named.push_back(src->source);
+    if (!project.ground.source.empty()) named.push_back(project.ground.source);
     report::check_output_folder(a.out, named);
   }
 
@@ -134,6 +137,12 @@ int run_check_command(const CheckArgs& a, const GlobalOptions& g) {
                 << (a.no_drawings ? "" : ", profiles.pdf, profiles/, report.html") << "\n"
                 << report::caution << "\n";
   }
+  if (!a.dry_run && run::checked_nothing(result)) {
+    // Loud, and on stderr even with --quiet: an empty exception list from such a run means nothing.
+    std::cerr << "rimline: THIS RUN CHECKED NOTHING: no pipe could be solved (see NOTHING_CHECKED); exit "
+              << exit_nothing_checked << "\n";
+    return exit_nothing_checked;
+  }
   for (const auto& f : result.findings)
     if (f.severity >= fail_on) return exit_findings;
   return exit_ok;
@@ -153,7 +162,8 @@ std::function<int()> setup_check(CLI::App& app, const GlobalOptions& global) {
   app.add_option("--profile-from", a->profile_from, "Draw the profile from this structure down to its outfall");
   app.add_option("--profile-trunks", a->profile_trunks, "Draw every trunk of pipes at least this size, e.g. \"900 mm\"");
   app.add_flag("--no-drawings", a->no_drawings, "Write the exception list, layers and summary only");
-  app.footer("Example:\n  rimline check data/demo/metric/project.toml --out out/demo\n"
+  app.footer("Every key of the project file (unit, default, example, the findings it can raise): docs/project-file.md\n"
+             "Exit 5 when the run checked nothing (no pipe could be solved).\n\nExample:\n  rimline check data/demo/metric/project.toml --out out/demo\n"
              "  rimline check project.toml --tailwater \"12.4 m\" --tailwater \"13.1 m\" --out out/sweep\n"
              "  rimline check project.toml --out out/b8 --profile-from B-08");
   return [a, &global] { return run_check_command(*a, global); };

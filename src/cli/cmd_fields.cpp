@@ -34,13 +34,25 @@ void print_layer(const mapping::LayerSummary& l, std::ostream& os) {
     }
     os << "\n";
   }
-  const auto proposal = mapping::propose_mapping(l);
-  if (!proposal.fields.empty()) {
-    os << "  proposed mapping (" << (proposal.kind == mapping::LayerKind::pipes ? "pipes" : "structures") << "):\n";
-    for (const auto& p : proposal.fields)
-      os << "    " << std::setw(12) << p.role << " = " << p.field
-         << (p.unit ? " [" + std::string(units::unit_symbol(*p.unit)) + "]" : "") << "  (" << p.reason << ")\n";
-  }
+}
+
+void print_proposal(const char* what, const mapping::MappingProposal& m, std::ostream& os) {
+  if (m.fields.empty()) return;
+  os << "proposed mapping (" << what << "), inferred from the data, names second:\n";
+  for (const auto& p : m.fields)
+    os << "  " << std::left << std::setw(22) << p.role << " = " << p.field
+       << (p.unit ? " [" + std::string(units::unit_symbol(*p.unit)) + "]" : "") << "  (" << mapping::confidence_word(p.confidence)
+       << ": " << p.reason << ")\n";
+  auto values = [&os](const char* title, const std::vector<mapping::CodeValue>& vs) {
+    if (vs.empty()) return;
+    os << "  " << title << ":";
+    for (const auto& v : vs) os << " '" << v.value << "'" << (v.meaning.empty() ? "" : "=" + v.meaning);
+    os << "\n";
+  };
+  values("shape values", m.shape_values);
+  values("type values", m.type_values);
+  values("pressure-main values", m.force_main_values);
+  for (const auto& n : m.notes) os << "  note: " << n << "\n";
 }
 
 const mapping::LayerSummary* first_of(const mapping::SourceSummary& s, bool lines) {
@@ -53,6 +65,9 @@ int run_fields(const FieldsArgs& a, const GlobalOptions& g) {
   const auto pipes = mapping::inspect_source(a.source);
   std::optional<mapping::SourceSummary> structures;
   if (!a.structures.empty()) structures = mapping::inspect_source(a.structures);
+  const mapping::LayerSummary* pipe_layer = first_of(pipes, true);
+  const mapping::LayerSummary* structure_layer =
+      structures ? first_of(*structures, false) : first_of(pipes, false);
   if (!g.quiet) {
     std::cout << pipes.source << " (" << pipes.driver << ")\n";
     for (const auto& l : pipes.layers) print_layer(l, std::cout);
@@ -60,6 +75,9 @@ int run_fields(const FieldsArgs& a, const GlobalOptions& g) {
       std::cout << structures->source << " (" << structures->driver << ")\n";
       for (const auto& l : structures->layers) print_layer(l, std::cout);
     }
+    const auto proposal = mapping::propose_network(pipe_layer, structure_layer);
+    print_proposal("pipes", proposal.pipes, std::cout);
+    print_proposal("structures", proposal.structures, std::cout);
   }
   if (a.write_project.empty()) return exit_ok;
   namespace fs = std::filesystem;
@@ -69,10 +87,9 @@ int run_fields(const FieldsArgs& a, const GlobalOptions& g) {
     const auto rel = fs::relative(fs::absolute(src), project_dir, ec);
     return ec || rel.empty() ? src : rel.string();
   };
-  mapping::StarterLayer sp{relative(a.source), first_of(pipes, true)};
+  mapping::StarterLayer sp{relative(a.source), pipe_layer};
   mapping::StarterLayer ss;
-  if (structures) ss = {relative(a.structures), first_of(*structures, false)};
-  else if (const auto* pts = first_of(pipes, false)) ss = {relative(a.source), pts};
+  if (structure_layer) ss = {relative(structures ? a.structures : a.source), structure_layer};
   if (!sp.layer) throw Error(ErrorKind::bad_input, ErrorContext{a.source, "", "", ""}, "holds no line layer for pipes");
   if (fs::exists(a.write_project))
     throw Error(ErrorKind::bad_config, ErrorContext{a.write_project, "", "", ""},
@@ -105,7 +122,8 @@ std::function<int()> setup_fields(CLI::App& app, const GlobalOptions& global) {
       ->required();
   app.add_option("--structures", a->structures, "A second source holding the structure points");
   app.add_option("--write-project", a->write_project, "Write a starter project file (TOML) to edit");
-  app.footer("Example:\n  rimline fields data/demo/metric/pipes.geojson --structures data/demo/metric/structures.geojson\n"
+  app.footer("Every role is inferred from the data first and the field names second; the starter project says\n"
+             "what each line was inferred from. Reference of every project key: docs/project-file.md\n\nExample:\n  rimline fields data/demo/metric/pipes.geojson --structures data/demo/metric/structures.geojson\n"
              "  rimline fields export.gpkg --write-project project.toml");
   return [a, &global] { return run_fields(*a, global); };
 }

@@ -11,7 +11,8 @@ enum Exit : int {
   exit_findings = 1,      // findings at or above --fail-on
   exit_usage = 2,         // bad command line or project file
   exit_input = 3,         // an input cannot be read
-  exit_internal = 4       // a rimline defect
+  exit_internal = 4,      // a rimline defect
+  exit_nothing_checked = 5  // the run solved no pipe: nothing was checked (NOTHING_CHECKED)
 };
 
 struct GlobalOptions {

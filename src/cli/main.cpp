@@ -43,7 +43,9 @@ int main(int argc, char** argv) {
   rimline::cli::watch_stop_signals();  // before any thread: they inherit the blocked signals
   CLI::App app{"rimline: hydraulic and energy grade lines through storm and sanitary networks, from GIS exports "
                "to a freeboard exception list.\nResults are for review by a licensed engineer; local codes and the "
-               "approving authority govern."};
+               "approving authority govern.\nThe project file, key by key: docs/project-file.md. Exit codes: 0 ok, 1 findings at or "
+               "above --fail-on, 2 bad command line or project file, 3 unreadable input, 4 internal error, 5 the run "
+               "checked nothing."};
   app.set_version_flag("--version", std::string("rimline ") + rimline::version_string);
   rimline::cli::GlobalOptions global;
   app.add_flag("-q,--quiet", global.quiet, "Print nothing but errors");

@@ -3,14 +3,17 @@
 
 #include <algorithm>
 #include <cctype>
+#include <cmath>
 #include <filesystem>
 #include <fstream>
 #include <functional>
 #include <sstream>
+#include <tuple>
 
 #include "config/project_catchments.hpp"
 #include "config/project_force_mains.hpp"
 #include "config/toml_guard.hpp"
+#include "config/toml_plain.hpp"
 #include "config/toml_section.hpp"
 #include "rimline/error.hpp"
 #include "rimline/file_kind.hpp"
@@ -117,6 +120,9 @@ void read_pipes(TomlSection s, Project& p) {
   }
   p.shape_from_height = s.boolean("shape_from_height").value_or(false);
   p.force_main_values = s.strings("force_main_values");
+  p.flow_direction = s.choice<FlowDirection>("flow_direction", {{"from_to", FlowDirection::from_to},
+                                                                {"inverts", FlowDirection::inverts}})
+                         .value_or(FlowDirection::from_to);
 
   TomlSection f = s.table("fields");
   PipeFields& pf = p.pipe_fields;
@@ -135,6 +141,8 @@ void read_pipes(TomlSection s, Project& p) {
                           {"ks", &pf.ks},
                           {"invert_up", &pf.invert_up},
                           {"invert_down", &pf.invert_down},
+                          {"invert_up_fallback", &pf.invert_up_fallback},
+                          {"invert_down_fallback", &pf.invert_down_fallback},
                           {"length", &pf.length}})
     *dst = f.field_ref(key, Dimension::length);
   pf.flow = f.field_ref("flow", Dimension::flow);
@@ -145,6 +153,13 @@ void read_pipes(TomlSection s, Project& p) {
   if (p.shape_from_height && !pf.height.mapped()) s.fail("shape_from_height", "needs pipes.fields.height to be mapped");
   if (!p.force_main_values.empty() && pf.force_main.empty())
     s.fail("force_main_values", "needs pipes.fields.force_main to be mapped");
+  for (auto [key, fallback, main] : {std::tuple<std::string_view, const FieldRef*, const FieldRef*>{
+                                         "invert_up_fallback", &pf.invert_up_fallback, &pf.invert_up},
+                                     {"invert_down_fallback", &pf.invert_down_fallback, &pf.invert_down}})
+    if (fallback->mapped() && !main->mapped())
+      f.fail(key, "needs pipes.fields." + std::string(key.substr(0, key.find("_fallback"))) + " to be mapped first");
+  if (p.flow_direction == FlowDirection::inverts && (pf.from.empty() || pf.to.empty()))
+    s.fail("flow_direction", "\"inverts\" needs pipes.fields.from and pipes.fields.to (without them the inverts decide anyway)");
 
   TomlSection d = s.table("defaults");
   PipeDefaults& pd = p.pipe_defaults;
@@ -202,6 +217,44 @@ void read_structures(TomlSection s, Project& p) {
   s.finish();
 }
 
+void read_outfalls(TomlSection s, Project& p) {
+  OutfallSettings& o = p.outfalls;
+  o.ids = s.strings("ids");
+  o.field = s.string("field").value_or("");
+  o.values = s.strings("values");
+  if (!o.field.empty() && o.values.empty()) s.fail("values", "outfalls.field needs the values that mark an outfall");
+  if (o.field.empty() && !o.values.empty()) s.fail("field", "outfalls.values needs the structures field they are values of");
+  if (!o.field.empty() && p.structures.source.empty())
+    s.fail("field", "needs a [structures] layer (a pipes-only export names its outfalls with outfalls.ids)");
+  for (const auto& [id, level] : quantity_table(s.table("tailwater"), Dimension::length, p.file)) o.tailwater_m[id] = level;
+  s.finish();
+}
+
+void read_ground(TomlSection s, Project& p) {
+  if (!s.present()) return;
+  GroundSettings& g = p.ground;
+  const auto source = s.string("source");
+  if (!source || source->empty()) s.fail("source", "the ground raster (a file GDAL reads, e.g. a GeoTIFF) is missing");
+  g.source = resolve_source(*source, p.directory);
+  const double band = s.number("band").value_or(1.0);
+  if (!(band >= 1.0 && band <= 1000.0) || band != std::floor(band)) s.fail("band", "must be a whole number from 1");
+  g.band = static_cast<int>(band);
+  const auto unit_text = s.string("unit");
+  if (!unit_text) s.fail("unit", "the raster's vertical unit is missing (\"m\", \"ft\", \"us_ft\", ...): rimline does not guess it");
+  const auto unit = units::parse_unit(*unit_text);
+  if (!unit || units::dimension_of(*unit) != Dimension::length)
+    s.fail("unit", "unknown unit of length \"" + *unit_text + "\"; accepted: " + units::unit_symbols(Dimension::length));
+  g.metres_per_unit = units::to_si(1.0, *unit);
+  g.offset_m = s.quantity("offset", Dimension::length).value_or(0.0);
+  g.fill_rims = s.boolean("fill_rims").value_or(true);
+  g.compare_rims = s.boolean("compare_rims").value_or(true);
+  if (const auto t = s.quantity("rim_tolerance", Dimension::length)) {
+    if (!(*t > 0.0)) s.fail("rim_tolerance", "must be greater than 0");
+    g.rim_tolerance_m = *t;
+  }
+  s.finish();
+}
+
 void read_methods(TomlSection s, Project& p) {
   Methods& m = p.methods;
   using hydraulics::FrictionLaw;
@@ -220,6 +273,29 @@ void read_methods(TomlSection s, Project& p) {
   if (const auto t = s.quantity("water_temperature", Dimension::temperature)) {
     if (*t < 0.0 || *t > 100.0) s.fail("water_temperature", "must be between 0 and 100 C (liquid water)");
     m.water_temperature_c = *t;
+  }
+  auto energy_choice = [](TomlSection& t) {
+    return t.choice<hydraulics::StructureEnergy>("structure_energy",
+                                                {{"whole_loss", hydraulics::StructureEnergy::whole_loss},
+                                                 {"still_pool", hydraulics::StructureEnergy::still_pool}});
+  };
+  const bool hec22 = m.structure_loss == StructureLossMethod::hec22;
+  // HEC-22 defines its own bookkeeping (the access-hole loss is the whole loss across the hole).
+  const char* hec22_own = "the hec22 structure loss has its own bookkeeping (its loss is the whole loss across "
+                          "the access hole); still_pool applies to constant_k and bend";
+  if (const auto e = energy_choice(s)) {
+    if (hec22 && *e == hydraulics::StructureEnergy::still_pool) s.fail("structure_energy", hec22_own);
+    m.structure_energy = *e;
+  }
+  TomlSection by_id = s.table("structures");
+  for (const auto& [id, node] : by_id.entries()) {
+    if (!node->is_table()) by_id.fail_at(node, id, "must be a table of methods for structure \"" + id + "\"");
+    TomlSection one(node->as_table(), by_id.name() + "." + id, p.file, by_id.pattern() + ".*");
+    if (const auto e = energy_choice(one)) {
+      if (hec22 && *e == hydraulics::StructureEnergy::still_pool) one.fail("structure_energy", hec22_own);
+      m.structure_energy_by_id[id] = *e;
+    }
+    one.finish();
   }
   TomlSection k = s.table("k_by_type");
   const std::vector<std::string> kinds{"manhole", "inlet", "junction", "outfall", "pump_station"};
@@ -249,6 +325,11 @@ void read_criteria(TomlSection s, Project& p) {
   Criteria& c = p.criteria;
   c.freeboard_m = s.quantity("freeboard", Dimension::length).value_or(c.freeboard_m);
   c.velocity_min_m_s = s.quantity("velocity_min", Dimension::velocity).value_or(c.velocity_min_m_s);
+  auto basis_choice = [](TomlSection& t) {
+    return t.choice<VelocityMinBasis>("velocity_min_basis", {{"normal_depth", VelocityMinBasis::normal_depth},
+                                                             {"full_flow", VelocityMinBasis::full_flow}});
+  };
+  c.velocity_min_basis = basis_choice(s).value_or(c.velocity_min_basis);
   c.velocity_max_m_s = optional_quantity(s, "velocity_max", Dimension::velocity, c.velocity_max_m_s, p.file);
   c.capacity_ratio_max = positive_number(s, "capacity_ratio_max", c.capacity_ratio_max);
   c.cover_min_m = optional_quantity(s, "cover_min", Dimension::length, c.cover_min_m, p.file);
@@ -256,12 +337,13 @@ void read_criteria(TomlSection s, Project& p) {
     TomlSection group = s.table(key);
     for (const auto& [id, node] : group.entries()) {
       if (!node->is_table()) group.fail_at(node, id, "must be a table of limits for feature \"" + id + "\"");
-      TomlSection f(node->as_table(), group.name() + "." + id, p.file);
+      TomlSection f(node->as_table(), group.name() + "." + id, p.file, group.pattern() + ".*");
       CriteriaOverride o;
       if (structures) {
         o.freeboard_m = f.quantity("freeboard", Dimension::length);
       } else {
         o.velocity_min_m_s = f.quantity("velocity_min", Dimension::velocity);
+        o.velocity_min_basis = basis_choice(f);
         o.velocity_max_m_s = f.quantity("velocity_max", Dimension::velocity);
         o.capacity_ratio_max = f.number("capacity_ratio_max");
         o.cover_min_m = f.quantity("cover_min", Dimension::length);
@@ -290,6 +372,10 @@ void read_plausibility(TomlSection s, Project& p) {
   if (!(q.manning_n_min < q.manning_n_max)) s.fail("manning_n_max", "must be greater than manning_n_min");
   q.ks_max_m = s.quantity("ks_max", Dimension::length).value_or(q.ks_max_m);
   if (!(q.ks_max_m > 0.0)) s.fail("ks_max", "must be greater than 0");
+  q.level_tolerance_m = s.quantity("level_tolerance", Dimension::length).value_or(q.level_tolerance_m);
+  if (!(q.level_tolerance_m >= 0.0)) s.fail("level_tolerance", "must not be negative");
+  q.invert_step_max_m = s.quantity("invert_step_max", Dimension::length).value_or(q.invert_step_max_m);
+  if (!(q.invert_step_max_m > 0.0)) s.fail("invert_step_max", "must be greater than 0");
   s.finish();
 }
 
@@ -348,7 +434,7 @@ Project parse_project(const std::string& toml_text, const std::string& path_for_
     root = toml::parse(text, path_for_messages);
   } catch (const toml::parse_error& e) {
     throw Error(ErrorKind::bad_config, ErrorContext{p.file, "", "", ""},
-                "line " + std::to_string(e.source().begin.line) + ": " + std::string(e.description()));
+                "line " + std::to_string(e.source().begin.line) + ": " + detail::plain_toml_error(e.description()));
   }
   TomlSection top(&root, "", p.file);
 
@@ -357,7 +443,8 @@ Project parse_project(const std::string& toml_text, const std::string& path_for_
               tailwater = top.table("tailwater"), methods = top.table("methods"),
               plausibility = top.table("plausibility"), criteria = top.table("criteria"),
               force_mains = top.table("force_mains"), pump_curves = top.table("pump_curves"),
-              pump_points = top.table("pump_station_points");
+              pump_points = top.table("pump_station_points"), outfalls = top.table("outfalls"),
+              ground = top.table("ground");
   const toml::node* pump_stations = top.node("pump_stations");
   detail::CatchmentSections catchment_sections{top.table("catchments"), top.table("land_use"), top.table("rational"),
                                                top.table("sanitary")};
@@ -371,6 +458,8 @@ Project parse_project(const std::string& toml_text, const std::string& path_for_
   read_plausibility(plausibility, p);  // first: the pipe defaults are checked against it
   read_pipes(pipes, p);
   read_structures(structures, p);
+  read_outfalls(outfalls, p);
+  read_ground(ground, p);
   read_flows_and_tailwater(flows, tailwater, p);
   detail::read_catchment_sections(catchment_sections, p, &read_layer_source);
   read_methods(methods, p);
@@ -383,6 +472,11 @@ Project parse_project(const std::string& toml_text, const std::string& path_for_
 }
 
 Project load_project(const std::string& path) {
+  std::error_code ec;
+  if (!std::filesystem::exists(path, ec))
+    throw Error(ErrorKind::bad_config, ErrorContext{path, "", "", ""},
+                "the project file does not exist (check the path; `rimline fields SOURCE --write-project " + path +
+                    "` writes a starter)");
   require_regular_project_file(path);  // a folder reads as an empty file, a FIFO blocks
   std::ifstream in(path, std::ios::binary);
   if (!in) throw Error(ErrorKind::bad_config, ErrorContext{path, "", "", ""}, "cannot open the project file");

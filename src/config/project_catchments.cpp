@@ -23,6 +23,7 @@ void read_catchments(TomlSection s, Project& p, LayerSource (*read_source)(TomlS
     if (!(*d >= 0.0)) s.fail("outlet_search", "must not be negative");
     k.outlet_search_m = *d;
   }
+  k.allow_left_out = s.boolean("allow_left_out").value_or(false);
   TomlSection f = s.table("fields");
   for (auto [key, dst] : {std::pair<std::string_view, std::string*>{"id", &k.fields.id},
                           {"structure", &k.fields.structure},
@@ -126,11 +127,12 @@ void read_rational(TomlSection s, Project& p) {
     if (!near.empty()) msg += "; did you mean \"" + near + "\"?";
     s.fail("return_period", msg);
   }
-  TomlSection curve(chosen->as_table(), curves.name() + "." + chosen_label, p.file);
+  TomlSection curve(chosen->as_table(), curves.name() + "." + chosen_label, p.file, curves.pattern() + ".*");
   p.rational.idf = read_idf(curve, chosen_label, p.file);
   for (const auto& [label, node] : curves.entries())  // the others are checked too: a typo is an error either way
     if (label != chosen_label)
-      read_idf(TomlSection(node->as_table(), curves.name() + "." + label, p.file), label, p.file);
+      read_idf(TomlSection(node->as_table(), curves.name() + "." + label, p.file, curves.pattern() + ".*"), label,
+               p.file);
 }
 
 void read_sanitary(TomlSection s, Project& p) {

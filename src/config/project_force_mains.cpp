@@ -101,7 +101,7 @@ double read_fittings(TomlSection& s) {
   double total = 0.0;
   for (const toml::node& item : *list) {
     if (!item.is_table()) s.fail_at(&item, "fittings", "each fitting must be a table { k = 0.5, count = 2 }");
-    TomlSection f(item.as_table(), s.name() + ".fittings", s.file());
+    TomlSection f(item.as_table(), s.name() + ".fittings", s.file(), s.pattern() + ".fittings[]");
     const auto k = f.number("k");
     if (!k || !(*k >= 0.0)) f.fail("k", "a fitting needs a loss coefficient k >= 0");
     const double count = f.number("count").value_or(1.0);
@@ -233,7 +233,8 @@ void read_pump_stations(const toml::node* array, Project& p) {
     ++n;
     if (!item.is_table()) root.fail_at(&item, "pump_stations", "expected [[pump_stations]] tables");
     p.pump_stations.push_back(
-        read_station(TomlSection(item.as_table(), "pump_stations[" + std::to_string(n) + "]", p.file), p));
+        read_station(TomlSection(item.as_table(), "pump_stations[" + std::to_string(n) + "]", p.file, "pump_stations[]"),
+                     p));
     for (std::size_t k = 0; k + 1 < p.pump_stations.size(); ++k)
       if (p.pump_stations[k].id == p.pump_stations.back().id)
         root.fail_at(&item, "pump_stations", "pump station \"" + p.pump_stations.back().id + "\" is given twice");

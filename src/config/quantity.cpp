@@ -69,6 +69,8 @@ double parse_quantity(const std::string& text, units::Dimension expected, const 
     std::string msg = where + ": unknown unit \"" + std::string(unit_text) + "\" in \"" + text + "\"";
     const std::string near = closest_name(std::string(unit_text), unit_suggestions());
     if (!near.empty()) msg += "; did you mean \"" + near + "\"?";
+    if (expected != units::Dimension::dimensionless)
+      msg += " (" + std::string(dimension_noun(expected)) + " takes " + units::unit_symbols(expected) + ")";
     throw Error(ErrorKind::bad_config, msg);
   }
   const units::Dimension got = units::dimension_of(*unit);

@@ -1,4 +1,5 @@
 #include "config/toml_guard.hpp"
+#include "config/toml_plain.hpp"
 
 #include <toml++/toml.h>
 
@@ -37,7 +38,7 @@ void parse_ascii_copy(const std::string& text, const std::string& file) {
     const bool has_non_ascii = std::any_of(this_line.begin(), this_line.end(), non_ascii);
     throw Error(ErrorKind::bad_config, ErrorContext{file, "", "", ""},
                 "line " + std::to_string(line) + ": " +
-                    (has_non_ascii ? std::string(outside_quotes) : std::string(e.description())));
+                    (has_non_ascii ? std::string(outside_quotes) : plain_toml_error(e.description())));
   }
 }
 

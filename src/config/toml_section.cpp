@@ -61,14 +61,28 @@ std::string_view dimension_name(units::Dimension d) {
   return "quantity";
 }
 
+thread_local std::vector<std::string>* recording = nullptr;
+
 }  // namespace
 
-TomlSection::TomlSection(const toml::table* table, std::string name, const std::string& file)
-    : table_(table), name_(std::move(name)), file_(file) {}
+KeyRecording::KeyRecording(std::vector<std::string>& set) : previous_(recording) { recording = &set; }
+KeyRecording::~KeyRecording() { recording = previous_; }
+void KeyRecording::note(const std::string& pattern) {
+  if (recording && std::find(recording->begin(), recording->end(), pattern) == recording->end())
+    recording->push_back(pattern);
+}
+
+TomlSection::TomlSection(const toml::table* table, std::string name, const std::string& file, std::string pattern)
+    : table_(table), name_(std::move(name)), pattern_(pattern.empty() ? name_ : std::move(pattern)), file_(file) {}
 
 std::string TomlSection::dotted(std::string_view key) const {
   if (name_.empty()) return std::string(key);
   return name_ + "." + std::string(key);
+}
+
+std::string TomlSection::dotted_pattern(std::string_view key) const {
+  if (pattern_.empty()) return std::string(key);
+  return pattern_ + "." + std::string(key);
 }
 
 std::string TomlSection::where(const toml::node* node, std::string_view key) const {
@@ -104,8 +118,12 @@ void TomlSection::fail_choice(std::string_view key, const std::string& value,
 }
 
 const toml::node* TomlSection::get(std::string_view key) {
+  const std::string pattern = dotted_pattern(key);
+  require_in_key_table(pattern);
   known_.emplace_back(key);
-  return table_ ? table_->get(key) : nullptr;
+  const toml::node* n = table_ ? table_->get(key) : nullptr;
+  if (n && recording) KeyRecording::note(pattern);
+  return n;
 }
 
 std::optional<std::string> TomlSection::string(std::string_view key) {
@@ -169,7 +187,7 @@ FieldRef TomlSection::field_ref(std::string_view key, units::Dimension dimension
     fail_at(n, key,
             "expected { field = \"NAME\", unit = \"...\" } (a " + std::string(dimension_name(dimension)) +
                 " needs its unit), found " + std::string(type_name(*n)));
-  TomlSection sub(n->as_table(), dotted(key), file_);
+  TomlSection sub(n->as_table(), dotted(key), file_, unchecked_pattern);  // the role's key is in the table
   const auto field = sub.string("field");
   if (!field || field->empty()) sub.fail("field", "the source field name is missing");
   ref.field = *field;
@@ -177,7 +195,12 @@ FieldRef TomlSection::field_ref(std::string_view key, units::Dimension dimension
   if (!unit_text && dimension != units::Dimension::dimensionless) sub.fail("unit", "the unit is missing");
   if (unit_text) {
     const auto unit = units::parse_unit(*unit_text);
-    if (!unit) sub.fail("unit", "unknown unit \"" + *unit_text + "\"");
+    if (!unit) {
+      std::string msg = "unknown unit \"" + *unit_text + "\"";
+      if (dimension != units::Dimension::dimensionless)
+        msg += "; the units of " + std::string(dimension_name(dimension)) + " are " + units::unit_symbols(dimension);
+      sub.fail("unit", msg);
+    }
     if (units::dimension_of(*unit) != dimension)
       sub.fail("unit", "\"" + *unit_text + "\" is not a unit of " + std::string(dimension_name(dimension)));
     ref.unit = *unit;
@@ -189,12 +212,14 @@ FieldRef TomlSection::field_ref(std::string_view key, units::Dimension dimension
 TomlSection TomlSection::table(std::string_view key) {
   const toml::node* n = get(key);
   if (n && !n->is_table()) fail_at(n, key, "expected a table, found " + std::string(type_name(*n)));
-  return TomlSection(n ? n->as_table() : nullptr, dotted(key), file_);
+  return TomlSection(n ? n->as_table() : nullptr, dotted(key), file_, dotted_pattern(key));
 }
 
 std::vector<std::pair<std::string, const toml::node*>> TomlSection::entries() {
   std::vector<std::pair<std::string, const toml::node*>> out;
+  require_in_key_table(dotted_pattern("*"));
   if (!table_) return out;
+  if (recording && !table_->empty()) KeyRecording::note(dotted_pattern("*"));
   for (const auto& [k, v] : *table_) {
     known_.emplace_back(k.str());
     out.emplace_back(std::string(k.str()), &v);

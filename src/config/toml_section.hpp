@@ -16,13 +16,38 @@
 
 namespace rimline::config::detail {
 
+// The pattern of a section whose keys are not looked up in the key table (the field and unit of a
+// field mapping: the mapping's own key is).
+inline constexpr const char* unchecked_pattern = "~";
+
+// Throws Error(internal) when the parser asks for a key that src/config/project_keys.cpp does not
+// list: the table, docs/project-file.md and the parser are kept in step (a test compares them).
+void require_in_key_table(const std::string& pattern);
+
+// While one is alive on a thread, every key a section finds in the file is added to `set` as its
+// pattern (for project_keys_set).
+class KeyRecording {
+ public:
+  explicit KeyRecording(std::vector<std::string>& set);
+  ~KeyRecording();
+  KeyRecording(const KeyRecording&) = delete;
+  KeyRecording& operator=(const KeyRecording&) = delete;
+  static void note(const std::string& pattern);
+
+ private:
+  std::vector<std::string>* previous_;
+};
+
 class TomlSection {
  public:
   // `table` may be null (the section is absent); `name` is the dotted path, "" for the root.
-  TomlSection(const toml::table* table, std::string name, const std::string& file);
+  // `pattern` is the path in the key table (src/config/project_keys.cpp): `name` with each
+  // name the user chose written `*` and each entry of an array of tables `[]`; empty: `name`.
+  TomlSection(const toml::table* table, std::string name, const std::string& file, std::string pattern = "");
 
   bool present() const { return table_ != nullptr; }
   const std::string& name() const { return name_; }
+  const std::string& pattern() const { return pattern_; }
 
   std::optional<std::string> string(std::string_view key);
   std::optional<double> number(std::string_view key);
@@ -65,9 +90,11 @@ class TomlSection {
   [[noreturn]] void fail_choice(std::string_view key, const std::string& value,
                                 const std::vector<std::string>& names) const;
   std::string dotted(std::string_view key) const;
+  std::string dotted_pattern(std::string_view key) const;
 
   const toml::table* table_;
   std::string name_;
+  std::string pattern_;
   const std::string& file_;
   std::vector<std::string> known_;
 };

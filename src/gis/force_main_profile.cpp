@@ -74,7 +74,7 @@ struct Dem {
   double nodata = 0.0;
 };
 
-Dem open_dem(const std::string& source, const model::Network& network) {
+Dem open_dem(const std::string& source, const model::Network& network, int band = 1) {
   static std::once_flag once;
   std::call_once(once, [] { GDALAllRegister(); });
   detail::check_source_files(source, "force-main ground DEM");  // a FIFO would block the open
@@ -83,9 +83,13 @@ Dem open_dem(const std::string& source, const model::Network& network) {
   d.dataset.reset(GDALDataset::Open(source.c_str(), GDAL_OF_RASTER | GDAL_OF_READONLY));
   if (!d.dataset || d.dataset->GetRasterCount() < 1)
     throw Error(ErrorKind::bad_input, ErrorContext{source, "", "", ""},
-                "cannot open the force-main ground DEM as a raster" +
+                "cannot open the ground DEM as a raster" +
                     (capture.last_error().empty() ? std::string() : ": " + capture.last_error()));
-  d.band = d.dataset->GetRasterBand(1);
+  if (band < 1 || band > d.dataset->GetRasterCount())
+    throw Error(ErrorKind::bad_input, ErrorContext{source, "", "", ""},
+                "the raster has " + std::to_string(d.dataset->GetRasterCount()) + " band(s); band " +
+                    std::to_string(band) + " was asked for");
+  d.band = d.dataset->GetRasterBand(band);
   double gt[6];
   if (d.dataset->GetGeoTransform(gt) != CE_None || !GDALInvGeoTransform(gt, d.inverse))
     throw Error(ErrorKind::bad_input, ErrorContext{source, "", "", ""}, "the DEM has no usable geotransform");
@@ -135,8 +139,8 @@ void coarse(const model::Conduit& c, Severity sev, const std::string& why, Findi
 }  // namespace
 
 std::vector<double> sample_dem(const std::string& dem_source, double dem_metres_per_unit, const model::Network& network,
-                               const std::vector<model::Point2>& points_m) {
-  Dem d = open_dem(dem_source, network);
+                               const std::vector<model::Point2>& points_m, int band) {
+  Dem d = open_dem(dem_source, network, band);
   std::vector<double> out;
   out.reserve(points_m.size());
   for (const auto& p : points_m) out.push_back(sample(d, network, p, dem_metres_per_unit));

@@ -18,6 +18,7 @@ inline constexpr double zero_length_m = 1e-3;
 struct PipeColumns {
   int id, from, to, shape, material, manning_n, split, force_main;
   int diameter, width, height, ks, invert_up, invert_down, length, flow, rated_pressure;
+  int invert_up_fallback, invert_down_fallback;
 };
 
 // Column of every mapped pipe field (-1: not mapped); throws for a mapped field the layer lacks.
@@ -58,6 +59,10 @@ class PipeReader {
                                   const std::string& material, bool needed, const FeatureRef& who);
 
   void read_links(OGRFeature& feature, model::Conduit& c, const FeatureRef& who);
+
+  // An invert from its field, else (empty or a sentinel) from its fallback field: INVERT_FALLBACK.
+  std::optional<double> read_invert(OGRFeature& feature, int col, const FieldRef& ref, int fallback_col,
+                                    const FieldRef& fallback, std::string_view what, const FeatureRef& who);
 
   void read_flow(OGRFeature& feature, model::Conduit& c, const FeatureRef& who);
 

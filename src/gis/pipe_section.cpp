@@ -129,7 +129,7 @@ std::optional<double> PipeReader::roughness(OGRFeature& feature, int col, const 
                                             std::optional<double> fallback, const std::string& material, bool needed,
                                             const FeatureRef& who) {
   const bool is_ks = name == "ks";
-  auto shown = [&](double si) { return is_ks ? format_si(si, Dimension::length) : format_number(si); };
+  auto shown = [&](double si) { return is_ks ? q_roughness(si) : format_number(si); };
   // What the project offers when the field does not.
   std::optional<double> alt;
   const std::string* table_key = nullptr;  // the material table's own spelling of the value

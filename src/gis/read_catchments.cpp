@@ -22,6 +22,26 @@ struct LandUsePolygon {
 };
 
 // Exterior rings and holes scaled to metres, and the area-weighted centroid of the exterior rings.
+// The polygons of a repaired geometry as one multipolygon (make-valid may return a collection
+// holding the lines and points a ring collapsed to); null when no polygon is left.
+OGRGeometryUniquePtr polygons_only(OGRGeometryUniquePtr g) {
+  if (!g) return nullptr;
+  auto out = std::make_unique<OGRMultiPolygon>();
+  auto take = [&out](const OGRGeometry& part) {
+    const auto t = wkbFlatten(part.getGeometryType());
+    if (t == wkbPolygon) out->addGeometry(&part);
+    if (t == wkbMultiPolygon)
+      for (const auto* poly : *part.toMultiPolygon()) out->addGeometry(poly);
+  };
+  const auto t = wkbFlatten(g->getGeometryType());
+  if (t == wkbGeometryCollection)
+    for (const auto* part : *g->toGeometryCollection()) take(*part);
+  else
+    take(*g);
+  if (out->IsEmpty() || !(out->get_Area() > 0.0)) return nullptr;
+  return OGRGeometryUniquePtr(out.release());
+}
+
 void rings_of(const OGRGeometry& g, double scale, model::Catchment& k) {
   double sx = 0.0, sy = 0.0, sa = 0.0;
   auto take = [&](const OGRPolygon& poly) {
@@ -98,9 +118,11 @@ class CatchmentReader {
 
   bool read(OGRFeature& feature, const std::vector<LandUsePolygon>& land_use, model::Catchment& k) {
     k.fid = feature.GetFID();
-    auto id = read_text(feature, id_);
+    const IdText read_as = read_id(feature, id_);
+    auto id = read_as.id;
     k.id = id ? std::move(*id) : "fid " + std::to_string(k.fid);
     const FeatureRef who{LayerRole::catchments, k.id, findings_};
+    report_inexact_id(read_as, p_.catchments.fields.id, who);
     OGRGeometry* g = feature.GetGeometryRef();
     const double scale = layer_.placement.metres_per_unit;
     if (!g || g->IsEmpty()) {
@@ -118,7 +140,32 @@ class CatchmentReader {
               "The geometry could not be transformed into the run CRS; the catchment is left out.");
       return false;
     }
-    const double area_units = type == wkbPolygon ? g->toPolygon()->get_Area() : g->toMultiPolygon()->get_Area();
+    // A self-intersecting ring (a bow-tie) has a signed area that cancels part of itself: one whose
+    // true area is 333 m2 read as 200 m2 (issue 18, defect 5). Invalid polygons are repaired with
+    // GEOS make-valid (OGC Simple Features validity, ISO 19125-1 6.1.11) and the repair's area is used.
+    OGRGeometryUniquePtr repaired;
+    bool valid = true;
+    {
+      GdalErrorCapture quiet;  // GEOS's "Self-intersection at or near point ..." is said by the finding below
+      valid = g->IsValid();
+    }
+    if (!valid) {
+      const double drawn = (type == wkbPolygon ? g->toPolygon()->get_Area() : g->toMultiPolygon()->get_Area()) * scale * scale;
+      repaired = polygons_only(OGRGeometryUniquePtr(g->MakeValid()));
+      if (!repaired) {
+        who.add("DATA_GEOMETRY", Severity::error, "", "The polygon has no area; the catchment is left out.");
+        return false;
+      }
+      g = repaired.get();
+      const double used = g->toMultiPolygon()->get_Area() * scale * scale;
+      who.add("DATA_GEOMETRY", Severity::warning, "",
+              "The polygon is invalid (its rings cross or touch themselves); it was repaired (GEOS make-valid) and "
+              "its area " + q(used, Dimension::area) + " is used (the rings as drawn give " + q(drawn, Dimension::area) +
+                  ").",
+              used, std::numeric_limits<double>::quiet_NaN(), Dimension::area);
+    }
+    const auto kind = wkbFlatten(g->getGeometryType());
+    const double area_units = kind == wkbPolygon ? g->toPolygon()->get_Area() : g->toMultiPolygon()->get_Area();
     k.area_m2 = area_units * scale * scale;
     if (!(k.area_m2 > 0.0)) {
       who.add("DATA_GEOMETRY", Severity::error, "", "The polygon has no area; the catchment is left out.");
@@ -126,10 +173,15 @@ class CatchmentReader {
     }
     rings_of(*g, scale, k);
     if (auto s = read_text(feature, structure_)) k.structure_id = std::move(*s);
-    if (!read_runoff_c(feature, who, k)) return false;
-    if (!land_use.empty()) composite_c(*g, land_use, who, k);
-    read_inlet_time(feature, who, k);
-    read_population(feature, who, k);
+    // Each flows mode reads only its own inputs: a sanitary run needs no runoff coefficient, a storm
+    // run no population.
+    if (p_.flow_mode == FlowMode::rational) {
+      if (!read_runoff_c(feature, who, k)) return false;
+      if (!land_use.empty()) composite_c(*g, land_use, who, k);
+      read_inlet_time(feature, who, k);
+    } else {
+      read_population(feature, who, k);
+    }
     return true;
   }
 

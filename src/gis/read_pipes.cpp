@@ -35,7 +35,9 @@ PipeColumns resolve_pipe_columns(const PipeFields& f, const OpenLayer& l) {
           idx(f.length.field, "length"),
           idx(f.flow.field, "flow"),
           // Only force mains carry a pipe class: a gravity layer without the field is fine.
-          f.rated_pressure.mapped() ? l.layer->GetLayerDefn()->GetFieldIndex(f.rated_pressure.field.c_str()) : -1};
+          f.rated_pressure.mapped() ? l.layer->GetLayerDefn()->GetFieldIndex(f.rated_pressure.field.c_str()) : -1,
+          idx(f.invert_up_fallback.field, "invert_up_fallback"),
+          idx(f.invert_down_fallback.field, "invert_down_fallback")};
 }
 
 const FieldRef& diameter_ref(const Project& p) {
@@ -51,20 +53,44 @@ void PipeReader::read(OGRFeature& feature, model::Conduit& c) {
   read_length(feature, c, who);
   read_section(feature, c, who);
   read_roughness(feature, c, who);
-  if (col_.invert_up >= 0)
-    c.invert_up_m =
-        checked_level(read_number(feature, col_.invert_up), f_.invert_up, "upstream invert", p_.plausibility, who);
-  if (col_.invert_down >= 0)
-    c.invert_down_m = checked_level(read_number(feature, col_.invert_down), f_.invert_down, "downstream invert",
-                                    p_.plausibility, who);
+  c.invert_up_m = read_invert(feature, col_.invert_up, f_.invert_up, col_.invert_up_fallback, f_.invert_up_fallback,
+                              "upstream invert", who);
+  c.invert_down_m = read_invert(feature, col_.invert_down, f_.invert_down, col_.invert_down_fallback,
+                                f_.invert_down_fallback, "downstream invert", who);
   read_links(feature, c, who);
   read_flow(feature, c, who);
 }
 
+std::optional<double> PipeReader::read_invert(OGRFeature& feature, int col, const FieldRef& ref, int fallback_col,
+                                              const FieldRef& fallback, std::string_view what, const FeatureRef& who) {
+  if (col < 0) return std::nullopt;
+  const RawNumber raw = read_number(feature, col);
+  if (fallback_col < 0) return checked_level(raw, ref, what, p_.plausibility, who);
+  // With a fallback, an empty main value is no finding of its own: the fallback's use says it.
+  if (raw.state != RawNumber::State::null)
+    if (const auto v = checked_level(raw, ref, what, p_.plausibility, who)) return v;
+  const RawNumber second = read_number(feature, fallback_col);
+  if (second.state == RawNumber::State::null) {
+    who.add("DATA_MISSING", Severity::warning, ref.field,
+            ref.field + " and its fallback " + fallback.field + " are empty; the " + std::string(what) +
+                " is unknown.");
+    return std::nullopt;
+  }
+  const auto v = checked_level(second, fallback, what, p_.plausibility, who);
+  if (v)
+    who.add("INVERT_FALLBACK", Severity::info, fallback.field,
+            ref.field + (raw.state == RawNumber::State::null ? " is empty" : " is unusable") + "; the " +
+                std::string(what) + " " + q(*v, Dimension::length) + " is taken from " + fallback.field + ".",
+            *v, std::numeric_limits<double>::quiet_NaN(), Dimension::length);
+  return v;
+}
+
 void PipeReader::read_id(OGRFeature& feature, model::Conduit& c) {
-  auto id = read_text(feature, col_.id);
+  const IdText id_read = gis::detail::read_id(feature, col_.id);
+  auto id = id_read.id;
   c.id = id ? std::move(*id) : "fid " + std::to_string(c.fid);
   const FeatureRef who{LayerRole::conduits, c.id, in_.findings};
+  report_inexact_id(id_read, f_.id, who);
   if (col_.id >= 0 && !id)
     who.add("DATA_MISSING", Severity::warning, f_.id, f_.id + " is empty; the pipe is reported as \"" + c.id + "\".");
 }
@@ -129,7 +155,7 @@ void PipeReader::read_geometry(OGRFeature& feature, model::Conduit& c, const Fea
 void PipeReader::read_length(OGRFeature& feature, model::Conduit& c, const FeatureRef& who) {
   c.length_m = c.geometry_length_m;
   if (col_.length < 0) return;
-  auto use_geometry = [&c] { return "the geometry length " + q(c.geometry_length_m, Dimension::length) + " is used"; };
+  auto use_geometry = [&c] { return "the geometry length " + q_distance(c.geometry_length_m) + " is used"; };
   const RawNumber raw = read_number(feature, col_.length);
   if (raw.state == RawNumber::State::null) {
     who.add("DATA_MISSING", Severity::info, f_.length.field, f_.length.field + " is empty; " + use_geometry() + ".");
@@ -151,7 +177,7 @@ void PipeReader::read_length(OGRFeature& feature, model::Conduit& c, const Featu
   const double tol = p_.plausibility.length_tolerance;
   if (std::abs(si / c.geometry_length_m - 1.0) > tol) {
     who.add("DATA_IMPLAUSIBLE", Severity::warning, f_.length.field,
-            shown() + " differs from the geometry length " + q(c.geometry_length_m, Dimension::length) +
+            shown() + " differs from the geometry length " + q_distance(c.geometry_length_m) +
                 " by more than " + format_fixed(tol * 100.0, 1) + " %; the geometry length is used.",
             si, c.geometry_length_m, Dimension::length);
     return;
@@ -184,13 +210,7 @@ void PipeReader::read_flow(OGRFeature& feature, model::Conduit& c, const Feature
       who.add("DATA_MISSING", Severity::warning, f_.flow.field,
               f_.flow.field + " is empty; " + std::string(none) + ".");
     } else if (const auto v = checked_number(raw, f_.flow.field, none, who)) {
-      const double si = units::to_si(*v, f_.flow.unit);
-      if (si < 0.0)
-        who.add("DATA_IMPLAUSIBLE", Severity::warning, f_.flow.field,
-                f_.flow.field + " " + format_value(*v, f_.flow.unit) + " is negative; " + std::string(none) + ".", si,
-                0.0, Dimension::flow);
-      else
-        c.flow_m3_s = si;
+      if (const auto si = checked_flow(*v, f_.flow, none, who)) c.flow_m3_s = *si;
     }
   }
   if (col_.rated_pressure >= 0) {

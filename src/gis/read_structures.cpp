@@ -17,10 +17,11 @@ constexpr double structure_diameter_min_m = 0.3, structure_diameter_max_m = 30.0
 constexpr double loss_k_max = 10.0;
 
 struct Columns {
-  int id, type, loss_k, rim, invert, diameter, inflow, tailwater, population;
+  int id, type, loss_k, rim, invert, diameter, inflow, tailwater, population, outfall;
 };
 
-Columns resolve(const StructureFields& f, const OpenLayer& l) {
+Columns resolve(const Project& p, const OpenLayer& l) {
+  const StructureFields& f = p.structure_fields;
   auto idx = [&l](const std::string& name, const char* key) {
     return field_index(l, name, std::string("structures.fields.") + key);
   };
@@ -32,7 +33,14 @@ Columns resolve(const StructureFields& f, const OpenLayer& l) {
           idx(f.diameter.field, "diameter"),
           idx(f.inflow.field, "inflow"),
           idx(f.tailwater.field, "tailwater"),
-          idx(f.population, "population")};
+          idx(f.population, "population"),
+          field_index(l, p.outfalls.field, "outfalls.field")};
+}
+
+bool find_in(const std::vector<std::string>& values, const std::string& v) {
+  for (const auto& x : values)
+    if (same_ignoring_case(x, v)) return true;
+  return false;
 }
 
 std::optional<model::StructureKind> kind_of(const std::string& name) {
@@ -45,7 +53,7 @@ std::optional<model::StructureKind> kind_of(const std::string& name) {
 class StructureReader {
  public:
   explicit StructureReader(LayerRead& in)
-      : in_(in), p_(in.project), f_(in.project.structure_fields), col_(resolve(f_, in.source)) {
+      : in_(in), p_(in.project), f_(in.project.structure_fields), col_(resolve(in.project, in.source)) {
     size_limits_ = p_.plausibility;
     size_limits_.diameter_min_m = structure_diameter_min_m;
     size_limits_.diameter_max_m = structure_diameter_max_m;
@@ -54,14 +62,18 @@ class StructureReader {
   // False when the structure is left out (no usable point).
   bool read(OGRFeature& feature, model::Structure& s) {
     s.fid = feature.GetFID();
-    auto id = read_text(feature, col_.id);
+    const IdText id_read = gis::detail::read_id(feature, col_.id);
+    auto id = id_read.id;
     s.id = id ? std::move(*id) : "fid " + std::to_string(s.fid);
     const FeatureRef who{LayerRole::structures, s.id, in_.findings};
+    report_inexact_id(id_read, f_.id, who);
     if (col_.id >= 0 && !id)
       who.add("DATA_MISSING", Severity::warning, f_.id,
               f_.id + " is empty; the structure is reported as \"" + s.id + "\".");
     if (!read_location(feature, s, who)) return false;
     read_kind(feature, s, who);
+    if (col_.outfall >= 0)  // [outfalls] field / values: an outfall the type field does not say
+      if (const auto v = read_text(feature, col_.outfall); v && find_in(p_.outfalls.values, *v)) s.kind = model::StructureKind::outfall;
     if (col_.rim >= 0) s.rim_m = checked_level(read_number(feature, col_.rim), f_.rim, "rim", p_.plausibility, who);
     if (col_.invert >= 0)
       s.invert_m = checked_level(read_number(feature, col_.invert), f_.invert, "invert", p_.plausibility, who);
@@ -177,15 +189,8 @@ class StructureReader {
     if (col_.inflow >= 0) {
       const RawNumber raw = read_number(feature, col_.inflow);
       const char* none = "the structure has no local inflow";
-      if (const auto q = checked_number(raw, f_.inflow.field, none, who)) {
-        const double si = units::to_si(*q, f_.inflow.unit);
-        if (si >= 0.0)
-          s.inflow_m3_s = si;
-        else
-          who.add("DATA_IMPLAUSIBLE", Severity::warning, f_.inflow.field,
-                  f_.inflow.field + " " + format_value(*q, f_.inflow.unit) + " is negative; " + std::string(none) + ".",
-                  si, 0.0, Dimension::flow);
-      }
+      if (const auto q = checked_number(raw, f_.inflow.field, none, who))
+        if (const auto si = checked_flow(*q, f_.inflow, none, who)) s.inflow_m3_s = *si;
     }
   }
 
@@ -210,9 +215,7 @@ class StructureReader {
 
 }  // namespace
 
-void check_structure_mapping(const Project& project, const OpenLayer& source) {
-  resolve(project.structure_fields, source);
-}
+void check_structure_mapping(const Project& project, const OpenLayer& source) { resolve(project, source); }
 
 void read_structures(LayerRead& in, std::vector<model::Structure>& out) {
   OGRLayer& layer = *in.source.layer;

@@ -11,7 +11,9 @@
 #include "hydraulics/gvf_join.hpp"
 #include "hydraulics/gvf_summary.hpp"
 #include "hydraulics/kernels.hpp"
+#include "hydraulics/solve_1d.hpp"
 #include "rimline/error.hpp"
+#include "rimline/units.hpp"
 
 namespace rimline::hydraulics {
 
@@ -99,12 +101,63 @@ ConduitProfile still_water(const PreparedReach& r, double level) {
   return p;
 }
 
+// The outlet's condition, from the water level it discharges into or from the energy level it must
+// have: the depth of the water surface above the outlet invert (below critical depth: a free outlet),
+// and the HGL when the outlet runs full.
+struct Outlet {
+  double depth = 0.0;
+  bool free = false;
+  double full_hgl = 0.0;
+};
+
+Outlet outlet_from_level(const PreparedReach& r, double level) {
+  const double depth = level - r.z_down;
+  return {depth, depth < r.yc, level};
+}
+
+// Energy control: the outlet's EGL is given (the structure loss is the whole loss across the
+// structure). The depth is the subcritical root of y + V(y)^2/2g = E - z; above the full-pipe
+// energy the outlet runs full with HGL = E - V_full^2/2g; below the critical energy no subcritical
+// depth carries the flow there, and critical depth governs (the pipe falls freely into the structure).
+Outlet outlet_from_energy(const PreparedReach& r, bool critical_below_rise, double energy) {
+  constexpr double g = units::gravity_m_s2;
+  const double v_full = r.flow / r.area_full;
+  const double e = energy - r.z_down;
+  const double e_full = r.rise + v_full * v_full / (2.0 * g);
+  if (e >= e_full) return {e - v_full * v_full / (2.0 * g), false, energy - v_full * v_full / (2.0 * g)};
+  const Outlet free{-1.0, true, r.crown(0.0)};
+  if (!critical_below_rise) return free;  // no free surface at critical depth: full at the crown, free
+  auto excess = [&](double y) {
+    const double v = r.flow / detail::free_surface_geometry(r.section, y).area_m2;
+    return y + v * v / (2.0 * g) - e;
+  };
+  const double f_lo = excess(r.yc);
+  if (f_lo > 0.0) return free;
+  const double f_hi = e_full - e;  // the specific energy at the soffit, full area
+  const auto root = detail::brent_root(excess, r.yc, r.rise, f_lo, f_hi, r.closure * r.rise, 200);
+  return {root.x, false, r.z_down + root.x};
+}
+
+ConduitProfile profile_from(PreparedReach& r, const GvfOptions& options, double control_level, bool energy_control);
+
 }  // namespace
 
 ConduitProfile compute_profile(const ConduitReach& reach, double downstream_level_m, const GvfOptions& options) {
   PreparedReach r = prepare(reach, options);
   require_finite(downstream_level_m, "downstream water level");
-  if (r.flow == 0.0) return still_water(r, downstream_level_m);
+  return profile_from(r, options, downstream_level_m, false);
+}
+
+ConduitProfile compute_profile_to_energy(const ConduitReach& reach, double downstream_energy_m, const GvfOptions& options) {
+  PreparedReach r = prepare(reach, options);
+  require_finite(downstream_energy_m, "downstream energy level");
+  return profile_from(r, options, downstream_energy_m, true);
+}
+
+namespace {
+
+ConduitProfile profile_from(PreparedReach& r, const GvfOptions& options, double control_level, bool energy_control) {
+  if (r.flow == 0.0) return still_water(r, control_level);  // still water: energy and water level agree
 
   const DepthSolve yc = critical_depth(r.section, r.flow);
   r.yc = yc.exists ? yc.depth_m : r.rise;
@@ -117,8 +170,9 @@ ConduitProfile compute_profile(const ConduitReach& reach, double downstream_leve
     r.yn = yn.depth_m;
     r.near_critical_slope = yn.exists && yc.exists && std::fabs(r.yn - r.yc) <= 0.01 * r.yc;
   }
-  const double outlet_depth = downstream_level_m - r.z_down;
-  const bool free_outlet = outlet_depth < r.yc;
+  const Outlet outlet = energy_control ? outlet_from_energy(r, yc.exists, control_level) : outlet_from_level(r, control_level);
+  const double outlet_depth = outlet.depth;
+  const bool free_outlet = outlet.free;
   std::string note;
 
   // Controls. Above full capacity no free surface can carry the flow: the conduit runs full from
@@ -128,7 +182,7 @@ ConduitProfile compute_profile(const ConduitReach& reach, double downstream_leve
   Node start;
   const bool over_capacity = r.slope > 0.0 && r.flow > q_full;
   if (over_capacity || outlet_depth >= r.rise || !yc.exists) {
-    start = {0.0, r.rise, std::max(downstream_level_m, r.crown(0.0)), true};
+    start = {0.0, r.rise, std::max(outlet.full_hgl, r.crown(0.0)), true};
   } else {
     const double y0 = std::max(outlet_depth, r.yc);
     start = {0.0, y0, r.invert(0.0) + y0, false};
@@ -203,5 +257,7 @@ ConduitProfile compute_profile(const ConduitReach& reach, double downstream_leve
   p.note = note;
   return p;
 }
+
+}  // namespace
 
 }  // namespace rimline::hydraulics

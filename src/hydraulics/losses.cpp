@@ -91,6 +91,10 @@ double exit_loss_m(double velocity_m_s, double receiving_velocity_m_s) {
   return expansion_loss_m(velocity_m_s, receiving_velocity_m_s);
 }
 
+std::string_view structure_energy_name(StructureEnergy e) {
+  return e == StructureEnergy::still_pool ? "still_pool" : "whole_loss";
+}
+
 std::string_view structure_loss_method_name(StructureLossMethod m) {
   switch (m) {
     case StructureLossMethod::constant_k: return "constant_k";

@@ -4,6 +4,9 @@
 #include <algorithm>
 #include <charconv>
 #include <cmath>
+#include <limits>
+#include <memory>
+#include <unordered_map>
 #include <unordered_set>
 
 #include "gis/gdal_source.hpp"
@@ -68,10 +71,59 @@ double line_length_m(const OGRGeometry* g, bool geographic, double metres_per_un
   return 0.0;
 }
 
+// First and last vertex of a line, or the point, into the rows (in degrees when `to_lonlat`).
+void keep_ends(const OGRGeometry* g, OGRCoordinateTransformation* to_lonlat, LayerRows& rows) {
+  double x[2] = {std::numeric_limits<double>::quiet_NaN(), std::numeric_limits<double>::quiet_NaN()};
+  double y[2] = {x[0], x[1]};
+  if (g && !g->IsEmpty()) {
+    const auto type = wkbFlatten(g->getGeometryType());
+    const OGRLineString* first = nullptr;
+    const OGRLineString* last = nullptr;
+    if (type == wkbLineString) first = last = g->toLineString();
+    if (type == wkbMultiLineString && g->toMultiLineString()->getNumGeometries() > 0) {
+      first = g->toMultiLineString()->getGeometryRef(0);
+      last = g->toMultiLineString()->getGeometryRef(g->toMultiLineString()->getNumGeometries() - 1);
+    }
+    if (first && first->getNumPoints() > 0 && last->getNumPoints() > 0) {
+      x[0] = first->getX(0), y[0] = first->getY(0);
+      x[1] = last->getX(last->getNumPoints() - 1), y[1] = last->getY(last->getNumPoints() - 1);
+    } else if (type == wkbPoint) {
+      x[0] = x[1] = g->toPoint()->getX();
+      y[0] = y[1] = g->toPoint()->getY();
+    } else if (type == wkbMultiPoint && g->toMultiPoint()->getNumGeometries() > 0) {
+      x[0] = x[1] = g->toMultiPoint()->getGeometryRef(0)->getX();
+      y[0] = y[1] = g->toMultiPoint()->getGeometryRef(0)->getY();
+    }
+    if (to_lonlat && std::isfinite(x[0]) && !to_lonlat->Transform(2, x, y)) x[0] = x[1] = y[0] = y[1] = std::nan("");
+  }
+  rows.x0.push_back(x[0]);
+  rows.y0.push_back(y[0]);
+  rows.x1.push_back(x[1]);
+  rows.y1.push_back(y[1]);
+}
+
 double median_of(std::vector<double>& v) {
   const auto mid = v.begin() + static_cast<std::ptrdiff_t>(v.size() / 2);
   std::nth_element(v.begin(), mid, v.end());
   return *mid;
+}
+
+// Keeps row `row` of a field for the inference (numbers and distinct texts).
+void keep_value(FieldColumn& col, std::unordered_map<std::string, std::int32_t>& index, OGRFeature& f, int idx) {
+  double number = std::numeric_limits<double>::quiet_NaN();
+  std::int32_t text = -1;
+  if (f.IsFieldSetAndNotNull(idx)) {
+    const detail::RawNumber raw = detail::read_number(f, idx);
+    if (raw.state == detail::RawNumber::State::number) number = raw.value;
+    if (raw.state != detail::RawNumber::State::null) {
+      std::string t = f.GetFieldAsString(idx);
+      const auto [it, fresh] = index.try_emplace(t, static_cast<std::int32_t>(col.values.size()));
+      if (fresh) col.values.push_back(std::move(t));
+      text = it->second;
+    }
+  }
+  col.number.push_back(number);
+  col.text.push_back(text);
 }
 
 void add_value(Accumulator& a, OGRFeature& f, int idx, double line_m) {
@@ -134,6 +186,18 @@ LayerSummary summarise(OGRLayer& layer) {
     a.track_unique = id_like(a.s.name);
     if (a.track_unique) a.s.unique = true;
   }
+  LayerRows& rows = out.rows;
+  rows.columns.resize(acc.size());
+  std::vector<std::unordered_map<std::string, std::int32_t>> text_index(acc.size());
+  std::unique_ptr<OGRCoordinateTransformation> to_lonlat;
+  if (const OGRSpatialReference* srs = layer.GetSpatialRef()) {
+    OGRSpatialReference src(*srs), wgs84;
+    src.SetAxisMappingStrategy(OAMS_TRADITIONAL_GIS_ORDER);
+    wgs84.importFromEPSG(4326);
+    wgs84.SetAxisMappingStrategy(OAMS_TRADITIONAL_GIS_ORDER);
+    to_lonlat.reset(OGRCreateCoordinateTransformation(&src, &wgs84));
+    rows.lonlat = to_lonlat != nullptr;
+  }
   layer.ResetReading();
   for (;;) {
     OGRFeatureUniquePtr f(layer.GetNextFeature());
@@ -143,6 +207,13 @@ LayerSummary summarise(OGRLayer& layer) {
     ++out.geometry_counts[g && !g->IsEmpty() ? g->getGeometryName() : "(none)"];
     const double line_m = line_length_m(g, out.crs_geographic, out.crs_metres_per_unit);
     for (int i = 0; i < defn->GetFieldCount(); ++i) add_value(acc[static_cast<std::size_t>(i)], *f, i, line_m);
+    if (rows.count < LayerRows::max_rows) {
+      ++rows.count;
+      for (int i = 0; i < defn->GetFieldCount(); ++i)
+        keep_value(rows.columns[static_cast<std::size_t>(i)], text_index[static_cast<std::size_t>(i)], *f, i);
+      keep_ends(g, to_lonlat.get(), rows);
+      rows.length_m.push_back(line_m);
+    }
   }
   OGREnvelope env;
   if (out.feature_count > 0 && layer.GetExtent(&env, TRUE) == OGRERR_NONE) {

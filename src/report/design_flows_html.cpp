@@ -12,7 +12,8 @@ namespace {
 
 using units::Dimension;
 
-std::string cell(double si, Dimension d, units::System sys, const char* format = "%.3f") {
+std::string cell(double si, Dimension d, units::System sys) { return "<td>" + html::value(si, d, sys) + "</td>"; }
+std::string cell(double si, Dimension d, units::System sys, const char* format) {
   return "<td>" + html::value(si, d, sys, format) + "</td>";
 }
 
@@ -37,9 +38,7 @@ std::string design_flows_section(const run::CheckRun& run) {
   std::string h = "<section id=\"design-flows\"><h2>Design flows</h2>\n<p>" + xml_escape(cf.method) + ".</p>\n<p>" +
                   std::to_string(run.catchments.size()) + " catchments read (" + std::to_string(assigned) +
                   " drain to a structure), ";
-  char buf[64];
-  std::snprintf(buf, sizeof buf, "%.3f", to_report(area, Dimension::area, sys));
-  h += std::string(buf) + " " + std::string(units::unit_symbol(units::display_unit(Dimension::area, sys))) +
+  h += html::value(area, Dimension::area, sys) + " " + std::string(units::unit_symbol(units::display_unit(Dimension::area, sys))) +
        " in all. Figures at each pipe's upstream end, in upstream-first order of the network.</p>\n";
   h += "<table class=\"grid\">\n<tr><th>Pipe</th>" + head("Area", Dimension::area, sys);
   if (storm)
@@ -52,13 +51,11 @@ std::string design_flows_section(const run::CheckRun& run) {
     const auto& p = cf.pipes[ci];
     h += "<tr><td>" + xml_escape(net.conduits[ci].id) + "</td>" + cell(p.area_m2, Dimension::area, sys);
     if (storm)
-      h += cell(p.ca_m2, Dimension::area, sys) + cell(p.tc_s, Dimension::time, sys, "%.2f") +
-           cell(p.travel_time_s, Dimension::time, sys, "%.2f") +
-           cell(p.intensity_m_s, Dimension::intensity, sys, "%.2f");
+      h += cell(p.ca_m2, Dimension::area, sys) + cell(p.tc_s, Dimension::time, sys) +
+           cell(p.travel_time_s, Dimension::time, sys) + cell(p.intensity_m_s, Dimension::intensity, sys);
     else
       h += cell(p.population, Dimension::dimensionless, sys, "%.0f") +
-           cell(p.peaking_factor, Dimension::dimensionless, sys, "%.3f") +
-           cell(p.infiltration_m3_s, Dimension::flow, sys, "%.4f");
+           cell(p.peaking_factor, Dimension::dimensionless, sys) + cell(p.infiltration_m3_s, Dimension::flow, sys);
     h += cell(p.flow_m3_s, Dimension::flow, sys) + "</tr>\n";
   }
   return h + "</table>\n</section>\n";

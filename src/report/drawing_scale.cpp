@@ -1,5 +1,7 @@
 #include "report/drawing_scale.hpp"
 
+#include "rimline/finding.hpp"
+
 #include <algorithm>
 #include <cmath>
 #include <cstdio>
@@ -53,20 +55,7 @@ int decimals_for(double step) {
 }
 
 std::string station_label(double station, units::System system, int decimals) {
-  // SI chainage in km + metres; US stations of 100 ft.
-  const double major = system == units::System::us ? 100.0 : 1000.0;
-  const int width = system == units::System::us ? 2 : 3;
-  const bool negative = station < 0.0;
-  const double scale = std::pow(10.0, decimals);
-  const double a = std::round(std::fabs(station) * scale) / scale;
-  const double whole = std::floor(a / major + 1e-9);
-  const double rest = std::max(0.0, a - whole * major);
-  char buf[64];
-  if (decimals > 0)
-    std::snprintf(buf, sizeof buf, "%s%.0f+%0*.*f", negative ? "-" : "", whole, width + 1 + decimals, decimals, rest);
-  else
-    std::snprintf(buf, sizeof buf, "%s%.0f+%0*.0f", negative ? "-" : "", whole, width, rest);
-  return buf;
+  return station_notation(station, system, decimals);
 }
 
 std::vector<bool> thin_labels(const std::vector<double>& positions_mm, const std::vector<bool>& priority,

@@ -11,6 +11,7 @@
 #include <thread>
 
 #include "report/force_main_drawing.hpp"
+#include "report/budgets_csv.hpp"
 #include "report/profile_scene.hpp"
 #include "report/sheet_text.hpp"
 #include "report/svg_canvas.hpp"
@@ -179,6 +180,8 @@ void write_drawings(const run::CheckRun& run, StagedFiles& files, const DrawingO
                       &failed);
   });
   if (err) throw_write_failure(files.final_name(html_tmp), err, "");  // the report is not a drawing
+  // The budgets the report summarises (budgets_csv.hpp): bounded by the network, not by findings x depth.
+  files.write_stream("budgets.csv", [&run](std::ostream& out) { write_budgets_csv(run, out); });
 }
 
 }  // namespace rimline::report

@@ -234,7 +234,8 @@ void draw_band(const ProfileScene& s, const PlotFrame& f, const Panel& p, const 
     const auto& st = s.structures[i];
     const double px = f.px(st.station) + 0.7;
     const double v[] = {st.rim, st.invert, st.hgl};
-    for (int r = 0; r < 3; ++r) c.text({px, top + (r + 1) * value_row_h - 1.0}, fixed(v[r], 3), value);
+    const int decimals = display_decimals(units::Dimension::length, s.system, 0.0);  // mm or 0.01 ft
+    for (int r = 0; r < 3; ++r) c.text({px, top + (r + 1) * value_row_h - 1.0}, fixed(v[r], decimals), value);
   }
   // A pipe's two rotated lines need about two label gaps of width.
   std::vector<double> mids;
@@ -294,7 +295,9 @@ Pen pen_for(Stroke s) {
 std::string stroke_label(Stroke s, const ProfileScene& scene) {
   switch (s) {
     case Stroke::ground: return "Ground / rim";
-    case Stroke::freeboard: return "Required freeboard (rim - " + fixed(scene.freeboard, 3) + " " + scene.length_unit + ")";
+    case Stroke::freeboard:
+      return "Required freeboard (rim - " + fixed(scene.freeboard, display_decimals(units::Dimension::length, scene.system, 0.0)) +
+             " " + scene.length_unit + ")";
     case Stroke::invert: return "Pipe invert";
     case Stroke::crown: return "Pipe crown";
     case Stroke::hgl: return "HGL";

@@ -15,10 +15,7 @@ using units::Dimension;
 
 std::string esc(std::string_view s) { return xml_escape(s); }
 
-// Flows of small stations need a fourth decimal (0.0147 m3/s); the rest keeps the report's three.
-std::string val(double si, Dimension d, units::System sys) {
-  return html::value(si, d, sys, d == Dimension::flow ? "%.4f" : "%.3f");
-}
+std::string val(double si, Dimension d, units::System sys) { return html::value(si, d, sys); }
 
 std::string friction_text(const model::ForceMainSettings& s) {
   if (s.friction == hydraulics::FrictionLaw::hazen_williams) {
@@ -44,8 +41,8 @@ std::string station_block(const run::CheckRun& run, std::size_t i) {
   for (std::size_t j = 0; j < st.layout.chain.size(); ++j) {
     const auto& c = net.conduits[st.layout.chain[j]];
     const auto source = st.layout.sources[j];
-    mains += (mains.empty() ? "" : ", ") + esc(c.id) + " (" + val(hydraulics::rise_m(c.section), L, sys) + " " +
-             unit(L, sys) + ", " + val(c.length_m, L, sys) + " " + unit(L, sys) +
+    mains += (mains.empty() ? "" : ", ") + esc(c.id) + " (" + html::size(hydraulics::rise_m(c.section), sys) + ", " +
+             html::distance(c.length_m, sys) + " " + unit(L, sys) +
              (c.rated_pressure_head_m ? ", rated " + val(*c.rated_pressure_head_m, Dimension::pressure_head, sys) + " " +
                                             unit(L, sys) + " of head"
                                       : "") +

@@ -10,7 +10,9 @@
 #include <unordered_map>
 
 #include "base/number_text.hpp"
+#include "report/budgets_csv.hpp"
 #include "report/design_flows_html.hpp"
+#include "report/method_text.hpp"
 #include "report/html_cells.hpp"
 #include "report/html_style.hpp"
 #include "report/pump_station_html.hpp"
@@ -54,7 +56,7 @@ std::string summary_section(const run::CheckRun& run, const std::string& date) {
                            " derived), " + std::to_string(ns.conduits) + " conduits (" +
                            std::to_string(ns.marched_conduits) + " marched), " + std::to_string(ns.outfalls) +
                            " outfalls, " + std::to_string(ns.diversions) + " diversions, total length " +
-                           value(ns.total_length_m, Dimension::length, sys) + " " + unit(Dimension::length, sys)});
+                           html::distance(ns.total_length_m, sys) + " " + unit(Dimension::length, sys)});
   std::map<Severity, int> by_sev;
   for (const auto& f : run.findings) ++by_sev[f.severity];
   h += row({"Findings", std::to_string(by_sev[Severity::error]) + " errors, " +
@@ -87,7 +89,7 @@ std::string inputs_section(const run::CheckRun& run) {
     for (const auto& d : run.read.defaults_used) {
       std::string ex;
       for (const auto& id : d.example_ids) ex += (ex.empty() ? "" : ", ") + esc(id);
-      h += row({esc(layer_role_name(d.layer)), esc(d.text), std::to_string(d.count), ex});
+      h += row({esc(layer_role_name(d.layer)), esc(render_message(d.text, run.report_units)), std::to_string(d.count), ex});
     }
     h += "</table>\n";
   }
@@ -104,6 +106,14 @@ bool flows_row_in_use(const run::CheckRun& run, std::string_view id) {
   return p.flow_mode == config::FlowMode::sanitary && id == "harmon" && !p.sanitary.peaking_constant;
 }
 
+// nu in m2/s or ft2/s, four significant figures ("1.139e-06 m2/s").
+std::string viscosity_text(double nu_m2_s, units::System sys) {
+  const bool us = sys == units::System::us;
+  std::string t;
+  append_general(t, us ? nu_m2_s / (units::metres_per_foot * units::metres_per_foot) : nu_m2_s, 4);
+  return t + (us ? " ft2/s" : " m2/s");
+}
+
 std::string methods_section(const run::CheckRun& run) {
   const auto sys = run.report_units;
   const std::string friction(hydraulics::friction_law_name(run.project.methods.friction));
@@ -118,14 +128,42 @@ std::string methods_section(const run::CheckRun& run) {
       {"capacity_ratio_max", value(c.capacity_ratio_max, Dimension::dimensionless, sys)},
       {"cover_min", c.cover_min_m ? value(*c.cover_min_m, Dimension::length, sys) + " " + unit(Dimension::length, sys)
                                   : "off"}};
+  const std::string energy = structure_energy_id(run);
   std::string h = "<section id=\"methods\"><h2>Methods and criteria</h2>\n";
   h += "<p>Structure loss default K = " + value(run.march_options.default_k, Dimension::dimensionless, sys) +
-       ". Rows marked <span class=\"used\">in use</span> apply to this run.</p>\n<table class=\"grid\">\n";
+       ". Rows marked <span class=\"used\">in use</span> apply to this run.</p>\n";
+  h += "<p id=\"structure-energy\"><b>Structure energy (" + esc(energy) + ").</b> " + esc(structure_energy_text(run));
+  const auto own = structure_energy_exceptions(run);
+  if (!own.empty()) {
+    h += " Structures with their own bookkeeping:";
+    for (std::size_t i = 0; i < own.size(); ++i) h += std::string(i ? "," : "") + " " + esc(own[i].first) + " (" + esc(own[i].second) + ")";
+    h += ".";
+  }
+  h += "</p>\n<p id=\"velocity-rules\"><b>Velocity rules.</b> " + esc(velocity_rules_text(run));
+  const auto bases = velocity_basis_exceptions(run);
+  if (!bases.empty()) {
+    h += " Pipes with their own basis:";
+    for (std::size_t i = 0; i < bases.size(); ++i) h += std::string(i ? "," : "") + " " + esc(bases[i].first) + " (" + esc(bases[i].second) + ")";
+    h += ".";
+  }
+  const bool darcy = run.project.methods.friction == hydraulics::FrictionLaw::darcy_weisbach ||
+                     (!run.pump_stations.empty() && run.project.force_mains.friction == hydraulics::FrictionLaw::darcy_weisbach);
+  h += "</p>\n<p id=\"water\"><b>Water.</b> Temperature " +
+       fixed_text(units::from_si(run.project.methods.water_temperature_c, units::display_unit(Dimension::temperature, sys)), 1) +
+       " " + unit(Dimension::temperature, sys) + ", kinematic viscosity " + viscosity_text(run.kinematic_viscosity_m2_s, sys) +
+       (darcy ? " (Darcy-Weisbach's Reynolds number)." : " (not used: no Darcy-Weisbach friction in this run).") +
+       "</p>\n<table class=\"grid\">\n";
   h += row({"Group", "Method", "Description", "This run", "Source"}, "th");
   for (const auto& m : method_rows()) {
     std::string here;
     if (m.group == "friction") here = m.id == friction ? "<span class=\"used\">in use</span>" : "";
     else if (m.group == "structure loss") here = m.id == loss ? "<span class=\"used\">in use</span>" : "";
+    else if (m.group == "structure energy")
+      here = m.id == "receiving_water" || m.id == energy || (energy == "hec22" && m.id == "whole_loss") ||
+                     std::any_of(own.begin(), own.end(), [&](const auto& o) { return o.second == m.id; })
+                 ? "<span class=\"used\">in use</span>"
+                 : "";
+    else if (m.group == "water") here = darcy ? "<span class=\"used\">in use</span>" : "";
     else if (m.group == "profile") here = "<span class=\"used\">in use</span>";
     else if (m.group == "flows") here = flows_row_in_use(run, m.id) ? "<span class=\"used\">in use</span>" : "";
     else if (auto it = criterion_value.find(std::string(m.id)); it != criterion_value.end())
@@ -136,8 +174,9 @@ std::string methods_section(const run::CheckRun& run) {
   return h;
 }
 
-// The energy budget of a structure in the case with its highest HGL: tailwater plus each loss
-// down the governing route, summed back to the structure's level.
+// The energy budget of a structure in the case with its highest HGL: the level at the outfall plus
+// each term down the governing route, summed back to the structure's level, with what each term is
+// made of (K, the velocity whose head it multiplies, the pipe length) so a reviewer can redo it.
 std::string budget(const run::CheckRun& run, std::size_t s) {
   const auto sys = run.report_units;
   const std::size_t k = run.envelope_structure_case.empty() ? 0 : run.envelope_structure_case[s];
@@ -145,17 +184,33 @@ std::string budget(const run::CheckRun& run, std::size_t s) {
   if (!march.structures[s].solved) return "";
   const auto items = solve::loss_budget(run.read.network, march, s);
   if (items.empty()) return "";
-  const std::string u = unit(Dimension::length, sys);
+  const std::string u = unit(Dimension::length, sys), uv = unit(Dimension::velocity, sys);
   std::string h = "<details><summary>Energy budget to the outfall (" + esc(render_message(run.cases[k].label, sys)) +
                   ")</summary>\n<table class=\"budget\">\n";
-  h += row({"Item", "Feature", "Head (" + u + ")", "Level (" + u + ")"}, "th");
+  h += row({"Item", "Feature", "How", "K", "V (" + uv + ")", "V&#178;/2g (" + u + ")", "Length (" + u + ")",
+            "Head (" + u + ")", "Level (" + u + ")"},
+           "th");
+  // Bounded (issue 18, defect 9): the terms nearest the structure, the rest one summary row; the
+  // whole budget, shared with the others along its route, is in budgets.csv.
+  const std::size_t first_shown = items.size() > budget_rows_shown ? items.size() - budget_rows_shown : 0;
   double level = 0.0;
-  for (const auto& it : items) {
+  for (std::size_t i = 0; i < first_shown; ++i) level += items[i].head_m;
+  if (first_shown > 0)
+    h += "<tr class=\"summarised\"><td colspan=\"7\">" + esc(items[0].kind) + " and the next " +
+         std::to_string(first_shown - 1) + " terms down the route, from " + esc(items[first_shown - 1].feature_id) +
+         " to the outfall (every term: budgets.csv, budget " + esc(run.read.network.structures[s].id) + ")</td><td>" +
+         value(level, Dimension::length, sys) + "</td><td>" + value(level, Dimension::length, sys) + "</td></tr>\n";
+  for (std::size_t i = first_shown; i < items.size(); ++i) {
+    const auto& it = items[i];
     level += it.head_m;
-    h += row({esc(it.kind), esc(it.feature_id), value(it.head_m, Dimension::length, sys),
+    std::string how = it.basis;
+    if (it.jump_m > 0.0) how += "; jump " + value(it.jump_m, Dimension::length, sys) + " " + u;
+    h += row({esc(it.kind), esc(it.feature_id), esc(how), value(it.k, Dimension::dimensionless, sys),
+              value(it.velocity_m_s, Dimension::velocity, sys), value(it.velocity_head_m, Dimension::length, sys),
+              html::distance(it.length_m, sys), value(it.head_m, Dimension::length, sys),
               value(level, Dimension::length, sys)});
   }
-  h += "<tr class=\"total\"><td colspan=\"3\">HGL in the structure</td><td>" +
+  h += "<tr class=\"total\"><td colspan=\"8\">HGL in the structure (its energy level)</td><td>" +
        value(march.structures[s].hgl_m, Dimension::length, sys) + "</td></tr>\n";
   h += "</table></details>";
   return h;
@@ -214,10 +269,14 @@ std::string findings_table(const run::CheckRun& run, const std::vector<const Fin
         h += finding_row(*f, sys);
         // Budgets answer "why is the HGL this high here": asked of warnings and errors, not of
         // notes such as an unknown rim (thousands of them in a municipal export).
-        if (!budgets || f->layer != LayerRole::structures || f->severity == Severity::info || run.cases.empty()) continue;
+        if (!budgets || !has_budget(*f) || run.cases.empty()) continue;
         const auto it = structure_index.find(f->feature_id);
         if (it == structure_index.end()) continue;
-        const std::string b = budget(run, it->second);
+        std::size_t s = it->second;  // where ids repeat, the structure with the finding's fid
+        if (f->fid >= 0 && run.read.network.structures[s].fid != f->fid)
+          for (std::size_t t = 0; t < run.read.network.structures.size(); ++t)
+            if (run.read.network.structures[t].fid == f->fid && run.read.network.structures[t].id == f->feature_id) s = t;
+        const std::string b = budget(run, s);
         if (!b.empty()) h += "<tr class=\"budget-row\"><td></td><td colspan=\"7\">" + b + "</td></tr>\n";
       }
       if (total > rows_per_code)
@@ -244,13 +303,17 @@ std::string data_findings_section(const run::CheckRun& run, const std::vector<co
   return h;
 }
 
-std::string fixed3(double v) {
+// A figure of a drawing, already in the report's units, with the given decimals; empty when unknown.
+std::string fixed_or_empty(double v, int decimals) {
   if (!std::isfinite(v)) return "";
-  return fixed_text(v, 3);
+  return fixed_text(v, decimals);
 }
 
 // One row per drawing, so a reviewer sees where the tightest freeboard of each path is.
-std::string profile_index(const std::vector<RenderedProfile>& profiles, const std::string& u) {
+std::string profile_index(const std::vector<RenderedProfile>& profiles, units::System sys) {
+  const std::string u = unit(Dimension::length, sys);
+  const int level_decimals = display_decimals(Dimension::length, sys, 0.0);
+  const int distance_decimals = sys == units::System::us ? 0 : 1;
   std::string h = "<table class=\"grid\" id=\"profile-index\">\n";
   h += row({"Profile", "Path and case", "Length (" + u + ")", "Structures", "Least freeboard (" + u + ")", "At",
             "Findings marked"},
@@ -258,15 +321,15 @@ std::string profile_index(const std::vector<RenderedProfile>& profiles, const st
   for (std::size_t k = 0; k < profiles.size(); ++k) {
     const auto& p = profiles[k];
     const std::string target = k < max_inline_profiles ? "#figure-" + esc(p.name) : "profiles/" + esc(p.name) + ".svg";
-    h += row({"<a href=\"" + target + "\">" + esc(p.name) + "</a>", esc(p.caption), fixed3(p.length),
-              std::to_string(p.structures), fixed3(p.least_freeboard), esc(p.least_freeboard_at),
+    h += row({"<a href=\"" + target + "\">" + esc(p.name) + "</a>", esc(p.caption), fixed_or_empty(p.length, distance_decimals),
+              std::to_string(p.structures), fixed_or_empty(p.least_freeboard, level_decimals), esc(p.least_freeboard_at),
               std::to_string(p.findings)});
   }
   h += "</table>\n";
   return h;
 }
 
-std::string profiles_section(const std::vector<RenderedProfile>& profiles, bool pdf_written, const std::string& u,
+std::string profiles_section(const std::vector<RenderedProfile>& profiles, bool pdf_written, units::System sys,
                              const std::string& selection) {
   std::string h = "<section id=\"profiles\"><h2>Profiles</h2>\n<p>" + esc(selection) +
                   (selection.empty() ? "" : " ") + "Station 0 at the outfall, increasing upstream. ";
@@ -277,7 +340,7 @@ std::string profiles_section(const std::vector<RenderedProfile>& profiles, bool 
     h += "<p>The first " + std::to_string(max_inline_profiles) + " of " + std::to_string(profiles.size()) +
          " profiles are shown below; every profile is linked from the index.</p>\n";
   if (profiles.empty()) h += "<p>No path with a pipe was found: no profile drawn.</p>\n";
-  else h += profile_index(profiles, u);
+  else h += profile_index(profiles, sys);
   for (std::size_t k = 0; k < profiles.size() && k < max_inline_profiles; ++k) {
     const auto& p = profiles[k];
     h += "<figure class=\"profile-figure\" id=\"figure-" + esc(p.name) + "\">\n" + p.svg + "<figcaption>Profile " +
@@ -318,10 +381,11 @@ void write_report_html(std::ostream& out, const run::CheckRun& run, const std::v
   out << summary_section(run, date) << inputs_section(run) << methods_section(run) << design_flows_section(run);
   out << "<section id=\"exceptions\"><h2>Exception list</h2>\n<p>Design criteria not met, worst case over the "
          "tailwater cases, by severity. A structure warning or error opens to its energy budget down to the "
-         "outfall.</p>\n";
+         "outfall: the " + std::to_string(budget_rows_shown) + " terms nearest the structure, the rest summarised in one "
+         "row; budgets.csv holds every term, each once where budgets share their route.</p>\n";
   out << findings_table(run, criteria, "exception-table", true) << "</section>\n";
   out << pump_stations_section(run);
-  out << profiles_section(profiles, pdf_written, unit(Dimension::length, run.report_units), selection);
+  out << profiles_section(profiles, pdf_written, run.report_units, selection);
   out << data_findings_section(run, data);
   out << "</main>\n<footer><p class=\"caution\" id=\"caution\">" << esc(caution)
       << "</p></footer>\n</body>\n</html>\n";

@@ -170,11 +170,14 @@ class Writer {
     else f.SetFieldNull(ix(f, name));
   }
 
-  // The case label as shown, rendered once per case rather than once per feature.
-  const std::string& case_label(std::size_t k) {
-    if (case_labels_.empty())
+  // The case label as shown, rendered once per case rather than once per feature; `every`: the
+  // figure is the same in every case of the sweep.
+  const std::string& case_label(std::size_t k, bool every = false) {
+    if (case_labels_.empty()) {
       for (const auto& c : run_.cases) case_labels_.push_back(render_message(c.label, sys_));
-    return case_labels_[k];
+      case_labels_.emplace_back(run::every_case);
+    }
+    return every ? case_labels_.back() : case_labels_[k];
   }
 
   // Flows modes "rational" / "sanitary": each catchment with the figures used and its outlet.
@@ -259,7 +262,8 @@ class Writer {
       if (!run_.cases.empty()) {
         const auto& c = run_.cases[run_.envelope_structure_case[s]];
         const auto& r = c.march.structures[s];
-        rows.text(case_col, case_label(run_.envelope_structure_case[s]));
+        const auto env = run::structure_envelope(run_, s);
+        rows.text(case_col, case_label(env.index, env.every));
         if (r.solved) {
           put(rows, hgl, r.hgl_m, Dimension::length);
           put(rows, egl, r.egl_m, Dimension::length);
@@ -279,11 +283,13 @@ class Writer {
 
   std::vector<Column> conduit_columns() const {
     std::vector<Column> out;
-    for (const char* n : {"id", "from_id", "to_id", "shape", "regime", "governs", "profile_class", "note", "tailwater_case"})
+    for (const char* n : {"id", "from_id", "to_id", "shape", "regime", "governs", "profile_class", "note", "tailwater_case",
+                          "velocity_selfclean_basis", "velocity_selfclean_case", "velocity_highest_case"})
       out.push_back({n, OFTString});
     for (const char* n : {"rise", "width", "length", "slope", "flow", "capacity", "capacity_ratio", "velocity_up",
                           "velocity_down", "depth_up", "depth_down", "hgl_up", "hgl_down", "egl_up", "egl_down",
-                          "normal_depth", "critical_depth", "surcharged_length", "invert_up", "invert_down"})
+                          "normal_depth", "critical_depth", "surcharged_length", "invert_up", "invert_down",
+                          "velocity_selfclean", "velocity_highest"})
       out.push_back({n, OFTReal});
     out.push_back({"reversed", OFTInteger});
     for (const char* n : design_columns()) out.push_back({n, OFTReal});
@@ -337,7 +343,8 @@ class Writer {
   struct ConduitColumns {
     int id, from_id, to_id, shape, regime, governs, profile_class, note, tailwater_case, rise, width, length, slope,
         flow, capacity, capacity_ratio, velocity_up, velocity_down, depth_up, depth_down, hgl_up, hgl_down, egl_up,
-        egl_down, normal_depth, critical_depth, surcharged_length, invert_up, invert_down, reversed;
+        egl_down, normal_depth, critical_depth, surcharged_length, invert_up, invert_down, reversed,
+        selfclean, selfclean_basis, selfclean_case, highest, highest_case;
     explicit ConduitColumns(const GpkgRows& r)
         : id(r.column("id")), from_id(r.column("from_id")), to_id(r.column("to_id")), shape(r.column("shape")),
           regime(r.column("regime")), governs(r.column("governs")), profile_class(r.column("profile_class")),
@@ -349,19 +356,28 @@ class Writer {
           hgl_down(r.column("hgl_down")), egl_up(r.column("egl_up")), egl_down(r.column("egl_down")),
           normal_depth(r.column("normal_depth")), critical_depth(r.column("critical_depth")),
           surcharged_length(r.column("surcharged_length")), invert_up(r.column("invert_up")),
-          invert_down(r.column("invert_down")), reversed(r.column("reversed")) {}
+          invert_down(r.column("invert_down")), reversed(r.column("reversed")),
+          selfclean(r.column("velocity_selfclean")), selfclean_basis(r.column("velocity_selfclean_basis")),
+          selfclean_case(r.column("velocity_selfclean_case")), highest(r.column("velocity_highest")),
+          highest_case(r.column("velocity_highest_case")) {}
   };
 
   // Pipes that could not be solved go to their own layer with the reason, so that every row of
-  // `conduits` carries a full set of figures.
+  // `conduits` carries a full set of figures. A force main of a laid-out pump station is neither:
+  // it is checked with its station and has its row in `force_mains`.
   void write_conduit_rows(SqliteDb& db, std::vector<SpatialIndexRequest>& indexes) {
     GpkgRows solved_rows = rows_of(db, "conduits"), unsolved_rows = rows_of(db, "conduits_not_checked");
     const ConduitColumns col(solved_rows);  // the two tables have the same columns
     const DesignColumns design = design_columns_of(solved_rows);
     const auto& net = run_.read.network;
+    std::vector<bool> with_station(net.conduits.size(), false);
+    for (const auto& st : run_.pump_stations)
+      if (st.layout.ok)
+        for (std::size_t ci : st.layout.chain) with_station[ci] = true;
     std::vector<double> xy;
     for (std::size_t ci = 0; ci < net.conduits.size(); ++ci) {
       const auto& c = net.conduits[ci];
+      if (with_station[ci]) continue;
       const bool solved =
           !run_.cases.empty() && run_.cases[run_.envelope_conduit_case[ci]].march.conduits[ci].solved;
       GpkgRows& rows = solved ? solved_rows : unsolved_rows;
@@ -378,7 +394,8 @@ class Writer {
       if (!run_.cases.empty()) {
         const auto& cs = run_.cases[run_.envelope_conduit_case[ci]];
         const auto& r = cs.march.conduits[ci];
-        rows.text(col.tailwater_case, case_label(run_.envelope_conduit_case[ci]));
+        const auto env = run::conduit_envelope(run_, ci);
+        rows.text(col.tailwater_case, case_label(env.index, env.every));
         if (!r.note.empty()) rows.text(col.note, r.note);
         put(rows, col.flow, r.flow_m3_s, Dimension::flow);
         if (r.solved) {
@@ -402,6 +419,16 @@ class Writer {
           rows.text(col.regime, hydraulics::regime_name(p.regime));
           rows.text(col.governs, hydraulics::governs_name(p.governs));
           rows.text(col.profile_class, p.profile_class);
+          // The velocities the two velocity rules compared, each from the case that governs it.
+          const auto basis = checks::criteria_for(run_.criteria, run_.overrides.conduits, c.id).velocity_basis;
+          const auto lo = ci < run_.envelope_velocity_low.size() ? run_.envelope_velocity_low[ci] : run::EnvelopeCase{};
+          const auto low = checks::self_cleansing_velocity(c, run_.cases[lo.index].march.conduits[ci], basis);
+          put(rows, col.selfclean, low.velocity_m_s, Dimension::velocity);
+          rows.text(col.selfclean_basis, low.basis);
+          rows.text(col.selfclean_case, case_label(lo.index, lo.every));
+          const auto hi = ci < run_.envelope_velocity_high.size() ? run_.envelope_velocity_high[ci] : run::EnvelopeCase{};
+          put(rows, col.highest, checks::highest_velocity_m_s(run_.cases[hi.index].march.conduits[ci]), Dimension::velocity);
+          rows.text(col.highest_case, case_label(hi.index, hi.every));
         }
       }
       xy.clear();

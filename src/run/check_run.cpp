@@ -7,7 +7,11 @@
 #include <unordered_map>
 #include <unordered_set>
 
+#include "rimline/hydraulics/friction.hpp"
 #include "run/catchment_run.hpp"
+#include "run/ground_rims.hpp"
+#include "run/level_checks.hpp"
+#include "run/project_checks.hpp"
 #include "run/input_hashes.hpp"
 #include "run/pump_run.hpp"
 
@@ -28,7 +32,12 @@ solve::MarchOptions march_options_from(const config::Project& p) {
   m.k_by_type = p.methods.k_by_type;
   if (p.structure_defaults.loss_k) m.default_k = *p.structure_defaults.loss_k;
   m.default_structure_diameter_m = p.structure_defaults.diameter_m;
+  m.structure_energy = p.methods.structure_energy;
   return m;
+}
+
+checks::VelocityBasis basis_of(config::VelocityMinBasis b) {
+  return b == config::VelocityMinBasis::full_flow ? checks::VelocityBasis::full_flow : checks::VelocityBasis::normal_depth;
 }
 
 checks::Criteria criteria_from(const config::Project& p) {
@@ -38,13 +47,16 @@ checks::Criteria criteria_from(const config::Project& p) {
   c.velocity_max_m_s = p.criteria.velocity_max_m_s;
   c.capacity_ratio_max = p.criteria.capacity_ratio_max;
   c.cover_min_m = p.criteria.cover_min_m;
+  c.velocity_basis = basis_of(p.criteria.velocity_min_basis);
   return c;
 }
 
 checks::CriteriaOverrides overrides_from(const config::Project& p) {
   checks::CriteriaOverrides out;
   auto convert = [](const config::CriteriaOverride& o) {
-    return checks::Override{o.freeboard_m, o.velocity_min_m_s, o.velocity_max_m_s, o.capacity_ratio_max, o.cover_min_m};
+    checks::Override c{o.freeboard_m, o.velocity_min_m_s, o.velocity_max_m_s, o.capacity_ratio_max, o.cover_min_m, {}};
+    if (o.velocity_min_basis) c.velocity_basis = basis_of(*o.velocity_min_basis);
+    return c;
   };
   for (const auto& [id, o] : p.structure_criteria) out.structures[id] = convert(o);
   for (const auto& [id, o] : p.conduit_criteria) out.conduits[id] = convert(o);
@@ -82,7 +94,7 @@ class DrawnFeatures {
 // The worst criteria finding per feature and question over the cases, moved out of the cases'
 // lists; those the drawings can show are copied instead, and the cases keep only those (a city's
 // run has ~10^6 findings: held twice they were ~0.3 GB).
-Findings worst_per_feature(std::vector<Case>& cases, const DrawnFeatures& drawn) {
+Findings worst_per_feature(std::vector<Case>& cases, const DrawnFeatures& drawn, std::vector<std::string>& case_of) {
   // The fid is part of the key: two features sharing an id each keep their own finding (issue 18).
   struct Key {
     std::string_view code, id;
@@ -102,6 +114,9 @@ Findings worst_per_feature(std::vector<Case>& cases, const DrawnFeatures& drawn)
   struct Winner {
     std::size_t case_index, finding;
     double badness;
+    std::size_t first_case, first_finding;  // where the key was met first
+    std::size_t seen;                       // in how many cases
+    bool same;                              // the same message in every case met so far
   };
   std::size_t total = 0;
   for (const auto& c : cases) total += c.findings.size();
@@ -117,8 +132,14 @@ Findings worst_per_feature(std::vector<Case>& cases, const DrawnFeatures& drawn)
       const std::string_view key_code = f.code == "FLOODED" ? std::string_view("FREEBOARD") : std::string_view(f.code);
       const double b = badness(f);
       const auto [it, fresh] = slot.try_emplace(Key{key_code, f.feature_id, f.layer, f.fid}, winners.size());
-      if (fresh) winners.push_back({k, i, b});
-      else if (b > winners[it->second].badness) winners[it->second] = {k, i, b};
+      if (fresh) {
+        winners.push_back({k, i, b, k, i, 1, true});
+        continue;
+      }
+      Winner& w = winners[it->second];
+      w.seen += 1;
+      w.same = w.same && f.message == cases[w.first_case].findings[w.first_finding].message;
+      if (b > w.badness) w.case_index = k, w.finding = i, w.badness = b;
     }
   }
   // What each case keeps, decided before any finding moves.
@@ -128,11 +149,16 @@ Findings worst_per_feature(std::vector<Case>& cases, const DrawnFeatures& drawn)
   slot = {};  // its keys view the findings' strings
   Findings out;
   out.reserve(winners.size());
+  case_of.clear();
+  case_of.reserve(winners.size());
   for (const auto& w : winners) {
     Finding& f = cases[w.case_index].findings[w.finding];
     if (shown[w.case_index][w.finding]) out.push_back(f);
     else out.push_back(std::move(f));  // the case drops it below
-    if (cases.size() > 1) out.back().message += " (" + cases[w.case_index].label + ")";
+    // The case that governs it, or every case when the finding reads the same in each.
+    const bool every = cases.size() > 1 && w.seen == cases.size() && w.same;
+    case_of.push_back(every ? std::string(every_case) : cases[w.case_index].label);
+    if (cases.size() > 1) out.back().message += " (" + case_of.back() + ")";
   }
   for (std::size_t k = 0; k < cases.size(); ++k) {
     auto& list = cases[k].findings;
@@ -151,7 +177,8 @@ Findings worst_per_feature(std::vector<Case>& cases, const DrawnFeatures& drawn)
 
 // run.findings: the data findings and the criteria findings in output order, each marked by origin
 // (sorted through an index, so each finding is copied or moved once, straight to its place).
-void merge_findings(CheckRun& run, Findings criteria) {
+void merge_findings(CheckRun& run, Findings criteria, const std::vector<std::string>& data_case,
+                    const std::vector<std::string>& criteria_case) {
   const std::size_t nd = run.data_findings.size();
   auto at = [&](std::size_t k) -> const Finding& { return k < nd ? run.data_findings[k] : criteria[k - nd]; };
   std::vector<std::size_t> order(nd + criteria.size());
@@ -160,38 +187,112 @@ void merge_findings(CheckRun& run, Findings criteria) {
   run.findings.clear();
   run.findings.reserve(order.size());
   run.data_finding.assign(order.size(), false);
+  run.finding_case.assign(order.size(), std::string());
   for (std::size_t k = 0; k < order.size(); ++k) {
     const std::size_t from = order[k];
     if (from < nd) run.findings.push_back(run.data_findings[from]);
     else run.findings.push_back(std::move(criteria[from - nd]));
     run.data_finding[k] = from < nd;
+    const auto& labels = from < nd ? data_case : criteria_case;
+    const std::size_t pos = from < nd ? from : from - nd;
+    if (pos < labels.size()) run.finding_case[k] = labels[pos];
   }
 }
 
-std::string case_label(double tw) {
-  if (!std::isfinite(tw)) return "free outfall";
-  return "tailwater " + q(tw, units::Dimension::length);
+// What sets the level at the outfalls in a case: the run's level (outfalls with their own tailwater
+// field keep it), the outfalls' fields alone, or free outlets.
+std::string case_label(double tw, const config::Project& p, const model::Network& net, const topology::Topology& topo) {
+  std::size_t with_field = 0, outfalls = 0;
+  for (const auto& tree : topo.trees) {
+    ++outfalls;
+    with_field += net.structures[tree.outfall].tailwater_m ? 1 : 0;
+  }
+  if (p.tailwater_mode == config::TailwaterMode::free) return "free outfall";
+  if (std::isfinite(tw))
+    return "tailwater " + q(tw, units::Dimension::length) + (with_field ? " (outfall fields where given)" : "");
+  if (with_field == 0) return "free outfall";
+  return with_field == outfalls ? "outfall tailwater fields" : "outfall tailwater fields (free outfall elsewhere)";
 }
 
-// TOPOLOGY_NO_OUTFALL: a tree that ends at a manhole, inlet or junction when the export types its
-// structures: it names no outfall there (a missing outfall, a pipe missing downstream, a cut loop).
-// Untyped layers (every structure a manhole by default) are left out: there the end is the only clue.
-void report_untyped_outfalls(const config::Project& project, const model::Network& net, const topology::Topology& topo,
-                             Findings& findings) {
-  if (project.structures.source.empty() || project.structure_fields.type.empty()) return;
-  using K = model::StructureKind;
-  for (const auto& tree : topo.trees) {
-    const auto& st = net.structures[tree.outfall];
-    if (st.kind != K::manhole && st.kind != K::inlet && st.kind != K::junction) continue;
-    Finding f;
-    f.code = "TOPOLOGY_NO_OUTFALL";
-    f.severity = Severity::warning;
-    f.layer = LayerRole::structures;
-    f.feature_id = st.id;
-    f.fid = st.fid;
-    f.message = "structure " + st.id + " is a " + std::string(model::structure_kind_name(st.kind)) +
-                ", not an outfall, but no marched pipe leaves it; its tree is marched from it as if it were the outfall";
-    findings.push_back(std::move(f));
+// The march problems of every case, each once, labelled with the cases it arose in.
+void gather_march_findings(std::vector<Case>& cases, Findings& into, std::vector<std::string>& case_of) {
+  std::unordered_map<std::string, std::size_t> seen;  // key -> index into `into`
+  std::vector<std::vector<std::size_t>> in_cases;
+  const std::size_t base = into.size();
+  for (std::size_t k = 0; k < cases.size(); ++k) {
+    for (auto& f : cases[k].march.findings) {
+      const std::string key = f.code + '\x1f' + std::to_string(static_cast<int>(f.layer)) + '\x1f' + f.feature_id +
+                              '\x1f' + std::to_string(f.fid) + '\x1f' + f.message;  // fid: ids may repeat
+      const auto [it, fresh] = seen.try_emplace(key, into.size());
+      if (fresh) {
+        into.push_back(std::move(f));
+        in_cases.emplace_back();
+      }
+      in_cases[it->second - base].push_back(k);
+    }
+    Findings().swap(cases[k].march.findings);
+  }
+  case_of.resize(base);
+  for (const auto& ks : in_cases) {
+    if (cases.size() > 1 && ks.size() == cases.size()) {
+      case_of.emplace_back(every_case);
+      continue;
+    }
+    std::string label;
+    for (std::size_t k : ks) label += (label.empty() ? "" : "; ") + cases[k].label;
+    case_of.push_back(label);
+  }
+}
+
+bool same_value(double a, double b) { return std::fabs(a - b) <= 1e-9 * std::max(1.0, std::fabs(a)); }
+
+// Each envelope figure from the case that governs it (see CheckRun), ties to the first case.
+void compute_envelope(CheckRun& run) {
+  const auto& net = run.read.network;
+  const std::size_t ns = net.structures.size(), nc = net.conduits.size(), cases = run.cases.size();
+  run.envelope_structure_case.assign(ns, 0);
+  run.envelope_structure_every.assign(ns, cases > 1);
+  for (std::size_t s = 0; s < ns; ++s) {
+    for (std::size_t k = 1; k < cases; ++k) {
+      const auto& best = run.cases[run.envelope_structure_case[s]].march.structures[s];
+      const auto& cand = run.cases[k].march.structures[s];
+      if (cand.solved && (!best.solved || cand.hgl_m > best.hgl_m)) run.envelope_structure_case[s] = k;
+      const auto& first = run.cases[0].march.structures[s];
+      if (!(cand.solved && first.solved && same_value(cand.hgl_m, first.hgl_m))) run.envelope_structure_every[s] = false;
+    }
+  }
+  run.envelope_conduit_case.assign(nc, 0);
+  run.envelope_conduit_every.assign(nc, cases > 1);
+  run.envelope_velocity_high.assign(nc, {0, cases > 1});
+  run.envelope_velocity_low.assign(nc, {0, cases > 1});
+  for (std::size_t ci = 0; ci < nc; ++ci) {
+    const auto& c = net.conduits[ci];
+    const auto basis = checks::criteria_for(run.criteria, run.overrides.conduits, c.id).velocity_basis;
+    auto level_key = [&](std::size_t k) {
+      const auto s = checks::surcharge_of(c, run.cases[k].march.conduits[ci]);
+      return std::pair<bool, double>{s.surcharged, s.surcharged ? std::max(s.crown_excess_m, 0.0) : s.crown_excess_m};
+    };
+    auto v_high = [&](std::size_t k) { return checks::highest_velocity_m_s(run.cases[k].march.conduits[ci]); };
+    auto v_low = [&](std::size_t k) {
+      return checks::self_cleansing_velocity(c, run.cases[k].march.conduits[ci], basis).velocity_m_s;
+    };
+    auto solved = [&](std::size_t k) { return run.cases[k].march.conduits[ci].solved; };
+    for (std::size_t k = 1; k < cases; ++k) {
+      const bool both = solved(k) && solved(0);
+      auto& lv = run.envelope_conduit_case[ci];
+      if (solved(k) && (!solved(lv) || level_key(k) > level_key(lv))) lv = k;
+      const auto& p0 = run.cases[0].march.conduits[ci].profile;
+      const auto& pk = run.cases[k].march.conduits[ci].profile;
+      if (!both || !same_value(p0.inlet().hgl_m, pk.inlet().hgl_m) || !same_value(p0.outlet().hgl_m, pk.outlet().hgl_m) ||
+          !same_value(p0.surcharged_length_m, pk.surcharged_length_m))
+        run.envelope_conduit_every[ci] = false;
+      auto& hi = run.envelope_velocity_high[ci];
+      if (solved(k) && (!solved(hi.index) || v_high(k) > v_high(hi.index))) hi.index = k;
+      if (!both || !same_value(v_high(k), v_high(0))) hi.every = false;
+      auto& lo = run.envelope_velocity_low[ci];
+      if (solved(k) && (!solved(lo.index) || v_low(k) < v_low(lo.index))) lo.index = k;
+      if (!both || !same_value(v_low(k), v_low(0))) lo.every = false;
+    }
   }
 }
 
@@ -226,6 +327,25 @@ void fill_unique_fids(const model::Network& net, Findings& findings) {
 
 }  // namespace
 
+EnvelopeCase structure_envelope(const CheckRun& run, std::size_t s) {
+  EnvelopeCase e;
+  if (s < run.envelope_structure_case.size()) e.index = run.envelope_structure_case[s];
+  if (s < run.envelope_structure_every.size()) e.every = run.envelope_structure_every[s];
+  return e;
+}
+
+EnvelopeCase conduit_envelope(const CheckRun& run, std::size_t ci) {
+  EnvelopeCase e;
+  if (ci < run.envelope_conduit_case.size()) e.index = run.envelope_conduit_case[ci];
+  if (ci < run.envelope_conduit_every.size()) e.every = run.envelope_conduit_every[ci];
+  return e;
+}
+
+std::string envelope_label(const CheckRun& run, std::size_t case_index, bool every) {
+  if (every) return every_case;
+  return case_index < run.cases.size() ? run.cases[case_index].label : std::string();
+}
+
 double badness(const Finding& f) {
   if (f.code == "FREEBOARD" || f.code == "FLOODED" || f.code == "VELOCITY_LOW" || f.code == "COVER") return -f.value;
   return std::isfinite(f.value) ? f.value : 0.0;
@@ -238,6 +358,7 @@ CheckRun run_check(const config::Project& project, const RunOptions& options) {
   auto stage = [&options](const std::string& name) {
     if (options.progress) options.progress(name);
   };
+  if (!options.dry_run) require_flow_source(project);  // before a city's layers are read
   stage("reading the layers");
   run.read = gis::read_network(project);
   auto files_read = [&run] {
@@ -246,20 +367,40 @@ CheckRun run_check(const config::Project& project, const RunOptions& options) {
     return files;
   };
   InputHashes hashes(files_read(), run.read.read_hashes);
+  // Darcy-Weisbach's Reynolds number uses the viscosity of water at the project's temperature
+  // (default 15 degC), for the gravity pipes and the force mains alike.
+  run.kinematic_viscosity_m2_s = hydraulics::water_kinematic_viscosity_m2_s(project.methods.water_temperature_c);
+  for (auto& c : run.read.network.conduits) c.roughness.kinematic_viscosity_m2_s = run.kinematic_viscosity_m2_s;
   stage("connecting the network");
   run.data_findings = run.read.findings;
   topology::TopologyOptions topo_opt;
   topo_opt.snap_tolerance_m = project.snap_tolerance_m;
+  topo_opt.outfall_ids = project.outfalls.ids;
+  topo_opt.direction_from_inverts = project.flow_direction == config::FlowDirection::inverts;
   run.topology = topology::build_topology(run.read.network, topo_opt, run.data_findings);
-  report_untyped_outfalls(project, run.read.network, run.topology, run.data_findings);
+  for (auto& s : run.read.network.structures)  // an outfall's own level from the project beats its field
+    if (const auto it = project.outfalls.tailwater_m.find(s.id); it != project.outfalls.tailwater_m.end())
+      s.tailwater_m = it->second;
+  apply_ground(project, run.read.network, run.read.input_files, run.data_findings);
+  check_declared_units(project, run.data_findings);
+  check_levels(project, run.read.network, run.topology, run.data_findings);
+  report_unknown_ids(project, run.read.network, run.data_findings);
+  report_outfalls(project, run.read.network, run.topology, run.data_findings);
   run.criteria = criteria_from(project);
   run.overrides = overrides_from(project);
   run.march_options = march_options_from(project);
+  for (std::size_t s = 0; s < run.read.network.structures.size(); ++s) {
+    const auto it = project.methods.structure_energy_by_id.find(run.read.network.structures[s].id);
+    if (it != project.methods.structure_energy_by_id.end()) run.march_options.structure_energy_at[s] = it->second;
+  }
   const bool from_catchments =
       project.flow_mode == config::FlowMode::rational || project.flow_mode == config::FlowMode::sanitary;
-  if (from_catchments) assign_catchment_outlets(project, run);
+  if (from_catchments) {
+    assign_catchment_outlets(project, run);
+    require_catchments_used(project, run);
+  }
   if (options.dry_run) {
-    merge_findings(run, {});
+    merge_findings(run, {}, {}, {});
     run.inputs = hashes.finish(files_read());
     return run;
   }
@@ -300,7 +441,7 @@ CheckRun run_check(const config::Project& project, const RunOptions& options) {
       stage("march " + std::to_string(run.cases.size() + 1) + "/" + std::to_string(levels.size()));
       Case c;
       c.tailwater_m = tw;
-      c.label = case_label(tw);
+      c.label = case_label(tw, project, run.read.network, run.topology);
       auto opt = run.march_options;
       opt.tailwater_m = tw;
       c.march = solve::march(run.read.network, run.topology, run.flows.flow_m3_s, opt);
@@ -325,34 +466,24 @@ CheckRun run_check(const config::Project& project, const RunOptions& options) {
                                      std::to_string(max_pump_iterations) +
                                      " rounds (flow change 0.5 % or more); the pump-station figures are approximate."});
   run.wet_well_inflow_m3_s = wet_well_inflows(layouts, flow_opt, run);
-  // March problems (blocked, not converged) are the same in every case but the first is kept.
-  auto& march_findings = run.cases.front().march.findings;
-  run.data_findings.insert(run.data_findings.end(), std::make_move_iterator(march_findings.begin()),
-                           std::make_move_iterator(march_findings.end()));
-  for (auto& c : run.cases) Findings().swap(c.march.findings);
+  // March problems (blocked, not converged, estimated inverts...) of every case, each once.
+  std::vector<std::string> data_case;
+  gather_march_findings(run.cases, run.data_findings, data_case);
 
   const auto& net = run.read.network;
-  run.envelope_structure_case.assign(net.structures.size(), 0);
-  run.envelope_conduit_case.assign(net.conduits.size(), 0);
-  for (std::size_t k = 1; k < run.cases.size(); ++k) {
-    for (std::size_t s = 0; s < net.structures.size(); ++s) {
-      const auto& best = run.cases[run.envelope_structure_case[s]].march.structures[s];
-      const auto& cand = run.cases[k].march.structures[s];
-      if (cand.solved && (!best.solved || cand.hgl_m > best.hgl_m)) run.envelope_structure_case[s] = k;
-    }
-    for (std::size_t ci = 0; ci < net.conduits.size(); ++ci) {
-      const auto& best = run.cases[run.envelope_conduit_case[ci]].march.conduits[ci];
-      const auto& cand = run.cases[k].march.conduits[ci];
-      if (cand.solved && (!best.solved || cand.profile.inlet().hgl_m > best.profile.inlet().hgl_m))
-        run.envelope_conduit_case[ci] = k;
-    }
-  }
-  Findings criteria = worst_per_feature(run.cases, DrawnFeatures(net, run.march_options.keep_step_points));
+  compute_envelope(run);
+  report_tailwater_below_outfalls(run, run.data_findings);
+  report_nothing_checked(run, run.data_findings);
+  std::vector<std::string> criteria_case;
+  Findings criteria = worst_per_feature(run.cases, DrawnFeatures(net, run.march_options.keep_step_points), criteria_case);
+  // Pump stations: solved once against the highest receiving level over the cases.
   for (std::size_t i = 0; i < run.pump_stations.size(); ++i)
     for (auto& f : solve::check_station(net, run.project.pump_stations[i], run.pump_stations[i], project.force_mains,
-                                        run.wet_well_inflow_m3_s[i]))
+                                        run.wet_well_inflow_m3_s[i])) {
       criteria.push_back(std::move(f));
-  merge_findings(run, std::move(criteria));
+      criteria_case.emplace_back(run.cases.size() > 1 ? "highest receiving level over the cases" : run.cases.front().label);
+    }
+  merge_findings(run, std::move(criteria), data_case, criteria_case);
   fill_unique_fids(net, run.findings);
   run.inputs = hashes.finish(files_read());
   return run;

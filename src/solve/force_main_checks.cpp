@@ -53,12 +53,12 @@ void subatmospheric(const model::Network& n, const StationResult& r, double limi
     const auto& pt = pts[high];
     const std::string& id = n.conduits[pt.conduit].id;
     out.push_back(fm("FM_SUBATMOSPHERIC", Severity::warning, id, run.head, limit, Dimension::pressure_head,
-                     "force main " + id + ": the HGL runs below the pipe from station " + q(pts[run.first].station_m, L) +
-                         " to " + q(pts[run.last].station_m, L) + " (" + r.cases[run.case_index].label +
+                     "force main " + id + ": the HGL runs below the pipe from station " + q_station(pts[run.first].station_m) +
+                         " to " + q_station(pts[run.last].station_m) + " (" + r.cases[run.case_index].label +
                          "), pressure head down to " + q(run.head, Dimension::pressure_head) + " at station " +
-                         q(pts[run.lowest].station_m, L) + " against the limit " + q(limit, Dimension::pressure_head) +
+                         q_station(pts[run.lowest].station_m) + " against the limit " + q(limit, Dimension::pressure_head) +
                          "; air entry and column separation are likely: air-release valve candidate at the high point, station " +
-                         q(pt.station_m, L) + " (pipe centreline " + q(pt.centreline_m, L) + ")."));
+                         q_station(pt.station_m) + " (pipe centreline " + q(pt.centreline_m, L) + ")."));
   }
 }
 
@@ -77,7 +77,7 @@ void rating(const model::Network& n, const StationResult& r, Findings& out) {
     if (!(peak > *c.rated_pressure_head_m)) continue;
     out.push_back(fm("FM_PRESSURE_RATING", Severity::error, c.id, peak, *c.rated_pressure_head_m, Dimension::pressure_head,
                      "force main " + c.id + ": peak operating pressure head " + q(peak, Dimension::pressure_head) +
-                         " at station " + q(r.layout.points[at].station_m, Dimension::length) + " (" +
+                         " at station " + q_station(r.layout.points[at].station_m) + " (" +
                          r.cases[which].label + ") exceeds its rated pressure " +
                          q(*c.rated_pressure_head_m, Dimension::pressure_head) + " (surge not included)."));
   }

@@ -55,6 +55,12 @@ class Marcher {
     return opt_.tailwater_m;
   }
 
+  hydraulics::StructureEnergy energy_at(std::size_t s) const {
+    if (opt_.loss_method == hydraulics::StructureLossMethod::hec22) return hydraulics::StructureEnergy::whole_loss;
+    const auto it = opt_.structure_energy_at.find(s);
+    return it != opt_.structure_energy_at.end() ? it->second : opt_.structure_energy;
+  }
+
   void solve_structure(std::size_t s) {
     auto& r = out_.structures[s];
     const auto& st = net_.structures[s];
@@ -83,10 +89,12 @@ class Marcher {
       r.solved = true;
       const double tw = tailwater_of(st);
       r.tailwater_m = tw;
+      r.tailwater_from_field = st.tailwater_m.has_value();
       const bool use_tw = std::isfinite(tw) && opt_.tailwater_mode != TailwaterMode::free;
       r.hgl_m = r.egl_m = use_tw ? tw : free_level_m;
       return;
     }
+    r.energy = energy_at(s);
     double best = -std::numeric_limits<double>::infinity();
     for (std::size_t ci : outs) {
       const auto& cr = out_.conduits[ci];
@@ -101,6 +109,7 @@ class Marcher {
         r.governing_outflow = ci;
         r.loss_m = loss.loss_m;
         r.k_effective = loss.k_effective;
+        r.outflow_velocity_m_s = cr.profile.inlet().velocity_m_s;
         r.loss_terms = loss.terms;
       }
     }
@@ -196,9 +205,15 @@ class Marcher {
                                    std::max(0.0, r.flow_m3_s)};
     r.slope = (r.invert_up_m - r.invert_down_m) / c.length_m;
     r.downstream_level_m = down.hgl_m;
+    // Into a structure whose loss is the whole loss across it, the pipe keeps its velocity head to
+    // its outlet: the structure's energy level is the outlet's EGL. A still pool, an outfall or a
+    // wet well takes the water level instead.
+    r.outlet_energy_control =
+        !down.outfall && !down.pumped && down.energy == hydraulics::StructureEnergy::whole_loss;
     try {
       if (r.slope > 0.0) r.capacity_m3_s = hydraulics::full_capacity_m3_s(c.roughness, c.section, r.slope);
-      r.profile = hydraulics::compute_profile(reach, down.hgl_m, opt_.gvf);
+      r.profile = r.outlet_energy_control ? hydraulics::compute_profile_to_energy(reach, down.egl_m, opt_.gvf)
+                                          : hydraulics::compute_profile(reach, down.hgl_m, opt_.gvf);
       keep_needed_points(ci, r.profile.points);
       r.solved = true;
     } catch (const Error& e) {
@@ -398,6 +413,26 @@ MarchResult march(const model::Network& network, const topology::Topology& topo,
   return out;
 }
 
+namespace {
+
+// How a pipe's outlet EGL comes down to the level of what it discharges into.
+std::string exit_basis(const ConduitResult& cr, const StructureResult& down) {
+  if (cr.profile.free_outlet) return "free outlet: critical depth at the outlet, the energy above the level below lost in the fall";
+  if (cr.outlet_energy_control) return "none: K V_o^2/2g is the whole loss across the structure, the pipe keeps its velocity head";
+  if (down.outfall || down.pumped) return "velocity head V^2/2g spent in the receiving water";
+  return "velocity head V^2/2g spent in the still pool";
+}
+
+BudgetItem item(std::string kind, const std::string& feature_id, double head_m) {
+  BudgetItem b;
+  b.kind = std::move(kind);
+  b.feature_id = feature_id;
+  b.head_m = head_m;
+  return b;
+}
+
+}  // namespace
+
 std::vector<BudgetItem> loss_budget(const model::Network& network, const MarchResult& result, std::size_t structure) {
   std::vector<BudgetItem> items;
   std::size_t s = structure;
@@ -405,15 +440,32 @@ std::vector<BudgetItem> loss_budget(const model::Network& network, const MarchRe
     const auto& r = result.structures[s];
     if (!r.solved) return {};
     if (r.outfall || r.pumped) {
-      items.push_back({r.pumped ? "wet_well" : "tailwater", network.structures[s].id, r.hgl_m});
+      BudgetItem start = item(r.pumped ? "wet_well" : "tailwater", network.structures[s].id, r.hgl_m);
+      start.basis = r.pumped ? "the wet well's pump-on level" : "the level at the outfall";
+      items.push_back(std::move(start));
       break;
     }
     const std::size_t ci = r.governing_outflow;
     const auto& cr = result.conduits[ci];
     const std::size_t down = network.conduits[ci].to;
-    items.push_back({"structure", network.structures[s].id, r.loss_m});
-    items.push_back({"conduit", network.conduits[ci].id, cr.profile.inlet().egl_m - cr.profile.outlet().egl_m});
-    items.push_back({"exit", network.conduits[ci].id, cr.profile.outlet().egl_m - result.structures[down].egl_m});
+    const auto& pr = cr.profile;
+    BudgetItem st = item("structure", network.structures[s].id, r.loss_m);
+    st.k = r.k_effective;
+    st.velocity_m_s = r.outflow_velocity_m_s;
+    st.velocity_head_m = hydraulics::velocity_head_m(r.outflow_velocity_m_s);
+    st.basis = "K V_o^2/2g on the velocity at the inlet of " + network.conduits[ci].id + " (" +
+               std::string(hydraulics::structure_energy_name(r.energy)) + ")";
+    items.push_back(std::move(st));
+    BudgetItem along = item("conduit", network.conduits[ci].id, pr.inlet().egl_m - pr.outlet().egl_m);
+    along.length_m = network.conduits[ci].length_m;
+    along.jump_m = pr.jump_loss_m;
+    along.basis = pr.jump_station_m ? "friction along the pipe and the hydraulic jump's loss" : "friction along the pipe";
+    items.push_back(std::move(along));
+    BudgetItem exit = item("exit", network.conduits[ci].id, pr.outlet().egl_m - result.structures[down].egl_m);
+    exit.velocity_m_s = pr.outlet().velocity_m_s;
+    exit.velocity_head_m = hydraulics::velocity_head_m(pr.outlet().velocity_m_s);
+    exit.basis = exit_basis(cr, result.structures[down]);
+    items.push_back(std::move(exit));
     s = down;
   }
   std::reverse(items.begin(), items.end());

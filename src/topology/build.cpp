@@ -1,6 +1,8 @@
 // build_topology: the stages in order. Each stage has its own header and file.
 #include "rimline/topology/build.hpp"
 
+#include <algorithm>
+
 #include "rimline/topology/connect.hpp"
 #include "rimline/topology/march_order.hpp"
 #include "rimline/topology/network_checks.hpp"
@@ -14,6 +16,11 @@ Topology build_topology(model::Network& network, const TopologyOptions& options,
   report_duplicate_conduit_ids(network, findings);
   const Connection connection = connect_network(network, options, findings);
   topology.derived_structures = connection.derived_structures;
+  // Outfalls the project names: before orientation, whose rule 2a looks for them.
+  if (!options.outfall_ids.empty())
+    for (auto& s : network.structures)
+      if (std::find(options.outfall_ids.begin(), options.outfall_ids.end(), s.id) != options.outfall_ids.end())
+        s.kind = model::StructureKind::outfall;
   topology.turned_conduits = orient_conduits(network, connection, options, findings);
   report_zero_length(network, options, findings);
   build_march_order(network, topology, findings);

@@ -248,9 +248,9 @@ class Connector {
     Finding f = conduit_finding(
         c, "TOPOLOGY_AMBIGUOUS", Severity::warning,
         "pipe " + label(c, e.conduit) + ": " + std::to_string(near.size()) + " structures lie within " +
-            fixed(opt_.snap_tolerance_m, 3) + " m of its " + end_name(e.first) + "; snapped to the nearest, " +
-            label(s0, near[0].index) + " (" + fixed(near[0].distance_m, 3) + " m), not " + label(s1, near[1].index) +
-            " (" + fixed(near[1].distance_m, 3) + " m)");
+            q(opt_.snap_tolerance_m, units::Dimension::length) + " of its " + end_name(e.first) +
+            "; snapped to the nearest, " + label(s0, near[0].index) + " (" + q(near[0].distance_m, units::Dimension::length) +
+            "), not " + label(s1, near[1].index) + " (" + q(near[1].distance_m, units::Dimension::length) + ")");
     f.value = near[1].distance_m;
     f.limit = opt_.snap_tolerance_m;
     f.dimension = units::Dimension::length;
@@ -307,8 +307,8 @@ class Connector {
     const Conduit& c = net_.conduits[e.conduit];
     Finding f = conduit_finding(c, "TOPOLOGY_UNCONNECTED", Severity::warning,
                                 "pipe " + label(c, e.conduit) + ": its " + end_name(e.first) + " at " +
-                                    at_text(end_point(e)) + " is more than " + fixed(opt_.snap_tolerance_m, 3) +
-                                    " m from every structure; derived structure " + net_.structures[s].id +
+                                    at_text(end_point(e)) + " is more than " + q(opt_.snap_tolerance_m, units::Dimension::length) +
+                                    " from every structure; derived structure " + net_.structures[s].id +
                                     " placed there");
     f.limit = opt_.snap_tolerance_m;
     f.dimension = units::Dimension::length;

@@ -42,8 +42,8 @@ void report_zero_length(const model::Network& network, const TopologyOptions& op
     const double length = plan_length_m(c);
     if (length >= options.zero_length_m) continue;
     Finding f = conduit_finding(c, "TOPOLOGY_ZERO_LENGTH", Severity::warning,
-                                "pipe " + label(c, i) + " has a plan length of " + fixed(length, 4) +
-                                    " m; its direction and deflection are undefined");
+                                "pipe " + label(c, i) + " has a plan length of " + q(length, units::Dimension::length) +
+                                    "; its direction and deflection are undefined");
     f.value = length;
     f.limit = options.zero_length_m;
     f.dimension = units::Dimension::length;

@@ -37,7 +37,14 @@ bool rises(const Conduit& c, double tolerance_m) {
 }
 
 // Why a pipe runs the way it does after orientation.
-enum class Basis : unsigned char { ids, ids_turned, outfall, outfall_turned, inverts_turned, digitised, neighbours };
+enum class Basis : unsigned char {
+  ids, ids_turned, ids_inverts_turned, outfall, outfall_turned, inverts_turned, digitised, neighbours
+};
+
+bool turned_basis(Basis b) {
+  return b == Basis::ids_turned || b == Basis::ids_inverts_turned || b == Basis::outfall_turned ||
+         b == Basis::inverts_turned;
+}
 
 class Orienter {
  public:
@@ -47,6 +54,7 @@ class Orienter {
   std::size_t run() {
     const std::size_t nc = net_.conduits.size();
     basis_.resize(nc);
+    geometry_turned_.assign(nc, false);
     for (std::size_t i = 0; i < nc; ++i) decide(i);
     keep_neighbours_flow();
     std::size_t turned = 0;
@@ -72,10 +80,18 @@ class Orienter {
     } else if (rises(c, opt_.invert_tolerance_m) && !c.force_main) {  // a force main may rise: it is pumped
       b = Basis::inverts_turned;
     }
-    basis_[i] = b;
     if (b == Basis::ids_turned) turn_geometry(c);
     if (b == Basis::outfall_turned || b == Basis::inverts_turned) turn_conduit(c);
-    const bool turned = b == Basis::ids_turned || b == Basis::outfall_turned || b == Basis::inverts_turned;
+    bool turned = turned_basis(b);  // the line now runs against its digitising
+    // flow_direction = "inverts": the ids connected the pipe; its inverts say which way it flows.
+    if ((b == Basis::ids || b == Basis::ids_turned) && opt_.direction_from_inverts && !c.force_main &&
+        rises(c, opt_.invert_tolerance_m)) {
+      turn_conduit(c);
+      turned = !turned;
+      b = Basis::ids_inverts_turned;
+    }
+    basis_[i] = b;
+    geometry_turned_[i] = turned;
     set_ends(c, turned ? last : first, turned ? first : last);
   }
 
@@ -100,6 +116,7 @@ class Orienter {
         turn_conduit(c);
         set_ends(c, first, last);
         basis_[i] = Basis::neighbours;
+        geometry_turned_[i] = false;
       }
     }
   }
@@ -107,7 +124,15 @@ class Orienter {
   bool report(std::size_t i) {
     Conduit& c = net_.conduits[i];
     const Basis b = basis_[i];
-    const bool turned = b == Basis::ids_turned || b == Basis::outfall_turned || b == Basis::inverts_turned;
+    const bool turned = geometry_turned_[i];
+    if (b == Basis::ids_inverts_turned)
+      findings_.push_back(conduit_finding(c, "REVERSED", Severity::info,
+                                          "pipe " + label(c, i) + " names " + name(c.to) + " as its from-structure and " +
+                                              name(c.from) + " as its to-structure, but its inverts fall from " +
+                                              fixed(*c.invert_up_m, 3) + " m at " + name(c.from) + " to " +
+                                              fixed(*c.invert_down_m, 3) + " m at " + name(c.to) +
+                                              " (flow_direction = \"inverts\"); it runs from " + name(c.from) +
+                                              " to " + name(c.to)));
     if (b == Basis::ids_turned)
       findings_.push_back(conduit_finding(c, "TOPOLOGY_REVERSED_GEOMETRY", Severity::info,
                                           "pipe " + label(c, i) + " was digitised against its from/to ids; its line was turned to run from " +
@@ -116,8 +141,8 @@ class Orienter {
       const std::string reason =
           b == Basis::outfall_turned
               ? "its first end is outfall " + name(c.to)
-              : "its inverts fall from " + fixed(*c.invert_up_m, 3) + " m at its last vertex to " + fixed(*c.invert_down_m, 3) +
-                    " m at its first";
+              : "its inverts fall from " + q(*c.invert_up_m, units::Dimension::length) + " at its last vertex to " +
+                    q(*c.invert_down_m, units::Dimension::length) + " at its first";
       findings_.push_back(conduit_finding(c, "REVERSED", Severity::info,
                                           "pipe " + label(c, i) + " was digitised against the flow (" + reason +
                                               "); turned so it runs from " + name(c.from) + " to " + name(c.to)));
@@ -142,9 +167,9 @@ class Orienter {
     const double rise = *c.invert_down_m - *c.invert_up_m;
     const double length = c.length_m > 0.0 ? c.length_m : c.geometry_length_m;
     Finding f = conduit_finding(c, "ADVERSE_SLOPE", Severity::warning,
-                                "pipe " + label(c, i) + ": inverts rise " + fixed(rise, 3) + " m along the flow from " +
-                                    name(c.from) + " (" + fixed(*c.invert_up_m, 3) + " m) to " + name(c.to) + " (" +
-                                    fixed(*c.invert_down_m, 3) + " m) that " + direction_source +
+                                "pipe " + label(c, i) + ": inverts rise " + q(rise, units::Dimension::length) + " along the flow from " +
+                                    name(c.from) + " (" + q(*c.invert_up_m, units::Dimension::length) + ") to " + name(c.to) +
+                                    " (" + q(*c.invert_down_m, units::Dimension::length) + ") that " + direction_source +
                                     "; kept in that direction");
     if (length > 0.0) {
       f.value = -rise / length;
@@ -159,6 +184,7 @@ class Orienter {
   const TopologyOptions& opt_;
   Findings& findings_;
   std::vector<Basis> basis_;
+  std::vector<bool> geometry_turned_;
 };
 
 }  // namespace

@@ -27,6 +27,8 @@ NetworkSummary summarize(const model::Network& network, const Topology& topology
   s.trees = topology.trees.size();
   s.per_tree.reserve(topology.trees.size());
   for (const Tree& t : topology.trees) {
+    if (t.outfall < network.structures.size() && network.structures[t.outfall].kind != model::StructureKind::outfall)
+      ++s.outfalls_assumed;
     TreeSummary ts;
     if (t.outfall < network.structures.size()) ts.outfall_id = network.structures[t.outfall].id;
     ts.structures = t.structures.size();

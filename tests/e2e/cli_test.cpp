@@ -71,7 +71,8 @@ TEST_CASE("cli: a bad project file is exit 2 and names the file, line and key wi
 }
 
 TEST_CASE("cli: an unreadable source is exit 3 and names the file") {
-  const auto p = temp_file("cli-missing.toml", "[pipes]\nsource = \"no-such-file.gpkg\"\n");
+  const auto p = temp_file("cli-missing.toml", "[pipes]\nsource = \"no-such-file.gpkg\"\n[flows]\nmode = "
+                                              "\"structure_inflows\"\ndefault_inflow = \"1 L/s\"\n");
   const auto r = run("check " + p + " --out /tmp/never");
   INFO(r.out);
   CHECK(r.code == 3);
@@ -135,4 +136,27 @@ TEST_CASE("cli: a pump curve whose head rises is a bad project file (exit 2) nam
   CHECK(r.out.find(path + ": line " + std::to_string(line) +
                    ": key pump_stations[1].curve: pump curve heads must fall strictly with flow (point 2)") !=
         std::string::npos);
+}
+
+TEST_CASE("cli: a run that checks nothing exits 5 and says so on stderr, even with --quiet") {
+  const std::string pipes = std::string(rimline::test::source_dir) + "/data/demo/metric/pipes.geojson";
+  const auto p = temp_file("cli-nothing.toml", "[pipes]\nsource = \"" + pipes +
+                                                   "\"\n[pipes.fields]\nid = \"PIPE_ID\"\ndiameter = { field = \"SIZE\", "
+                                                   "unit = \"mm\" }\n[pipes.defaults]\nmanning_n = 0.013\n[flows]\nmode = "
+                                                   "\"structure_inflows\"\ndefault_inflow = \"5 L/s\"\n");
+  const auto out = std::string(rimline::test::binary_dir) + "/cli-nothing";
+  std::filesystem::remove_all(out);
+  const auto r = run("check " + p + " --out " + out + " -q");
+  INFO(r.out);
+  CHECK(r.code == 5);
+  CHECK(r.out.find("rimline: THIS RUN CHECKED NOTHING") != std::string::npos);
+  std::ifstream csv(out + "/exceptions.csv");
+  std::string text((std::istreambuf_iterator<char>(csv)), std::istreambuf_iterator<char>());
+  CHECK(text.find("NOTHING_CHECKED") != std::string::npos);
+}
+
+TEST_CASE("cli: a missing project file says it does not exist") {
+  const auto r = run("check /nonexistent/project.toml --dry-run");
+  CHECK(r.code == 2);
+  CHECK(r.out.find("/nonexistent/project.toml: the project file does not exist") != std::string::npos);
 }

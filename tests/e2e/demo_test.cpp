@@ -144,29 +144,61 @@ TEST_CASE("demo (metric): pinned figures confirmed by hand from the formulas") {
   CHECK(pr.profile.surcharged_length_m == Approx(net.conduits[p1].length_m).margin(0.001));
 }
 
-TEST_CASE("demo (metric): the FREEBOARD finding at T-04 confirmed by hand along the drowned trunk") {
-  const auto r = run::run_check(config::load_project(demo("metric")), {});
-  const auto& high = r.cases[1];  // tailwater 3.90 m
-  const auto& net = r.read.network;
-  // P-T01..P-T04 run full end to end under this tailwater, so each structure's level follows from the
-  // one below by Manning full-flow friction plus the velocity head spent at the structure (K = 0.5 for
-  // manholes and inlets, project file): level_k = level_(k-1) + L (n V / R^(2/3))^2 + (1 + K) V^2/2g.
+TEST_CASE("demo (metric): the drowned trunk by hand under both structure bookkeepings, side by side") {
+  // Under the 3.90 m tailwater the lower trunk runs full, so each structure's level follows from the
+  // one below by Manning full-flow friction, L (n V / R^(2/3))^2, and K V^2/2g at the structure
+  // (K = 0.5 for manholes and inlets, project file); P-T01 discharges into the brook (its outlet
+  // HGL is the tailwater, its velocity head spent there). still_pool: each arriving pipe's outlet
+  // HGL is the structure's level, so it loses its velocity head as well: (1 + K) V^2/2g per
+  // structure. whole_loss: its outlet EGL is the structure's level: K V^2/2g per structure.
+  auto project = config::load_project(demo("metric"));
+  REQUIRE(project.methods.structure_energy == hydraulics::StructureEnergy::whole_loss);  // the default
+  const auto whole = run::run_check(project, {});
+  project.methods.structure_energy = hydraulics::StructureEnergy::still_pool;
+  const auto pool = run::run_check(project, {});
   const double n = 0.013, k = 0.5;
-  double level = 3.9;
-  for (const char* id : {"P-T01", "P-T02", "P-T03", "P-T04"}) {
-    const auto ci = conduit_index(r, id);
-    const auto& cr = high.march.conduits[ci];
-    REQUIRE(cr.profile.surcharged_length_m == Approx(net.conduits[ci].length_m).margin(0.001));
-    const double d = hydraulics::rise_m(net.conduits[ci].section);
-    const double v = cr.flow_m3_s / (M_PI * d * d / 4.0);
-    level += net.conduits[ci].length_m * std::pow(n * v / std::pow(d / 4.0, 2.0 / 3.0), 2.0) + (1.0 + k) * v * v / (2.0 * g);
+  auto hand = [&](const run::CheckRun& r, const std::vector<const char*>& pipes, bool still) {
+    const auto& high = r.cases[1];  // tailwater 3.90 m
+    REQUIRE(high.tailwater_m == Approx(3.9));
+    double level = 3.9;
+    for (std::size_t i = 0; i < pipes.size(); ++i) {
+      const auto ci = conduit_index(r, pipes[i]);
+      const auto& cr = high.march.conduits[ci];
+      REQUIRE(cr.profile.surcharged_length_m == Approx(r.read.network.conduits[ci].length_m).margin(0.001));
+      const double d = hydraulics::rise_m(r.read.network.conduits[ci].section);
+      const double v = cr.flow_m3_s / (M_PI * d * d / 4.0);
+      const double exit = (still || i == 0) ? v * v / (2.0 * g) : 0.0;
+      level += exit + r.read.network.conduits[ci].length_m * std::pow(n * v / std::pow(d / 4.0, 2.0 / 3.0), 2.0) +
+               k * v * v / (2.0 * g);
+    }
+    return level;
+  };
+  const auto& net = whole.read.network;
+  // still_pool: P-T01..P-T04 full, T-04 by hand.
+  const auto t04 = structure_index(pool, "T-04");
+  const double pool_t04 = hand(pool, {"P-T01", "P-T02", "P-T03", "P-T04"}, true);
+  CHECK(pool.cases[1].march.structures[t04].hgl_m == Approx(pool_t04).margin(0.001));
+  // whole_loss: P-T01..P-T03 full (P-T04 only partly), T-03 by hand.
+  const auto t03 = structure_index(whole, "T-03");
+  CHECK(whole.cases[1].march.structures[t03].hgl_m ==
+        Approx(hand(whole, {"P-T01", "P-T02", "P-T03"}, false)).margin(0.001));
+  // The FREEBOARD finding at T-04 under each; pinned figures (README, "How the march works"):
+  // worst freeboard 0.035 m (still_pool) and 0.288 m (whole_loss), both at T-04 under 3.90 m.
+  const Finding* fb_pool = find(pool, "FREEBOARD", "T-04");
+  const Finding* fb_whole = find(whole, "FREEBOARD", "T-04");
+  REQUIRE(fb_pool != nullptr);
+  REQUIRE(fb_whole != nullptr);
+  CHECK(fb_pool->value == Approx(*net.structures[t04].rim_m - pool_t04).margin(0.001));
+  CHECK(fb_pool->value == Approx(0.035).margin(0.0005));
+  CHECK(fb_whole->value == Approx(0.288).margin(0.0005));
+  CHECK(fb_pool->limit == Approx(0.3));
+  // Along the drowned trunk the still pool stands higher by the arriving velocity heads. (Not at
+  // every structure: where a steep outflow's inlet is drowned a little deeper, K multiplies a
+  // smaller inlet velocity head, so T-12 and T-15 stand a few mm lower under still_pool.)
+  for (const char* id : {"T-02", "T-03", "T-04", "T-05", "T-06"}) {
+    const auto s = structure_index(whole, id);
+    CHECK(pool.cases[1].march.structures[s].hgl_m > whole.cases[1].march.structures[s].hgl_m + 0.05);
   }
-  const auto t04 = structure_index(r, "T-04");
-  CHECK(high.march.structures[t04].hgl_m == Approx(level).margin(0.001));
-  const Finding* fb = find(r, "FREEBOARD", "T-04");
-  REQUIRE(fb != nullptr);
-  CHECK(fb->value == Approx(*net.structures[t04].rim_m - level).margin(0.001));
-  CHECK(fb->limit == Approx(0.3));
 }
 
 TEST_CASE("demo (metric): the VELOCITY_HIGH finding at C-05 is the steep pipe's supercritical velocity") {

@@ -3,7 +3,9 @@
 // rimline's roles and in which units, the boundary conditions, methods and criteria.
 // Every quantity is held here in SI; the conversion happens in the parser, once.
 //
-// Schema (all paths relative to the project file; quantities are strings "<number> <unit>"):
+// The user's reference to every key (unit, default, example, the findings it can raise) is
+// docs/project-file.md; src/config/project_keys.cpp holds the same keys as the parser's table.
+// Schema in brief (all paths relative to the project file; quantities are strings "<number> <unit>"):
 //   [project]   name, units = "si"|"us" (report units), crs = "EPSG:xxxx" (only when a source has none)
 //   [pipes]     source, layer, snap_tolerance = "0.5 m",
 //               open_options = ["X_POSSIBLE_NAMES=X"]  (GDAL open options, e.g. for CSV; any layer source)
@@ -11,9 +13,12 @@
 //                                           width x height, else circular with the diameter field or,
 //                                           when no diameter field is mapped, the width field)
 //               force_main_values = ["RM"] (values of fields.force_main that mark a pressure main)
+//               flow_direction = "from_to" | "inverts" (with from/to fields: connect by them, but let the
+//                                           inverts decide which way each pipe flows)
 //   [pipes.fields]  id, from, to, shape, material, manning_n, split, force_main   -> "FIELD"
-//                   diameter, width, height, ks, invert_up, invert_down, length, flow
-//                                                           -> { field = "FIELD", unit = "mm" }
+//                   diameter, width, height, ks, invert_up, invert_down, length, flow,
+//                   invert_up_fallback, invert_down_fallback (used where the first are empty, e.g.
+//                   design inverts behind measured ones)       -> { field = "FIELD", unit = "mm" }
 //   [pipes.defaults] shape, manning_n, ks = "1.5 mm", diameter = "300 mm"
 //   [pipes.defaults.manning_n_by_material] RC = 0.013; [pipes.defaults.ks_by_material] RC = "1.5 mm"
 //               (a pipe's n / ks: its field, else its material's row, else the default; each default
@@ -23,10 +28,15 @@
 //                rim, invert, diameter, inflow, tailwater -> { field, unit }
 //   [structures.types] outfall = ["OF"], inlet = ["CB"], manhole = ["MH"], junction = [...]
 //   [structures.defaults] diameter = "1.2 m", loss_k = 0.5
+//   [outfalls]  ids = ["OF-1"], field = "FIELD", values = ["OUT"] (structures taken as outfalls besides the
+//               typed ones), [outfalls.tailwater] "OF-1" = "3.2 m" (a level of its own for an outfall)
+//   [ground]    source = "dem.tif" (any GDAL raster), band = 1, unit = "m", offset = "0 m" (added to the
+//               raster's values), fill_rims = true, compare_rims = true, rim_tolerance = "0.5 m"
 //   [flows]     mode = "pipe_field" | "structure_inflows" | "rational" | "sanitary", split = "capacity" | "field",
 //               default_inflow = "5 L/s" (structures without an inflow value)
 //   [catchments] source, layer, outlet_search = "30 m" (rational and sanitary modes: polygons, each draining
-//               to one structure; area from the geometry in the run CRS)
+//               to one structure; area from the geometry in the run CRS), allow_left_out = false (a
+//               catchment that cannot contribute stops the run unless this is true)
 //   [catchments.fields] id, structure, runoff_c, population -> "FIELD"; inlet_time -> { field, unit = "min" }
 //   [catchments.defaults] runoff_c = 0.5, inlet_time = "10 min"
 //   [land_use]  source, layer, runoff_c = "FIELD" (optional: C of each catchment = the area-weighted C of the
@@ -40,15 +50,21 @@
 //               and / or structures.fields.population)
 //   [tailwater] mode = "fixed" | "free" | "higher", levels = ["12.4 m", "13.0 m"]
 //   [methods]   friction = "manning" | "darcy_weisbach", structure_loss = "constant_k" | "bend" | "hec22",
-//               water_temperature = "15 C", benching = "flat"|"half"|"full"
+//               water_temperature = "15 C" (kinematic viscosity for Darcy-Weisbach), benching = "flat"|"half"|"full",
+//               structure_energy = "whole_loss" (K V_o^2/2g is the whole loss across a structure; default)
+//                                | "still_pool" (the arriving pipes' velocity head is lost too; not with hec22)
 //   [methods.k_by_type] manhole = 0.5, inlet = 0.5, junction = 0.6
+//   [methods.structures."T-04"] structure_energy = "still_pool"   (per structure id)
 //   [plausibility] invert_min = "-500 m", invert_max = "900 m" (inverts and rims outside are sentinels),
 //               diameter_min = "30 mm", diameter_max = "10 m", length_tolerance = 0.2 (mapped vs geometry),
-//               manning_n_min = 0.008, manning_n_max = 0.05, ks_max = "0.1 m" (fields and project defaults)
+//               manning_n_min = 0.008, manning_n_max = 0.05, ks_max = "0.1 m" (fields and project defaults),
+//               level_tolerance = "0.1 m" (pipe inverts against their structures' invert and rim),
+//               invert_step_max = "3 m" (invert step between the pipes at a structure)
 //   [criteria]  freeboard = "0.3 m", velocity_min = "0.9 m/s", velocity_max = "4.6 m/s" (or "off"),
-//               capacity_ratio_max = 1.0, cover_min = "0.6 m"
+//               velocity_min_basis = "normal_depth" (design flow at normal depth; default) | "full_flow"
+//               (flowing full at the pipe's slope), capacity_ratio_max = 1.0, cover_min = "0.6 m"
 //   [criteria.structures."T-04"] freeboard = "0.5 m"          (per structure id)
-//   [criteria.conduits."D-05"]   velocity_min = "0.6 m/s", velocity_max, capacity_ratio_max, cover_min
+//   [criteria.conduits."D-05"]   velocity_min = "0.6 m/s", velocity_min_basis, velocity_max, capacity_ratio_max, cover_min
 //   [[pump_stations]]  one per pump station (parsed in src/config/project_force_mains.cpp):
 //               id = "WW-1" (the wet-well structure; the force main leaves it),
 //               pump_on = "14.2 m", pump_off = "12.8 m" (wet-well levels, datum of the inverts),
@@ -103,6 +119,7 @@ struct LayerSource {
 struct PipeFields {
   std::string id, from, to, shape, material, manning_n, split, force_main;
   FieldRef diameter, width, height, ks, invert_up, invert_down, length, flow;
+  FieldRef invert_up_fallback, invert_down_fallback;  // read where invert_up / invert_down are empty
   FieldRef rated_pressure;  // force mains: pipe class pressure (kPa, psi, bar, m_head, ft_head)
 };
 
@@ -148,6 +165,9 @@ struct CatchmentSettings {
   double outlet_search_m = 30.0;        // nearest structure accepted within this of the polygon
   LayerSource land_use;
   std::string land_use_runoff_c;        // field of the land-use layer
+  // A catchment that cannot contribute (no usable polygon, no C in rational mode, no outlet) stops
+  // a design-flow run unless this is set; then each is a finding and the run goes on without it.
+  bool allow_left_out = false;
 };
 
 struct RationalSettings {
@@ -176,11 +196,43 @@ struct Plausibility {
   double manning_n_min = 0.008;
   double manning_n_max = 0.05;
   double ks_max_m = 0.1;          // equivalent sand roughness beyond any pipe wall; common practice, no source
+  // A pipe invert this far below its structure's invert, or above its rim, is a data problem (survey
+  // and digitising slack of levels; common practice, no source).
+  double level_tolerance_m = 0.1;
+  // A step between an arriving pipe's outlet invert and the leaving pipe's inlet invert beyond this is
+  // implausible (drop structures rarely exceed a few metres; common practice, no source).
+  double invert_step_max_m = 3.0;
 };
+
+enum class FlowDirection { from_to, inverts };
+
+// [outfalls]: structures taken as outfalls when the export does not type them, and levels of their own.
+struct OutfallSettings {
+  std::vector<std::string> ids;             // structure ids (of the layer, or node ids of a pipes-only export)
+  std::string field;                        // a structures field ...
+  std::vector<std::string> values;          // ... whose values mark an outfall
+  std::map<std::string, double> tailwater_m;  // outfall id -> its tailwater level
+};
+
+// [ground]: a ground raster (DEM) for rims that the export lacks, and a check of those it has.
+struct GroundSettings {
+  std::string source;            // empty: none
+  int band = 1;
+  double metres_per_unit = 1.0;  // the raster's vertical unit
+  double offset_m = 0.0;         // added to every raster value (datum shift), after the unit
+  bool fill_rims = true;         // missing rims from the ground level at the structure
+  bool compare_rims = true;      // recorded rims against the ground
+  double rim_tolerance_m = 0.5;  // a recorded rim this far from the ground is a finding; common practice, no source
+};
+
+// The velocity the minimum-velocity (self-cleansing) rule looks at: the design flow at normal depth
+// in the pipe itself, or the pipe flowing full at its slope.
+enum class VelocityMinBasis { normal_depth, full_flow };
 
 struct Criteria {
   double freeboard_m = 0.3;          // common practice, no source (agency manuals range 0 - 0.3 m)
   double velocity_min_m_s = 0.9;     // storm: TxDOT Hydraulic Design Manual (2016 revision), 3 ft/s
+  VelocityMinBasis velocity_min_basis = VelocityMinBasis::normal_depth;
   std::optional<double> velocity_max_m_s = 4.6;  // erosion protection ~15 ft/s (Ten States Standards, from memory)
   double capacity_ratio_max = 1.0;   // Q/Qfull; common practice, no source
   std::optional<double> cover_min_m; // off unless set
@@ -190,6 +242,7 @@ struct Criteria {
 struct CriteriaOverride {
   std::optional<double> freeboard_m;
   std::optional<double> velocity_min_m_s;
+  std::optional<VelocityMinBasis> velocity_min_basis;
   std::optional<double> velocity_max_m_s;
   std::optional<double> capacity_ratio_max;
   std::optional<double> cover_min_m;
@@ -199,8 +252,14 @@ struct Methods {
   hydraulics::FrictionLaw friction = hydraulics::FrictionLaw::manning;
   hydraulics::StructureLossMethod structure_loss = hydraulics::StructureLossMethod::constant_k;
   hydraulics::Benching benching = hydraulics::Benching::flat;
+  // Water temperature for the kinematic viscosity of Darcy-Weisbach (Reynolds number); 15 degC is a
+  // common design figure for sewage and storm water (common practice, no source).
   double water_temperature_c = 15.0;
   std::map<std::string, double> k_by_type;  // structure kind name -> K
+  // How a structure's loss is booked against the pipes arriving there (hydraulics/losses.hpp),
+  // for the run and per structure id ([methods.structures."ID"] structure_energy).
+  hydraulics::StructureEnergy structure_energy = hydraulics::StructureEnergy::whole_loss;
+  std::map<std::string, hydraulics::StructureEnergy> structure_energy_by_id;
 };
 
 struct Project {
@@ -214,6 +273,9 @@ struct Project {
   double snap_tolerance_m = 0.5;
   PipeFields pipe_fields;
   PipeDefaults pipe_defaults;
+  FlowDirection flow_direction = FlowDirection::from_to;
+  OutfallSettings outfalls;
+  GroundSettings ground;
   std::map<std::string, hydraulics::Shape> shape_values;   // source value -> shape
   bool shape_from_height = false;                          // see [pipes] shape_from_height above
   std::vector<std::string> force_main_values;              // values of pipe_fields.force_main
@@ -247,6 +309,12 @@ struct Project {
 // the key and, for unknown keys, the closest known one ("did you mean ...?").
 Project load_project(const std::string& path);
 Project parse_project(const std::string& toml_text, const std::string& path_for_messages);
+
+// Every key the parser reads, sorted, as dotted patterns ("criteria.structures.*.freeboard",
+// "pump_stations[].id"); docs/project-file.md lists the same keys.
+const std::vector<std::string>& project_key_table();
+// The keys of project_key_table that a project text sets, parsing it as parse_project does (throws the same).
+std::vector<std::string> project_keys_set(const std::string& toml_text, const std::string& path_for_messages);
 
 // "0.3 m" -> 0.3 (SI), checked against the expected dimension. Throws bad_config.
 double parse_quantity(const std::string& text, units::Dimension expected, const std::string& where);

@@ -24,7 +24,9 @@ std::vector<model::ForceMainProfile> force_main_profiles(const model::Network& n
 
 // Ground elevations [m] of a DEM at points given in the network's run CRS [m], bilinear between
 // pixel centres; NaN where the raster does not cover a point or a neighbouring pixel is no-data.
+// Also the ground levels of [ground] (src/run/ground_rims.cpp). Throws Error(bad_input) naming the
+// file when it is not a raster with that band.
 std::vector<double> sample_dem(const std::string& dem_source, double dem_metres_per_unit, const model::Network& network,
-                               const std::vector<model::Point2>& points_m);
+                               const std::vector<model::Point2>& points_m, int band = 1);
 
 }  // namespace rimline::gis

@@ -92,4 +92,13 @@ struct ConduitProfile {
 // Throws rimline::Error(bad_argument) for invalid reach data (non-positive length, bad section...).
 ConduitProfile compute_profile(const ConduitReach& reach, double downstream_level_m, const GvfOptions& options = {});
 
+// The same with the outlet's energy level (EGL) given instead of the water level it discharges
+// into: used where a structure loss is the whole loss of energy across the structure, so the pipe
+// keeps its velocity head to the outlet. The outlet depth is the subcritical root of
+// y + V(y)^2/2g = E - invert; at or above the full-pipe energy the outlet runs full with
+// HGL = E - V_full^2/2g; below the critical energy critical depth governs there (free_outlet: the
+// pipe falls freely into the structure and the outlet EGL stands above the given one).
+ConduitProfile compute_profile_to_energy(const ConduitReach& reach, double downstream_energy_m,
+                                         const GvfOptions& options = {});
+
 }  // namespace rimline::hydraulics

@@ -28,6 +28,17 @@ double structure_type_k(StructureKind kind, double deflection_deg);
 enum class StructureLossMethod { constant_k, bend, hec22 };
 std::string_view structure_loss_method_name(StructureLossMethod m);
 
+// How a structure's loss is booked against the pipes arriving there (the structure's water level is
+// its energy level either way: the velocity in a structure is taken as negligible).
+//   whole_loss: h = K V_o^2/2g is the whole loss of energy across the structure, as the published
+//               manhole and junction K values are defined: the EGL at each arriving pipe's outlet is
+//               the EGL at the outflow pipe's inlet plus h, and the pipe keeps its velocity head.
+//   still_pool: the structure is a still pool at the outflow pipe's inlet EGL plus h, and that is
+//               each arriving pipe's HGL at its outlet: its velocity head is lost in the pool as well
+//               (conservative; some agencies ask for it).
+enum class StructureEnergy { whole_loss, still_pool };
+std::string_view structure_energy_name(StructureEnergy e);  // "whole_loss" | "still_pool"
+
 enum class Benching { flat, half, full };
 
 struct StructureInflow {

@@ -1,11 +1,16 @@
 #pragma once
 // The outputs contract of `rimline check --out DIR`:
-//   DIR/exceptions.csv  one row per finding: code,severity,layer,feature_id,fid,field,value,limit,unit,message
+//   DIR/exceptions.csv  one row per finding: code,severity,layer,feature_id,fid,field,value,limit,unit,case,message
+//                       (fid: the feature's fid in its source layer, telling apart features that share an id;
+//                       case: the tailwater case the row comes from, "every tailwater case", or empty when
+//                       the finding does not depend on the case)
 //   DIR/results.gpkg    layers structures, conduits (input CRS; values in the run's unit system),
 //                       and, for a tailwater sweep, the table structure_cases (one row per structure and level)
 //   DIR/summary.json    run metadata, inputs with SHA-256, units, criteria, methods, counts, worst freeboard
 //   DIR/profiles/*.svg  one profile drawing per path and tailwater level; DIR/profiles.pdf all of them
-//   DIR/report.html     the self-contained review report
+//   DIR/report.html     the self-contained review report (a budget shows its 12 terms nearest the structure)
+//   DIR/budgets.csv     with the report: every term of the energy budget of each structure with a warning or
+//                       error, written once where budgets share their route (bounded by the network's size)
 // The set is written into a new sibling folder and swapped into DIR's place in one rename
 // (staged_files.hpp): an interrupted or failed run leaves the previous set whole, or the new set
 // whole, never a mix; the user's other files in DIR are kept. An output that would replace an

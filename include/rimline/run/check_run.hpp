@@ -1,7 +1,10 @@
 #pragma once
 // One whole check: read -> network -> topology -> flows -> march (per tailwater level) -> checks.
-// Adds TOPOLOGY_NO_OUTFALL (warning, structures): with a typed structure layer, a tree that ends at a
-// manhole, inlet or junction; it is marched from there as if that were the outfall.
+// Adds TOPOLOGY_NO_OUTFALL (warning, structures): where some structure is an outfall (typed, or named in
+// [outfalls]), a tree that ends at a manhole, inlet, junction or derived structure; it is marched from
+// there as if that were the outfall. The project's own checks (flow source, unknown ids, assumed
+// outfalls, tailwater below an outfall, a run that checked nothing) are in src/run/project_checks.hpp,
+// the level and unit cross-checks in src/run/level_checks.hpp, [ground] in src/run/ground_rims.hpp.
 // No files are written here; report/ writes the outputs from a CheckRun.
 #include <cstddef>
 #include <functional>
@@ -32,9 +35,20 @@ struct RunOptions {
   std::function<void(const std::string& stage)> progress;
 };
 
+// The label of a figure or finding that is the same in every case of a sweep.
+inline constexpr const char* every_case = "every tailwater case";
+
+// Which case of a sweep governs a figure of one feature; `every`: it is the same in every case.
+struct EnvelopeCase {
+  std::size_t index = 0;
+  bool every = false;
+};
+
 // One tailwater level of a sweep.
 struct Case {
-  std::string label;       // "TW 12.400 m" or "free outfall"
+  // "tailwater 3.200 m" (with " (outfall fields where given)" when some outfalls have their own),
+  // "outfall tailwater fields", or "free outfall"; a q() token inside, rendered per report.
+  std::string label;
   double tailwater_m = std::numeric_limits<double>::quiet_NaN();
   solve::MarchResult march;
   // Criteria findings of this case on the features the drawings can show (every one when every
@@ -63,10 +77,18 @@ struct CheckRun {
   checks::Criteria criteria;
   checks::CriteriaOverrides overrides;  // per structure / pipe id
   solve::MarchOptions march_options;
+  double kinematic_viscosity_m2_s = 0.0;  // of water at [methods] water_temperature (Darcy-Weisbach)
   units::System report_units = units::System::si;
   std::vector<Case> cases;
+  // The sweep's envelope, each figure from the case that governs it (SI figures in the cases):
   std::vector<std::size_t> envelope_structure_case;  // per structure: the case with the highest HGL
-  std::vector<std::size_t> envelope_conduit_case;    // per conduit: the case with the highest inlet HGL
+  std::vector<bool> envelope_structure_every;        //   ... and whether the HGL is the same in every case
+  // Per conduit, its levels, depths, velocities at the ends, regime and surcharged length: the case where
+  // its HGL stands highest against its crown (surcharged cases first: the SURCHARGED finding's measure).
+  std::vector<std::size_t> envelope_conduit_case;
+  std::vector<bool> envelope_conduit_every;
+  std::vector<EnvelopeCase> envelope_velocity_high;  // per conduit: the highest velocity along it (VELOCITY_HIGH)
+  std::vector<EnvelopeCase> envelope_velocity_low;   // per conduit: the self-cleansing velocity (VELOCITY_LOW)
   // Pump stations (aligned with project.pump_stations) and the force-main profiles they use. The
   // design flow of each station (its largest operating flow) runs down its force main into the
   // gravity network; the receiving structure's HGL (the highest over the tailwater cases) is the
@@ -78,13 +100,29 @@ struct CheckRun {
   Findings data_findings;  // reading, topology, flows, march problems
   Findings findings;       // every finding of the run: data + the worst criteria finding per feature and code
   std::vector<bool> data_finding;  // aligned with findings: true for those of data_findings
+  // Aligned with findings: the case a finding comes from (its label, every_case, the labels of the
+  // cases a march problem arose in joined by "; "), or "" for those that do not depend on the case
+  // (reading, topology, flows).
+  std::vector<std::string> finding_case;
 };
 
 CheckRun run_check(const config::Project& project, const RunOptions& options);
 
+// True when no gravity pipe was solved in any case and no pump station laid out (NOTHING_CHECKED):
+// the command line exits with a code of its own.
+bool checked_nothing(const CheckRun& run);
+
 // How bad a criteria finding is, to keep the worst over the cases and list the worst first:
 // lower freeboard, velocity (minimum) or cover is worse, higher surcharge, velocity or ratio is worse.
 double badness(const Finding& f);
+
+// The envelope case of a structure's figures and of a conduit's level figures (index 0, not
+// `every`, where a run assembled by hand lacks them).
+EnvelopeCase structure_envelope(const CheckRun& run, std::size_t structure);
+EnvelopeCase conduit_envelope(const CheckRun& run, std::size_t conduit);
+
+// The label of an envelope case ("tailwater 3.200 m", every_case), a q() token inside.
+std::string envelope_label(const CheckRun& run, std::size_t case_index, bool every);
 
 // The freeboard a structure must keep (the run's, or its own override).
 double required_freeboard_m(const CheckRun& run, std::size_t structure);

@@ -1,8 +1,20 @@
 #pragma once
-// The HGL/EGL march: from each outfall's tailwater upstream through every conduit and
-// structure. Structures are treated as still pools: their water level is the energy level of
-// the outflow pipe's inlet plus the structure loss, and that level is the downstream water
-// level of every pipe discharging into them (so a pipe's exit velocity head is spent in the pool).
+// The HGL/EGL march: from each outfall's tailwater upstream through every conduit and structure.
+//
+// At a structure the loss h = K V_o^2/2g multiplies the velocity head at the outflow pipe's inlet
+// (V_o from the profile there: partly full or full); with several outflows the highest requirement
+// governs. The structure's energy level is E = EGL at the outflow pipe's inlet + h, and its water
+// level (HGL) is E too: the velocity in a structure is taken as negligible. How E meets the pipes
+// arriving there is the structure-energy bookkeeping (hydraulics::StructureEnergy):
+//   whole_loss (default; the HEC-22 method always, by its own definition): h is the whole energy
+//     loss across the structure, so each arriving pipe's EGL at its outlet is E and its HGL there
+//     E - V^2/2g (its own velocity head kept); where E is below the pipe's critical energy, critical
+//     depth governs at its outlet and it falls freely into the structure.
+//   still_pool: E is each arriving pipe's HGL at its outlet (or critical depth where E lies below
+//     it), so its velocity head is spent in the pool as well.
+// Outfalls and pump wet wells are receiving water: their level is the arriving pipes' HGL at the
+// outlet under both bookkeepings (the exit velocity head is spent there). The EGL never rises
+// downstream, and loss_budget() adds each term back up to a structure's level exactly.
 #include <limits>
 #include <map>
 #include <string>
@@ -26,6 +38,10 @@ struct MarchOptions {
   std::map<std::string, double> k_by_type;  // structure kind name -> K
   double default_k = 0.5;                   // common practice, no source
   double default_structure_diameter_m = 1.2;
+  // The bookkeeping of every structure, and of those that differ by structure index. The HEC-22
+  // method has its own (whole_loss); config rejects still_pool with it.
+  hydraulics::StructureEnergy structure_energy = hydraulics::StructureEnergy::whole_loss;
+  std::map<std::size_t, hydraulics::StructureEnergy> structure_energy_at;
   hydraulics::GvfOptions gvf;
   // Water level of pump wet wells by structure index: the pump-on level, the highest the incoming
   // sewers see in operation. A wet well without one takes the inflows freely (the pipes' own outlet levels).
@@ -50,19 +66,25 @@ struct ConduitResult {
   double invert_up_m = 0.0;            // as used (a structure invert may stand in for a missing one)
   double invert_down_m = 0.0;
   hydraulics::ConduitProfile profile;  // step points, outlet first
-  double downstream_level_m = 0.0;     // the level it discharged into
+  double downstream_level_m = 0.0;     // the water level (HGL) of what it discharged into
+  // Whether its outlet was set by the structure's energy level (whole_loss: it keeps its velocity
+  // head to the outlet) rather than by the water level (still pool, outfall, wet well).
+  bool outlet_energy_control = false;
 };
 
 struct StructureResult {
   bool solved = false;
   bool outfall = false;
   bool pumped = false;                  // a pump wet well: only force mains leave it
-  double hgl_m = std::numeric_limits<double>::quiet_NaN();  // still pool: hgl == egl
+  double hgl_m = std::numeric_limits<double>::quiet_NaN();  // water level = energy level (no velocity)
   double egl_m = std::numeric_limits<double>::quiet_NaN();
-  double tailwater_m = std::numeric_limits<double>::quiet_NaN();  // outfalls
+  double tailwater_m = std::numeric_limits<double>::quiet_NaN();  // outfalls: the tailwater given (NaN: none)
+  bool tailwater_from_field = false;    // outfalls: the tailwater came from the outfall's own field
   std::size_t governing_outflow = model::no_index;  // conduit that set the level (diversions)
   double loss_m = 0.0;                  // structure loss on the governing outflow
   double k_effective = 0.0;
+  double outflow_velocity_m_s = 0.0;    // V_o at the governing outflow's inlet: K multiplies V_o^2/2g
+  hydraulics::StructureEnergy energy = hydraulics::StructureEnergy::whole_loss;  // its bookkeeping
   std::vector<hydraulics::LossTerm> loss_terms;
 };
 
@@ -76,11 +98,21 @@ MarchResult march(const model::Network& network, const topology::Topology& topo,
                   const MarchOptions& options);
 
 // The energy budget from a structure down to its outfall along the governing outflows: each
-// item adds to the tailwater so that the sum equals the structure's HGL (EGL) exactly.
+// item adds to the tailwater so that the sum equals the structure's HGL (EGL) exactly, and carries
+// what a reviewer needs to redo it by hand.
 struct BudgetItem {
-  std::string kind;   // "tailwater" or "wet_well" (the start), "exit", "conduit", "structure"
+  // "tailwater" or "wet_well" (the start), "exit" (from a pipe's outlet EGL down to the level of
+  // what it discharges into), "conduit" (the EGL drop along a pipe: friction, and a jump's loss),
+  // "structure" (K V_o^2/2g)
+  std::string kind;
   std::string feature_id;
   double head_m = 0.0;
+  double k = std::numeric_limits<double>::quiet_NaN();             // structure: the K applied
+  double velocity_m_s = std::numeric_limits<double>::quiet_NaN();  // structure: V_o; exit: the outlet velocity
+  double velocity_head_m = std::numeric_limits<double>::quiet_NaN();  // V^2/2g of that velocity
+  double length_m = std::numeric_limits<double>::quiet_NaN();      // conduit: its length (Sf = friction / L)
+  double jump_m = 0.0;                                             // conduit: of head_m, lost in a jump
+  std::string basis;  // one phrase: how the item arises ("K V_o^2/2g, whole loss across the structure", ...)
 };
 std::vector<BudgetItem> loss_budget(const model::Network& network, const MarchResult& result, std::size_t structure);
 

@@ -12,7 +12,9 @@
 // Orientation rule (flow runs from `from` to `to`; the march needs it right):
 //  1. Ids given: from_id is upstream, to_id downstream (e.g. Melbourne UNITID / UNITID2). A line
 //     digitised the other way is turned (points, directions, vertices); the inverts stay with
-//     the ends the source named them for. Inverts rising along the flow: ADVERSE_SLOPE.
+//     the ends the source named them for. Inverts rising along the flow: ADVERSE_SLOPE. With
+//     direction_from_inverts the ids only connect: a gravity pipe whose inverts rise from its
+//     from- to its to-structure is turned (REVERSED).
 //  2. Snapped ends (inverts taken to belong to the line's first / last vertex):
 //     a. network: an end at a structure of kind outfall is the downstream end;
 //     b. otherwise the inverts: the lower end is downstream (they must differ by more than
@@ -64,6 +66,7 @@
 //                                                   marched as an ordinary structure
 //  TOPOLOGY_ISOLATED           info     structures  a structure no marched pipe touches; in no tree
 #include <cstddef>
+#include <string>
 #include <vector>
 
 #include "rimline/finding.hpp"
@@ -78,6 +81,11 @@ struct TopologyOptions {
   double invert_tolerance_m = 0.001;
   // Plan length below which a pipe is reported as zero length.
   double zero_length_m = 0.001;
+  // Structures taken as outfalls ([outfalls] ids), whether of the layer or derived from node ids.
+  std::vector<std::string> outfall_ids;
+  // [pipes] flow_direction = "inverts": pipes linked by from/to ids still flow the way their inverts
+  // fall (rule 1 connects, rule 2b orients); a pipe so turned is REVERSED.
+  bool direction_from_inverts = false;
 };
 
 struct Node {

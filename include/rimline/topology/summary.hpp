@@ -26,6 +26,7 @@ struct NetworkSummary {
   std::size_t self_loops = 0;
   std::size_t turned_conduits = 0;
   std::size_t outfalls = 0;
+  std::size_t outfalls_assumed = 0;    // tree ends that are not typed or named outfalls
   std::size_t trees = 0;
   std::size_t diversions = 0;          // structures with more than one outflow
   double total_length_m = 0.0;         // sum of Conduit::length_m over all conduits

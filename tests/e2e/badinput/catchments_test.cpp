@@ -91,7 +91,8 @@ TEST_CASE("badinput catchments: null, point and zero-area geometry leave the cat
   ks.push_back(feature(
       props("KZ"),
       R"({"type":"Polygon","coordinates":[[[452250,5385200],[452260,5385200],[452270,5385200],[452250,5385200]]]})"));
-  const auto r = run_with(c, ks);
+  const auto r = run_with(c, ks, replace(rational_project(), "source = \"catchments.geojson\"\n",
+                                         "source = \"catchments.geojson\"\nallow_left_out = true\n"));
   INFO(dump(r));
   CHECK(message(find(r, "DATA_GEOMETRY", "KN")) == "The catchment has no geometry; it is left out.");
   CHECK(message(find(r, "DATA_GEOMETRY", "KP")) ==
@@ -111,7 +112,7 @@ TEST_CASE("badinput catchments: C outside 0-1 and a negative inlet time take the
   CHECK(message(find(r, "DATA_IMPLAUSIBLE", "K3", "RUNOFF_C")) ==
         "RUNOFF_C 1.4 is outside 0 to 1; the default C 0.5 is used.");
   CHECK(message(find(r, "DATA_IMPLAUSIBLE", "K3", "INLET_MIN")) ==
-        "INLET_MIN -5 min is negative; the default inlet time 12.00 min is used.");
+        "INLET_MIN -5 min is negative; the default inlet time 12.0 min is used.");
   const auto& k = r.catchments[catchment(r, "K3")];
   CHECK(k.runoff_c == 0.5);
   CHECK(k.inlet_time_s == 720.0);
@@ -133,7 +134,8 @@ TEST_CASE("badinput catchments: a catchment far from every structure contributes
   Case c("catchments_far");
   auto ks = base_catchments();
   ks.push_back(square(props("KFAR"), ox + 500, oy + 500, 20));
-  const auto r = run_with(c, ks);
+  const auto r = run_with(c, ks, replace(rational_project(), "source = \"catchments.geojson\"\n",
+                                         "source = \"catchments.geojson\"\nallow_left_out = true\n"));
   INFO(dump(r));
   CHECK(message(find(r, "CATCHMENT_NO_OUTLET", "KFAR")) ==
         "catchment KFAR has no structure a pipe leaves within 30.000 m; it contributes no flow.");
@@ -233,4 +235,60 @@ TEST_CASE("badinput catchments project: sanitary mode on structure populations a
   CHECK(parse_error(project + "\n[sanitary]\nper_capita = \"250 L/d\"\n").empty());
   CHECK(parse_error(project) ==
         R"(project.toml: key sanitary.per_capita: mode "sanitary" needs the average flow per person)");
+}
+
+// Issue 17: a catchment a design-flow mode leaves out stops the run unless the project allows it,
+// naming each one and why (the flows would be too low without a word otherwise).
+TEST_CASE("badinput catchments: a catchment left out stops the run unless allow_left_out is set") {
+  Case c("catchments_left_out");
+  auto ks = base_catchments();
+  ks.push_back(feature(props("KN"), "null"));
+  ks.push_back(square(props("KFAR"), ox + 500, oy + 500, 20));
+  c.write_network(base_pipes(), base_structures(), rational_project());
+  c.write("catchments.geojson", collection(ks));
+  const std::string e = error_of([&] { c.run(); });
+  CHECK(e == c.path("catchments.geojson") +
+                 ":catchments: 2 catchment(s) would contribute no flow, so the design flows would be too low:\n"
+                 "  KN (The catchment has no geometry; it is left out.)\n"
+                 "  KFAR (catchment KFAR has no structure a pipe leaves within 30.000 m; it contributes no flow.)\n"
+                 "Fix them, or set [catchments] allow_left_out = true to run without them (each stays a finding)");
+}
+
+// Issue 17: each flows mode reads only its own inputs. A sanitary run used to drop every catchment
+// without a runoff coefficient (a storm input) and go on with population 0.
+TEST_CASE("badinput catchments: sanitary mode needs no runoff coefficient, keeps every catchment's population") {
+  Case c("catchments_sanitary_no_c");
+  std::string project = replace(rational_project(), R"(mode = "rational")", R"(mode = "sanitary")");
+  project = replace(project, "runoff_c = \"RUNOFF_C\"\n", "population = \"POP\"\n");
+  project = replace(project, "[catchments.defaults]\nrunoff_c = 0.5\n", "[catchments.defaults]\n");
+  project += "\n[sanitary]\nper_capita = \"300 L/d\"\n";
+  auto ks = base_catchments();
+  for (auto& k : ks) k = replace(k, R"("RUNOFF_C":0.6,)", "");  // no C anywhere
+  const auto r = run_with(c, ks, project);
+  INFO(dump(r));
+  REQUIRE(r.catchment_flows);
+  CHECK(r.catchments.size() == 3);
+  CHECK(r.catchment_flows->pipes[conduit_index(r, "P1")].population == 1500.0);
+  for (const auto& f : r.findings) CHECK(f.layer != LayerRole::catchments);
+}
+
+// Issue 18, defect 5: a self-intersecting (bow-tie) ring's signed area cancels part of itself: the
+// ring below encloses 266.67 + 66.67 = 333.33 m2 (two triangles meeting at (40/3, 40/3), worked by
+// hand) but its shoelace area is 200 m2, which was used without a finding.
+TEST_CASE("badinput catchments: a bow-tie polygon is repaired, its true area used and said") {
+  Case c("catchment_bow_tie");
+  const double x = ox - 160, y = oy - 20;
+  auto at = [&](double dx, double dy) { return "[" + num(x + dx) + "," + num(y + dy) + "]"; };
+  const std::string bow_tie = feature(props("K3"), R"({"type":"Polygon","coordinates":[[)" + at(0, 0) + "," +
+                                                       at(20, 20) + "," + at(20, 0) + "," + at(0, 40) + "," + at(0, 0) +
+                                                       "]]}");
+  const auto r = run_with(c, {bow_tie, square(props("K4"), ox - 50, oy + 50, 20), square(props("K2"), ox - 100, oy, 20)});
+  INFO(dump(r));
+  CHECK(r.catchments[catchment(r, "K3")].area_m2 == Approx(1000.0 / 3.0).epsilon(1e-9));
+  const Finding* f = find(r, "DATA_GEOMETRY", "K3");
+  REQUIRE(f != nullptr);
+  CHECK(f->severity == Severity::warning);
+  CHECK(message(f) == "The polygon is invalid (its rings cross or touch themselves); it was repaired (GEOS make-valid) "
+                      "and its area 0.03 ha is used (the rings as drawn give 0.02 ha).");
+  CHECK(f->value == Approx(1000.0 / 3.0));
 }

@@ -40,7 +40,7 @@ TEST_CASE("badinput project: a quantity in the wrong dimension is an error namin
 
 TEST_CASE("badinput project: an unknown unit is an error naming the key") {
   CHECK(parse_error(replace(base_project(), R"(unit = "mm")", R"(unit = "millimetres")")) ==
-        R"(project.toml: line 11: key pipes.fields.diameter.unit: unknown unit "millimetres")");
+        R"(project.toml: line 11: key pipes.fields.diameter.unit: unknown unit "millimetres"; the units of length are m, mm, cm, ft, us_ft, in)");
 }
 
 TEST_CASE("badinput project: a string where a table belongs is an error naming the key") {
@@ -49,10 +49,22 @@ TEST_CASE("badinput project: a string where a table belongs is an error naming t
       R"(project.toml: line 11: key pipes.fields.diameter: expected { field = "NAME", unit = "..." } (a length needs its unit), found an integer)");
 }
 
-TEST_CASE("badinput project: a TOML syntax error names the line") {
-  CHECK(
-      parse_error(replace(base_project(), R"(name = "bad-input fixture")", R"(name = "bad-input fixture)")) ==
-      R"(project.toml: line 2: Error while parsing string: unescaped control characters other than TAB (U+0009) are explicitly prohibited)");
+TEST_CASE("badinput project: a TOML syntax error names the line and says in plain words what was expected") {
+  CHECK(parse_error(replace(base_project(), R"(name = "bad-input fixture")", R"(name = "bad-input fixture)")) ==
+        R"(project.toml: line 2: a quoted text is not closed: a closing quote was expected before the end of the line)");
+  CHECK(parse_error(replace(base_project(), R"(name = "bad-input fixture")", R"(name "bad-input fixture")")) ==
+        R"(project.toml: line 2: '=' and a value were expected after the key, but found '"' (write key = value; a key with spaces or dots in it goes in quotes))");
+  CHECK(parse_error(replace(base_project(), R"(levels = ["2.2 m"])", R"(levels = ["2.2 m")")) ==
+        R"(project.toml: line 37: a list [ ... ] is not closed: items are separated by ',' and the list ends with ']' (the file ended first))");
+  CHECK(parse_error(replace(base_project(), R"(id = "PIPE_ID")", R"(id = PIPE_ID)")) ==
+        R"(project.toml: line 10: a value was expected after '=': text goes in quotes ("..."), numbers and true/false as they are, lists in [ ], tables in { })");
+  CHECK(parse_error(base_project() + "\n[flows]\nsplit = \"capacity\"\n") ==
+        R"(project.toml: line 39: a table or key is given twice: each [table] and each key may appear once (put all keys of a table under one header))");
+}
+
+TEST_CASE("badinput project: an unknown unit in a quantity lists the units of its kind") {
+  CHECK(parse_error(replace(base_project(), R"(snap_tolerance = "0.5 m")", R"(snap_tolerance = "0.5 furlong")")) ==
+        R"(project.toml: line 7: key pipes.snap_tolerance: unknown unit "furlong" in "0.5 furlong" (a length takes m, mm, cm, ft, us_ft, in))");
 }
 
 TEST_CASE("badinput project: NaN and infinity in the project are errors") {

@@ -2,6 +2,7 @@
 // parallel pipes, no outfall, adverse slopes, a flow beyond any section. Expected codes from
 // include/rimline/topology/build.hpp and include/rimline/checks/checks.hpp; inputs invented.
 #include "e2e/badinput/fixture.hpp"
+#include "rimline/topology/summary.hpp"
 
 using namespace rimline;
 using namespace rimline::badinput;
@@ -89,11 +90,13 @@ TEST_CASE("badinput topology: a network whose every pipe is in a ring has no out
   const auto r = c.run();
   INFO(dump(r));
   CHECK(find(r, "TOPOLOGY_LOOP", "R3") != nullptr);
-  const Finding* f = find(r, "TOPOLOGY_NO_OUTFALL", "C");
+  // Nothing is typed an outfall: the end the loop cut leaves is an assumed outfall, said so and counted.
+  const Finding* f = find(r, "OUTFALL_ASSUMED", "C");
   REQUIRE(f != nullptr);
   CHECK(
       message(f) ==
-      R"(structure C is a manhole, not an outfall, but no marched pipe leaves it; its tree is marched from it as if it were the outfall)");
+      R"(no structure is typed or named an outfall, so structure C is taken as one because no marched pipe leaves it; its tree is marched from its tailwater. Name the real outfalls ([structures.types] outfall, or [outfalls] ids) so that a loop cut or a missing pipe does not pass for an outfall)");
+  CHECK(topology::summarize(r.read.network, r.topology).outfalls_assumed == 1);
 }
 
 TEST_CASE("badinput topology: inverts rising along the flow are ADVERSE_SLOPE, still marched") {

@@ -51,3 +51,16 @@ TEST_CASE("unit spellings parse and map to their dimension", "[base][units]") {
   CHECK(display_unit(Dimension::flow, System::us) == Unit::cfs);
   CHECK(display_unit(Dimension::length, System::si) == Unit::m);
 }
+
+TEST_CASE("the unit a field's name states, in its last word", "[units]") {
+  CHECK(unit_named_in("US_INV_FT") == Unit::ft);
+  CHECK(unit_named_in("DIA_IN") == Unit::in);
+  CHECK(unit_named_in("DIA_MM") == Unit::mm);
+  CHECK(unit_named_in("depthM") == Unit::m);
+  CHECK(unit_named_in("Q_L_S") == Unit::l_s);
+  CHECK(unit_named_in("Q_CFS") == Unit::cfs);
+  CHECK(unit_named_in("RIM_ELEV") == std::nullopt);
+  CHECK(unit_named_in("M") == std::nullopt);      // a name that is only a unit states nothing
+  CHECK(unit_named_in("US_MH") == std::nullopt);  // a manhole, not metres of head
+  CHECK(unit_symbols(Dimension::length) == "m, mm, cm, ft, us_ft, in");
+}

@@ -165,7 +165,7 @@ TEST_CASE("values of the wrong type are errors", "[io][project]") {
 
 TEST_CASE("bad units and wrong dimensions are errors", "[io][project]") {
   CHECK(error_of("[pipes]\nsource = \"p.shp\"\nsnap_tolerance = \"0.5 mtr\"\n") ==
-        "/proj/run.toml: line 3: key pipes.snap_tolerance: unknown unit \"mtr\" in \"0.5 mtr\"; did you mean \"m\"?");
+        "/proj/run.toml: line 3: key pipes.snap_tolerance: unknown unit \"mtr\" in \"0.5 mtr\"; did you mean \"m\"? (a length takes m, mm, cm, ft, us_ft, in)");
   CHECK(error_of("[pipes]\nsource = \"p.shp\"\n[criteria]\nfreeboard = \"0.3 m/s\"\n") ==
         "/proj/run.toml: line 4: key criteria.freeboard: \"0.3 m/s\" is a velocity, expected a length");
   CHECK(error_of("[pipes]\nsource = \"p.shp\"\n[criteria]\nfreeboard = \"0.3\"\n") ==
@@ -204,7 +204,8 @@ TEST_CASE("load_project reads a file and names it when missing", "[io][project]"
   const config::Project p = config::load_project(file.string());
   CHECK(p.pipes.source == (dir.parent_path() / "x" / "pipes.shp").string());
   CHECK_THROWS_WITH(config::load_project((dir / "none.toml").string()),
-                    (dir / "none.toml").string() + ": cannot open the project file");
+                    (dir / "none.toml").string() + ": the project file does not exist (check the path; `rimline fields SOURCE "
+                        "--write-project " + (dir / "none.toml").string() + "` writes a starter)");
 }
 
 TEST_CASE("project roughness values are held to the plausible ranges", "[io][project]") {

@@ -277,8 +277,8 @@ TEST_CASE("a Tc outside the IDF table is reported on the pipe", "[flows][idf]") 
   CHECK(findings[0].code == "IDF_EXTRAPOLATED");
   CHECK(findings[0].feature_id == "P1");
   CHECK(render_message(findings[0].message, units::System::si) ==
-        "pipe P1: the time of concentration 5.00 min lies outside the IDF table; its end segment was extended "
-        "(log-log) to give 141.42 mm/h.");
+        "pipe P1: the time of concentration 5.0 min lies outside the IDF table; its end segment was extended "
+        "(log-log) to give 141.4 mm/h.");
 }
 
 // A pump station's force main inside a Rational tree: WW -FM-> J <-P1- A, J -P2-> O.

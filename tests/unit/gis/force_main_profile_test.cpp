@@ -174,6 +174,6 @@ TEST_CASE("a DEM that cannot be opened stops the run naming the file", "[force_m
     FAIL("no error");
   } catch (const Error& e) {
     CHECK(e.kind() == ErrorKind::bad_input);
-    CHECK(std::string(e.what()).rfind("/nonexistent/ground.tif: cannot open the force-main ground DEM as a raster", 0) == 0);
+    CHECK(std::string(e.what()).rfind("/nonexistent/ground.tif: cannot open the ground DEM as a raster", 0) == 0);
   }
 }

@@ -113,9 +113,9 @@ TEST_CASE("each data problem of a pipe becomes one finding with a fixed message"
   CHECK(f.at("null_dia") == V{"DATA_MISSING DIA_MM is empty; the pipe is left out of the analysis."});
   CHECK(f.at("bad_n") == V{"DATA_IMPLAUSIBLE N 0.13 is outside the plausible 0.008 to 0.05; n = 0.013 from "
                            "[pipes.defaults] manning_n is used."});
-  CHECK(f.at("long") == V{"DATA_IMPLAUSIBLE LEN 150 m differs from the geometry length 100.000 m by more than 20 %; "
+  CHECK(f.at("long") == V{"DATA_IMPLAUSIBLE LEN 150 m differs from the geometry length 100.0 m by more than 20 %; "
                           "the geometry length is used."});
-  CHECK(f.at("zero_len") == V{"DATA_IMPLAUSIBLE LEN 0 m is not positive; the geometry length 100.000 m is used."});
+  CHECK(f.at("zero_len") == V{"DATA_IMPLAUSIBLE LEN 0 m is not positive; the geometry length 100.0 m is used."});
   CHECK(f.at("no_geom") == V{"DATA_GEOMETRY The pipe has no geometry; it is left out of the analysis."});
   CHECK(f.at("point") == V{"DATA_GEOMETRY The geometry is a POINT, not a line; the pipe is left out of the analysis."});
   CHECK(f.at("degenerate") == V{"DATA_GEOMETRY The line has zero length; the pipe is left out of the analysis."});
@@ -127,7 +127,7 @@ TEST_CASE("each data problem of a pipe becomes one finding with a fixed message"
         V{"DATA_IMPLAUSIBLE SHAPE \"EGG\" is not listed in [pipes.shapes]; the pipe is left out of the analysis."});
   CHECK(f.at("merged") ==
         V{"DATA_GEOMETRY The MULTILINESTRING's 2 parts join end to end and were merged into one line.",
-          "DATA_MISSING LEN is empty; the geometry length 100.200 m is used."});
+          "DATA_MISSING LEN is empty; the geometry length 100.2 m is used."});
   CHECK(f.at("gap") == V{"DATA_GEOMETRY The MULTILINESTRING has 2 parts that do not join end to end within the snap "
                          "tolerance of 0.500 m (gap 10.000 m); the pipe is left out of the analysis."});
   CHECK(f.at("null_n") == V{"DATA_MISSING N is empty; n = 0.013 from [pipes.defaults] manning_n is used."});
@@ -136,9 +136,9 @@ TEST_CASE("each data problem of a pipe becomes one finding with a fixed message"
   const auto long_finding =
       std::find_if(r.findings.begin(), r.findings.end(), [](const Finding& x) { return x.feature_id == "long"; });
   CHECK(long_finding->message ==
-        "LEN 150 m differs from the geometry length {{100|L}} by more than 20 %; the geometry length is used.");
+        "LEN 150 m differs from the geometry length {{100|D}} by more than 20 %; the geometry length is used.");
   CHECK(render_message(long_finding->message, units::System::us) ==
-        "LEN 150 m differs from the geometry length 328.084 ft by more than 20 %; the geometry length is used.");
+        "LEN 150 m differs from the geometry length 328 ft by more than 20 %; the geometry length is used.");
   CHECK(long_finding->value == 150.0);
   CHECK(long_finding->limit == 100.0);
   CHECK(long_finding->field == "LEN");
@@ -381,11 +381,11 @@ friction = "darcy_weisbach"
   for (const auto& c : r.network.conduits) CHECK(c.usable);
   const auto f = by_feature(r.findings);
   using V = std::vector<std::string>;
-  CHECK(f.at("b") == V{"DATA_IMPLAUSIBLE KS_MM 200 mm is outside the plausible 0 m to 0.1 m; ks = 0.0015 m from "
+  CHECK(f.at("b") == V{"DATA_IMPLAUSIBLE KS_MM 200 mm is outside the plausible 0 mm to 100 mm; ks = 1.5 mm from "
                        "[pipes.defaults] ks is used."});
   CHECK(f.at("c") ==
-        V{"DATA_MISSING KS_MM is empty; ks = 1.5e-06 m from [pipes.defaults.ks_by_material] PVC is used."});
-  CHECK(f.at("d") == V{"DATA_MISSING KS_MM is empty; ks = 0.0015 m from [pipes.defaults] ks is used."});
+        V{"DATA_MISSING KS_MM is empty; ks = 0.0015 mm from [pipes.defaults.ks_by_material] PVC is used."});
+  CHECK(f.at("d") == V{"DATA_MISSING KS_MM is empty; ks = 1.5 mm from [pipes.defaults] ks is used."});
   CHECK(r.findings.size() == 3);
 }
 

@@ -96,8 +96,8 @@ loss_k = 0.5
   // Defaults are counted: the diameter once (wide), K twice (negative_k, no_k).
   std::map<std::string, std::size_t> notes;
   for (const auto& d : r.defaults_used)
-    if (d.layer == LayerRole::structures) notes[d.text] = d.count;
-  CHECK(notes == std::map<std::string, std::size_t>{{"diameter 1.2 m from [structures.defaults] diameter", 1},
+    if (d.layer == LayerRole::structures) notes[render_message(d.text, units::System::si)] = d.count;
+  CHECK(notes == std::map<std::string, std::size_t>{{"diameter 1.200 m from [structures.defaults] diameter", 1},
                                                     {"K 0.5 from [structures.defaults] loss_k", 2}});
 }
 

@@ -67,9 +67,16 @@ TEST_CASE("the proposed Melbourne mapping and starter project match the hand-wri
   std::vector<std::string> got;
   for (const auto& f : m.fields)
     got.push_back(f.role + "=" + f.field + (f.unit ? ":" + std::string(units::unit_symbol(*f.unit)) : ""));
-  CHECK(got == std::vector<std::string>{"id=MXUNITID", "from=UNITID", "to=UNITID2", "material=MATERIAL",
-                                        "width=PIPE_WIDTH:mm", "height=PIPE_HEIGHT:mm", "length=PIPE_LENGTH:m",
-                                        "invert_up=UPSTREAM_IL:m", "invert_down=DOWNSTREAM_IL:m"});
+  std::sort(got.begin(), got.end());
+  // The hand-written mapping's roles, and the pressure-main flag it also gives (force_main_values).
+  CHECK(got == std::vector<std::string>{"force_main=UNITTYPE", "from=UNITID", "height=PIPE_HEIGHT:mm", "id=MXUNITID",
+                                        "invert_down=DOWNSTREAM_IL:m", "invert_up=UPSTREAM_IL:m",
+                                        "length=PIPE_LENGTH:m", "material=MATERIAL", "to=UNITID2",
+                                        "width=PIPE_WIDTH:mm"});
+  std::vector<std::string> pressure;
+  for (const auto& v : m.force_main_values) pressure.push_back(v.value);
+  std::sort(pressure.begin(), pressure.end());
+  CHECK(pressure == std::vector<std::string>{"EO-RM", "RM"});  // README: RM = RISING MAIN, EO-RM
   // The starter project parses and reads the same sections as tests/data/gis/melbourne.toml.
   const std::string toml = mapping::starter_project_toml({melbourne_geojson(), &s.layers[0]});
   const config::Project p = config::parse_project(toml, "/tmp/starter.toml");
@@ -127,12 +134,12 @@ TEST_CASE("US-unit names and values are recognised", "[io][inspect]") {
   CHECK(unit_of(pm, "from") == "US_NODE:");
   CHECK(unit_of(pm, "to") == "DS_NODE:");
   CHECK(unit_of(pm, "diameter") == "DIAMETER:in");  // median 18 looks like inches
-  CHECK(unit_of(pm, "length") == "LENGTH:ft");      // 100 ftUS lines, LENGTH 100: ratio 3.28 to metres
-  CHECK(unit_of(pm, "invert_up") == "US_INV:ft");   // as the length field
-  CHECK(unit_of(pm, "invert_down") == "DS_INV:ft");
+  CHECK(unit_of(pm, "length") == "LENGTH:us_ft");    // 100 ftUS lines, LENGTH 100: ratio 3.28 to metres, the CRS's foot
+  CHECK(unit_of(pm, "invert_up") == "US_INV:us_ft");  // the CRS is in US survey feet
+  CHECK(unit_of(pm, "invert_down") == "DS_INV:us_ft");
   CHECK(unit_of(pm, "manning_n") == "MANNINGS_N:");
   CHECK(unit_of(pm, "flow") == "Q_CFS:cfs");
-  const mapping::MappingProposal sm = mapping::propose_mapping(s.layers[1]);
+  const mapping::MappingProposal sm = mapping::propose_network(&mains, &s.layers[1]).structures;  // levels against the pipes
   CHECK(sm.kind == mapping::LayerKind::structures);
   CHECK(unit_of(sm, "id") == "MH_ID:");
   CHECK(unit_of(sm, "type") == "STRUCT_TYPE:");

@@ -80,7 +80,7 @@ TEST_CASE("US report units convert stations and levels to feet", "[report][scene
   CHECK(s.structures[2].rim == Approx(4.2 / 0.3048));
   CHECK(s.freeboard == Approx(0.3 / 0.3048));
   CHECK(s.markers[1].station == Approx(140.0 / 0.3048));
-  CHECK(s.case_label == "tailwater 9.843 ft");
+  CHECK(s.case_label == "tailwater 9.84 ft");  // levels to 0.01 ft
 }
 
 TEST_CASE("the profile SVG is well-formed and carries every layer of the drawing", "[report][svg]") {

@@ -84,9 +84,14 @@ TEST_CASE("a structure finding carries its energy budget, summing to its HGL", "
   const auto budget = h.substr(b, h.find("</details>", b) - b);
   // S2: tailwater 3.000, exit C0 0.050, conduit C0 0.200, structure S1 0.050, exit C1 0.050,
   // conduit C1 0.200, structure S2 0.500 (the fixture's levels) -> 4.050 m.
-  CHECK(budget.find("<td>tailwater</td><td>S0</td><td>3.000</td><td>3.000</td>") != std::string::npos);
-  CHECK(budget.find("<td>structure</td><td>S2</td><td>0.500</td><td>4.050</td>") != std::string::npos);
-  CHECK(budget.find("HGL in the structure</td><td>4.050</td>") != std::string::npos);
+  // Columns: item, feature, how, K, V, V^2/2g, length, head, level.
+  CHECK(budget.find("<td>tailwater</td><td>S0</td><td>the level at the outfall</td><td></td><td></td><td></td><td></td>"
+                    "<td>3.000</td><td>3.000</td>") != std::string::npos);
+  const auto s2 = budget.find("<td>structure</td><td>S2</td><td>K V_o^2/2g on the velocity at the inlet of C1");
+  REQUIRE(s2 != std::string::npos);
+  CHECK(budget.find("<td>0.500</td><td>4.050</td></tr>", s2) != std::string::npos);
+  CHECK(budget.find("<td>conduit</td><td>C1</td><td>friction along the pipe</td>") != std::string::npos);
+  CHECK(budget.find("HGL in the structure (its energy level)</td><td>4.050</td>") != std::string::npos);
 }
 
 TEST_CASE("the report is the same for the same run apart from the date", "[report][html]") {

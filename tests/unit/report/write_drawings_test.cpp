@@ -42,7 +42,8 @@ TEST_CASE("write_drawings stages one SVG per profile, the PDF and the report", "
   std::ifstream in(dir / "report.html");
   const std::string html((std::istreambuf_iterator<char>(in)), std::istreambuf_iterator<char>());
   CHECK(html.find("id=\"profile-index\"") != std::string::npos);
-  CHECK(html.find("<td>220.000</td><td>3</td><td>2.000</td><td>S0</td>") != std::string::npos);
+  // Lengths to 0.1 m, levels to the millimetre.
+  CHECK(html.find("<td>220.0</td><td>3</td><td>2.000</td><td>S0</td>") != std::string::npos);
   fs::remove_all(dir);
 }
 

@@ -154,7 +154,7 @@ TEST_CASE("force main: findings for the high point, the rating, the velocity ban
   CHECK(sub->feature_id == "FM");
   CHECK(sub->layer == LayerRole::force_mains);
   CHECK(sub->value == Approx(hgl_high - 14.0).epsilon(1e-9));
-  CHECK(render_message(sub->message, units::System::si).find("air-release valve candidate at the high point, station 250.000 m") !=
+  CHECK(render_message(sub->message, units::System::si).find("air-release valve candidate at the high point, station 0+250.0") !=
         std::string::npos);
   // Peak pressure at the pump end: EGL - V^2/2g - 5 m, above the 10 m rating in every case.
   const Finding* rating = find(out, "FM_PRESSURE_RATING");

@@ -146,7 +146,7 @@ TEST_CASE("an ambiguous snap takes the nearest structure and says so") {
   CHECK(amb[0]->feature_id == "P1");
   CHECK(amb[0]->value == Approx(0.2));
   CHECK(amb[0]->limit == 0.5);
-  CHECK(amb[0]->message ==
+  CHECK(render_message(amb[0]->message, units::System::si) ==
         "pipe P1: 2 structures lie within 0.500 m of its last end (as digitised); snapped to the nearest, S2 (0.100 m), "
         "not S2b (0.200 m)");
 }
@@ -159,7 +159,7 @@ TEST_CASE("an end far from every structure is reported and gets a derived struct
   const auto t = topology::build_topology(n, {}, fs);
   const auto un = with_code(fs, "TOPOLOGY_UNCONNECTED");
   REQUIRE(un.size() == 3);  // P1's last end, both ends of P2
-  CHECK(un[0]->message ==
+  CHECK(render_message(un[0]->message, units::System::si) ==
         "pipe P1: its last end (as digitised) at (30.00, 0.00) is more than 0.500 m from every structure; derived "
         "structure derived-1 placed there");
   // P1's end and P2's end are 0.14 m apart: they share one derived structure.

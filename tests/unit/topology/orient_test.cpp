@@ -74,8 +74,12 @@ TEST_CASE("a snapped pipe whose inverts fall toward its first vertex is turned")
   REQUIRE(count(fs, "REVERSED") == 1);
   const Finding& f = first(fs, "REVERSED");
   CHECK(f.severity == Severity::info);
-  CHECK(f.message ==
+  CHECK(render_message(f.message, units::System::si) ==
         "pipe P was digitised against the flow (its inverts fall from 10.000 m at its last vertex to 9.000 m at its "
+        "first); turned so it runs from S1 to S2");
+  // A US run reads the same sentence in feet (10 m = 32.81 ft, 9 m = 29.53 ft; NIST SP 811 B.8 foot).
+  CHECK(render_message(f.message, units::System::us) ==
+        "pipe P was digitised against the flow (its inverts fall from 32.81 ft at its last vertex to 29.53 ft at its "
         "first); turned so it runs from S1 to S2");
   CHECK(count(fs, "ADVERSE_SLOPE") == 0);
   REQUIRE(t.trees.size() == 1);
@@ -108,7 +112,7 @@ TEST_CASE("a pipe whose inverts rise toward an outfall is an adverse slope, not 
   CHECK(f.severity == Severity::warning);
   CHECK(f.value == Approx(-0.05));
   CHECK(f.dimension == units::Dimension::slope);
-  CHECK(f.message ==
+  CHECK(render_message(f.message, units::System::si) ==
         "pipe P: inverts rise 0.500 m along the flow from S1 (9.000 m) to O (9.500 m) that the outfall at its "
         "downstream end fixes; kept in that direction");
   CHECK(t.nodes[1].outfall);
@@ -182,7 +186,7 @@ TEST_CASE("a pipe rising in the middle of a digitised chain is an adverse slope,
   CHECK(count(fs, "REVERSED") == 0);
   REQUIRE(count(fs, "ADVERSE_SLOPE") == 1);
   CHECK(first(fs, "ADVERSE_SLOPE").feature_id == "P2");
-  CHECK(first(fs, "ADVERSE_SLOPE").message ==
+  CHECK(render_message(first(fs, "ADVERSE_SLOPE").message, units::System::si) ==
         "pipe P2: inverts rise 0.050 m along the flow from S2 (9.800 m) to S3 (9.850 m) that the pipes flowing into and "
         "out of its ends fix; kept in that direction");
   REQUIRE(t.trees.size() == 1);
