@@ -1,10 +1,12 @@
-// libFuzzer harness: any byte string as a project file. The parser may only accept it or throw
+// libFuzzer harness: any byte string as a project file (or, see expand(), a short input that
+// stands for a deep one). The parser may only accept it or throw
 // rimline::Error (bad_config) with a message naming the file; any other exception, a crash or a
 // sanitizer report is a defect. An accepted project must hold finite SI figures.
 #include <cmath>
 #include <cstdint>
 #include <string>
 
+#include "expand_input.hpp"
 #include "rimline/error.hpp"
 #include "rimline/config/project.hpp"
 
@@ -17,7 +19,7 @@ void require(bool ok) {
 }  // namespace
 
 extern "C" int LLVMFuzzerTestOneInput(const std::uint8_t* data, std::size_t size) {
-  const std::string text(reinterpret_cast<const char*>(data), size);
+  const std::string text = rimline::fuzz::expand(data, size);
   try {
     const rimline::config::Project p = rimline::config::parse_project(text, "fuzz/project.toml");
     require(std::isfinite(p.snap_tolerance_m));

@@ -2,6 +2,7 @@
 // A finding: one thing a reviewer must see, from a data problem to a freeboard violation.
 // Findings are data aligned with the network; the run always completes.
 #include <cmath>
+#include <cstdint>
 #include <limits>
 #include <string>
 #include <vector>
@@ -27,6 +28,9 @@ struct Finding {
   double limit = std::numeric_limits<double>::quiet_NaN();  // SI
   units::Dimension dimension = units::Dimension::dimensionless;
   std::string message;  // one sentence a reviewer understands; quantities as q() tokens
+  // The feature's fid in its source layer (-1: none, a derived structure or the project): where
+  // ids repeat, it tells the features apart (exceptions.csv column fid, the report).
+  std::int64_t fid = -1;
 };
 
 using Findings = std::vector<Finding>;
@@ -42,6 +46,11 @@ std::string q_station(double si_m);
 std::string q_roughness(double si_m);
 std::string render_message(const std::string& message, units::System system);
 
+// The findings from index `from` on are about the feature `fid` of its source layer (where ids
+// repeat, the fid tells the features apart).
+inline void stamp_fid(Findings& findings, std::size_t from, std::int64_t fid) {
+  for (std::size_t k = from; k < findings.size(); ++k) findings[k].fid = fid;
+}
 // What the data supports, as shown to people (messages, the report, exceptions.csv; results.gpkg
 // keeps the computed values): levels, depths and heads to the millimetre or 0.01 ft; velocities to
 // 0.01 m/s or ft/s; flows (and infiltration allowances) to three significant figures; areas to

@@ -8,11 +8,18 @@
 
 namespace rimline {
 
-// printf("%.*f", decimals, v), decimals taken within 0..17
+// Beyond this magnitude fixed notation would print up to 309 digits (a 1e300 coordinate, a huge
+// tailwater in ft: issue 18); no measured quantity comes near it, so such a value is printed in
+// scientific notation with 7 significant digits, and no number is wider than 25 characters.
+inline constexpr double fixed_text_limit = 1e15;
+
+// printf("%.*f", decimals, v), decimals taken within 0..17; |v| >= fixed_text_limit as "%.6e"
 inline void append_fixed(std::string& out, double v, int decimals) {
   char buf[400];  // the longest fixed double (1.8e308 with its sign and 17 decimals) fits
   const int d = decimals < 0 ? 0 : decimals > 17 ? 17 : decimals;
-  const auto r = std::to_chars(buf, buf + sizeof buf, v, std::chars_format::fixed, d);
+  const bool huge = v >= fixed_text_limit || v <= -fixed_text_limit;
+  const auto r = huge ? std::to_chars(buf, buf + sizeof buf, v, std::chars_format::scientific, 6)
+                      : std::to_chars(buf, buf + sizeof buf, v, std::chars_format::fixed, d);
   out.append(buf, r.ptr);
 }
 

@@ -128,9 +128,12 @@ Findings run_checks(const model::Network& network, const solve::MarchResult& res
   std::vector<std::exception_ptr> failed(parts + 1);
   auto conduit_range = [&](std::size_t k) {
     try {
-      for (std::size_t ci = n * k / parts; ci < n * (k + 1) / parts; ++ci)
+      for (std::size_t ci = n * k / parts; ci < n * (k + 1) / parts; ++ci) {
+        const std::size_t first = found[1 + k].size();
         check_conduit(network, ci, result.conduits[ci], criteria_for(criteria, overrides.conduits, network.conduits[ci].id),
                       found[1 + k]);
+        stamp_fid(found[1 + k], first, network.conduits[ci].fid);
+      }
     } catch (...) {
       failed[1 + k] = std::current_exception();
     }
@@ -141,8 +144,10 @@ Findings run_checks(const model::Network& network, const solve::MarchResult& res
     try {
       for (std::size_t s = 0; s < network.structures.size(); ++s) {
         const auto& id = network.structures[s].id;
+        const std::size_t first = found[0].size();
         check_structure(network.structures[s], result.structures[s],
                         criteria_for(criteria, overrides.structures, id).freeboard_m, found[0]);
+        stamp_fid(found[0], first, network.structures[s].fid);
       }
     } catch (...) {
       failed[0] = std::current_exception();

@@ -89,6 +89,14 @@ int run_check_command(const CheckArgs& a, const GlobalOptions& g) {
   for (const auto& t : a.tailwater)
     opt.tailwater_levels_m.push_back(config::parse_quantity(t, units::Dimension::length, "--tailwater"));
   if (!a.dry_run && a.out.empty()) throw Error(ErrorKind::bad_config, "check needs --out DIR (or --dry-run)");
+  if (!a.dry_run) {  // fail before the run, not after it: an output over an input named in the project
+    std::vector<std::string> named = {project.file};
+    for (const auto* src : {&project.pipes, &project.structures, &project.force_main_layer, &project.catchments.source,
+                            &project.catchments.land_use, &project.pump_station_points})
+      if (!src->source.empty()) named.push_back(src->source);
+    if (!project.ground.source.empty()) named.push_back(project.ground.source);
+    report::check_output_folder(a.out, named);
+  }
 
   report::OutputOptions out_opt;
   out_opt.drawings = !a.no_drawings;

@@ -6,6 +6,7 @@
 
 #include "cli/commands.hpp"
 #include "rimline/error.hpp"
+#include "rimline/signal_cleanup.hpp"
 #include "rimline/mapping/inspect.hpp"
 
 namespace rimline::cli {
@@ -95,12 +96,20 @@ int run_fields(const FieldsArgs& a, const GlobalOptions& g) {
                 "exists already; rimline does not overwrite a project file");
   const std::string text = mapping::starter_project_toml(sp, ss);
   const std::string tmp = a.write_project + ".partial";
+  register_for_cleanup(tmp);  // SIGINT / SIGTERM
   {
     std::ofstream out(tmp, std::ios::binary);
     out << text;
-    if (!out) throw Error(ErrorKind::bad_config, ErrorContext{tmp, "", "", ""}, "cannot be written");
+    out.flush();
+    if (!out) {
+      std::error_code ec;
+      fs::remove(tmp, ec);
+      release_from_cleanup(tmp);
+      throw Error(ErrorKind::bad_config, ErrorContext{a.write_project, "", "", ""}, "cannot be written");
+    }
   }
   fs::rename(tmp, a.write_project);
+  release_from_cleanup(tmp);
   if (!g.quiet) std::cout << "wrote " << a.write_project << ": review every mapping and unit before a run\n";
   return exit_ok;
 }

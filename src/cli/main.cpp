@@ -4,6 +4,7 @@
 
 #include "cli/commands.hpp"
 #include "cli/heap_pages.hpp"
+#include "cli/signal_watch.hpp"
 #include "rimline/error.hpp"
 #include "rimline/version.hpp"
 
@@ -39,6 +40,7 @@ std::string_view subcommand(int argc, char** argv) {
 int main(int argc, char** argv) {
   // Only a check allocates enough for the restart's ~40 ms to pay.
   if (subcommand(argc, argv) == "check") rimline::cli::restart_with_huge_pages(argv);
+  rimline::cli::watch_stop_signals();  // before any thread: they inherit the blocked signals
   CLI::App app{"rimline: hydraulic and energy grade lines through storm and sanitary networks, from GIS exports "
                "to a freeboard exception list.\nResults are for review by a licensed engineer; local codes and the "
                "approving authority govern.\nThe project file, key by key: docs/project-file.md. Exit codes: 0 ok, 1 findings at or "

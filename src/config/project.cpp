@@ -16,6 +16,7 @@
 #include "config/toml_plain.hpp"
 #include "config/toml_section.hpp"
 #include "rimline/error.hpp"
+#include "rimline/file_kind.hpp"
 
 namespace rimline::config {
 namespace {
@@ -474,6 +475,22 @@ void read_flows_and_tailwater(TomlSection flows, TomlSection tw, Project& p) {
     tw.fail("levels", "mode \"fixed\" needs at least one level");
 }
 
+// A folder given as the project file read as an empty file ("pipes.source missing"), a FIFO
+// blocked the reading forever: both are named instead. A missing file is left to the open below.
+void require_regular_project_file(const std::string& path) {
+  const FileKind kind = file_kind(path);
+  if (kind == FileKind::missing || kind == FileKind::regular) return;
+  std::string msg = "is " + std::string(file_kind_text(kind)) + ", not a project file";
+  if (kind == FileKind::directory) {
+    msg += "; give the path of the .toml file";
+    const std::string inside = (std::filesystem::path(path) / "project.toml").string();
+    if (file_kind(inside) == FileKind::regular) msg += " (did you mean " + inside + "?)";
+  } else {
+    msg += "; rimline reads the project file only from a regular file";
+  }
+  throw Error(ErrorKind::bad_config, ErrorContext{path, "", "", ""}, msg);
+}
+
 }  // namespace
 
 Project parse_project(const std::string& toml_text, const std::string& path_for_messages) {
@@ -483,9 +500,10 @@ Project parse_project(const std::string& toml_text, const std::string& path_for_
   p.directory = dir.empty() ? std::string(".") : dir.string();
 
   toml::table root;
-  detail::reject_unsafe_toml(toml_text, p.file);
+  const std::string text(detail::without_utf8_bom(toml_text, p.file));
+  detail::reject_unsafe_toml(text, p.file);
   try {
-    root = toml::parse(toml_text, path_for_messages);
+    root = toml::parse(text, path_for_messages);
   } catch (const toml::parse_error& e) {
     throw Error(ErrorKind::bad_config, ErrorContext{p.file, "", "", ""},
                 "line " + std::to_string(e.source().begin.line) + ": " + detail::plain_toml_error(e.description()));
@@ -533,6 +551,7 @@ Project load_project(const std::string& path) {
     throw Error(ErrorKind::bad_config, ErrorContext{path, "", "", ""},
                 "the project file does not exist (check the path; `rimline fields SOURCE --write-project " + path +
                     "` writes a starter)");
+  require_regular_project_file(path);  // a folder reads as an empty file, a FIFO blocks
   std::ifstream in(path, std::ios::binary);
   if (!in) throw Error(ErrorKind::bad_config, ErrorContext{path, "", "", ""}, "cannot open the project file");
   std::ostringstream text;

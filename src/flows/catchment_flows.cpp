@@ -105,6 +105,7 @@ CatchmentFlows storm_along_tree(const model::Network& network, const topology::T
                             "pipe " + c.id + ": the time of concentration " + q(p.tc_s, units::Dimension::time) +
                                 " lies outside the IDF table; its end segment was extended (log-log) to give " +
                                 q(i.intensity_m_s, units::Dimension::intensity) + "."});
+        findings.back().fid = c.fid;
       }
     }
     p.travel_time_s = travel(ci, p.flow_m3_s, p);

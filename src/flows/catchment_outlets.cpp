@@ -27,6 +27,7 @@ void add(Findings& findings, const char* code, Severity sev, const model::Catchm
   f.severity = sev;
   f.layer = LayerRole::catchments;
   f.feature_id = k.id;
+  f.fid = k.fid;
   f.field = field;
   f.message = std::move(message);
   findings.push_back(std::move(f));

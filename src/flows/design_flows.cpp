@@ -122,6 +122,7 @@ DesignFlows design_flows(const model::Network& network, const topology::Topology
                           units::Dimension::flow,
                           "pipe " + c.id + " has no design flow; the flow arriving from upstream (" +
                               rimline::q(q, units::Dimension::flow) + ") was used instead."});
+      findings.back().fid = c.fid;
     }
     out.flow_m3_s[ci] = q;
     if (std::isfinite(q)) arriving[c.to] += q;

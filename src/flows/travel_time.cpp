@@ -13,6 +13,7 @@ void note(Findings& findings, const model::Conduit& c, const std::string& why) {
   findings.push_back({"TRAVEL_VELOCITY", Severity::info, LayerRole::conduits, c.id, "",
                       std::numeric_limits<double>::quiet_NaN(), std::numeric_limits<double>::quiet_NaN(),
                       units::Dimension::dimensionless, "pipe " + c.id + ": " + why});
+  findings.back().fid = c.fid;
 }
 
 }  // namespace

@@ -77,6 +77,7 @@ struct Dem {
 Dem open_dem(const std::string& source, const model::Network& network, int band = 1) {
   static std::once_flag once;
   std::call_once(once, [] { GDALAllRegister(); });
+  detail::check_source_files(source, "force-main ground DEM");  // a FIFO would block the open
   detail::GdalErrorCapture capture;
   Dem d;
   d.dataset.reset(GDALDataset::Open(source.c_str(), GDAL_OF_RASTER | GDAL_OF_READONLY));

@@ -33,6 +33,12 @@ std::string printable_source(const std::string& source) {
 
 namespace {
 
+std::string replace_all(std::string text, const std::string& from, const std::string& to) {
+  for (std::size_t at = text.find(from); !from.empty() && at != std::string::npos; at = text.find(from, at + to.size()))
+    text.replace(at, from.size(), to);
+  return text;
+}
+
 void register_drivers() {
   static std::once_flag once;
   std::call_once(once, [] { GDALAllRegister(); });
@@ -59,27 +65,34 @@ std::vector<std::string> field_names(OGRLayer& layer) {
   return names;
 }
 
-GDALDatasetUniquePtr open_dataset(const LayerSource& src, const std::string& role) {
+OpenedSource open_dataset(const LayerSource& src, const std::string& role) {
   register_drivers();
+  check_source_files(src.source, role);
+  OpenedSource out;
+  out.copy = private_copy_if_sqlite(src.source, role);
+  const std::string& path = out.copy ? out.copy->path : src.source;
   GdalErrorCapture capture;
   std::vector<const char*> options;
   for (const auto& o : src.open_options) options.push_back(o.c_str());
   options.push_back(nullptr);
-  GDALDatasetUniquePtr ds(GDALDataset::Open(src.source.c_str(), GDAL_OF_VECTOR | GDAL_OF_READONLY, nullptr,
-                                            src.open_options.empty() ? nullptr : options.data(), nullptr));
-  if (!ds) {
+  out.dataset.reset(GDALDataset::Open(path.c_str(), GDAL_OF_VECTOR | GDAL_OF_READONLY, nullptr,
+                                      src.open_options.empty() ? nullptr : options.data(), nullptr));
+  if (!out.dataset) {
     std::string why = capture.last_error();
     if (why.empty()) why = "no GDAL vector driver recognises it";
+    if (out.copy) why = replace_all(why, out.copy->path, src.source);
     throw Error(ErrorKind::bad_input, ErrorContext{printable_source(src.source), "", "", ""},
                 "cannot open the " + role + " source: " + why);
   }
-  return ds;
+  return out;
 }
 
 OpenLayer open_layer(const LayerSource& src, const std::string& role) {
   OpenLayer out;
   out.source = printable_source(src.source);
-  out.dataset = open_dataset(src, role);
+  OpenedSource opened = open_dataset(src, role);
+  out.copy = std::move(opened.copy);
+  out.dataset = std::move(opened.dataset);
   GDALDataset& ds = *out.dataset;
   if (ds.GetLayerCount() == 0)
     throw Error(ErrorKind::bad_input, ErrorContext{out.source, "", "", ""}, "the " + role + " source has no layers");
@@ -105,6 +118,11 @@ OpenLayer open_layer(const LayerSource& src, const std::string& role) {
   if (char** files = ds.GetFileList()) {
     for (char** f = files; *f; ++f) out.files.emplace_back(*f);
     CSLDestroy(files);
+  }
+  if (out.copy) {  // the files read are the originals, hashed as copied
+    out.files.clear();
+    for (const auto& [file, sha] : out.copy->read) out.files.push_back(file);
+    out.read_hashes = out.copy->read;
   }
   return out;
 }
@@ -139,6 +157,20 @@ int field_index(const OpenLayer& l, const std::string& field, const std::string&
 void add_input_files(std::vector<std::string>& input_files, const std::vector<std::string>& files) {
   for (const auto& f : files)
     if (std::find(input_files.begin(), input_files.end(), f) == input_files.end()) input_files.push_back(f);
+}
+
+void add_input_files(std::vector<std::string>& input_files, std::vector<std::pair<std::string, std::string>>& hashes,
+                     const OpenLayer& layer) {
+  add_input_files(input_files, layer.files);
+  hashes.insert(hashes.end(), layer.read_hashes.begin(), layer.read_hashes.end());
+}
+
+std::string raw_text_by_fid(OGRLayer& layer, const std::string& field, std::int64_t fid) {
+  const int idx = field.empty() ? -1 : layer.GetLayerDefn()->GetFieldIndex(field.c_str());
+  if (idx < 0) return "";
+  GdalErrorCapture quiet;
+  const OGRFeatureUniquePtr f(layer.GetFeature(fid));
+  return f && f->IsFieldSetAndNotNull(idx) ? f->GetFieldAsString(idx) : "";
 }
 
 }  // namespace rimline::gis::detail

@@ -10,6 +10,7 @@
 #include <string>
 #include <vector>
 
+#include "gis/source_files.hpp"
 #include "rimline/config/project.hpp"
 
 namespace rimline::gis::detail {
@@ -41,19 +42,33 @@ class GdalErrorCapture {
 // The source text for messages, with any "password=..." of a connection string masked.
 std::string printable_source(const std::string& source);
 
+// A dataset and, for a SQLite source with a journal beside it, the private copy it reads (kept
+// until the dataset is closed: members are destroyed in reverse order).
+struct OpenedSource {
+  std::shared_ptr<PrivateCopy> copy;
+  GDALDatasetUniquePtr dataset;
+};
+
 struct OpenLayer {
+  std::shared_ptr<PrivateCopy> copy;  // declared before the dataset, so it outlives it
   GDALDatasetUniquePtr dataset;
   OGRLayer* layer = nullptr;  // owned by the dataset
   std::string source;         // printable source, for messages
   std::string layer_name;
-  std::vector<std::string> files;  // files behind the dataset (shapefile: .shp/.dbf/.shx/.prj ...)
+  std::vector<std::string> files;  // files behind the dataset (shapefile: .shp/.dbf/.shx/.prj ...), as named in the project
+  // SHA-256 of files read through a private copy (the bytes copied), by the original's path.
+  std::vector<std::pair<std::string, std::string>> read_hashes;
 };
 
 // Adds the files behind a layer to the run's list of inputs, each once (layers may share a file).
 void add_input_files(std::vector<std::string>& input_files, const std::vector<std::string>& files);
+// The same for an open layer, with the hashes of what it read through a private copy.
+void add_input_files(std::vector<std::string>& input_files, std::vector<std::pair<std::string, std::string>>& hashes,
+                     const OpenLayer& layer);
 
-// Opens `src` as a vector data source read-only. Throws Error(bad_input) when it cannot be opened.
-GDALDatasetUniquePtr open_dataset(const LayerSource& src, const std::string& role);
+// Opens `src` as a vector data source read-only, after check_source_files, from a private copy
+// when private_copy_if_sqlite makes one. Throws Error(bad_input) when it cannot be opened.
+OpenedSource open_dataset(const LayerSource& src, const std::string& role);
 
 // Opens `src` as a vector data source read-only and picks its layer (by name, or the first).
 // Throws Error(bad_input) when the source cannot be opened, Error(bad_config) for an unknown layer.
@@ -67,5 +82,9 @@ void require_geometry_and_features(const OpenLayer& l, const std::string& role);
 int field_index(const OpenLayer& l, const std::string& field, const std::string& role_key);
 
 std::vector<std::string> field_names(OGRLayer& layer);
+
+// The text of `field` in the feature `fid` of the layer, untrimmed ("" when the field or feature
+// is not there). Random access by fid: for the few features a message quotes, not for a whole layer.
+std::string raw_text_by_fid(OGRLayer& layer, const std::string& field, std::int64_t fid);
 
 }  // namespace rimline::gis::detail

@@ -22,6 +22,26 @@ struct LandUsePolygon {
 };
 
 // Exterior rings and holes scaled to metres, and the area-weighted centroid of the exterior rings.
+// The polygons of a repaired geometry as one multipolygon (make-valid may return a collection
+// holding the lines and points a ring collapsed to); null when no polygon is left.
+OGRGeometryUniquePtr polygons_only(OGRGeometryUniquePtr g) {
+  if (!g) return nullptr;
+  auto out = std::make_unique<OGRMultiPolygon>();
+  auto take = [&out](const OGRGeometry& part) {
+    const auto t = wkbFlatten(part.getGeometryType());
+    if (t == wkbPolygon) out->addGeometry(&part);
+    if (t == wkbMultiPolygon)
+      for (const auto* poly : *part.toMultiPolygon()) out->addGeometry(poly);
+  };
+  const auto t = wkbFlatten(g->getGeometryType());
+  if (t == wkbGeometryCollection)
+    for (const auto* part : *g->toGeometryCollection()) take(*part);
+  else
+    take(*g);
+  if (out->IsEmpty() || !(out->get_Area() > 0.0)) return nullptr;
+  return OGRGeometryUniquePtr(out.release());
+}
+
 void rings_of(const OGRGeometry& g, double scale, model::Catchment& k) {
   double sx = 0.0, sy = 0.0, sa = 0.0;
   auto take = [&](const OGRPolygon& poly) {
@@ -98,9 +118,11 @@ class CatchmentReader {
 
   bool read(OGRFeature& feature, const std::vector<LandUsePolygon>& land_use, model::Catchment& k) {
     k.fid = feature.GetFID();
-    auto id = read_text(feature, id_);
+    const IdText read_as = read_id(feature, id_);
+    auto id = read_as.id;
     k.id = id ? std::move(*id) : "fid " + std::to_string(k.fid);
     const FeatureRef who{LayerRole::catchments, k.id, findings_};
+    report_inexact_id(read_as, p_.catchments.fields.id, who);
     OGRGeometry* g = feature.GetGeometryRef();
     const double scale = layer_.placement.metres_per_unit;
     if (!g || g->IsEmpty()) {
@@ -118,7 +140,32 @@ class CatchmentReader {
               "The geometry could not be transformed into the run CRS; the catchment is left out.");
       return false;
     }
-    const double area_units = type == wkbPolygon ? g->toPolygon()->get_Area() : g->toMultiPolygon()->get_Area();
+    // A self-intersecting ring (a bow-tie) has a signed area that cancels part of itself: one whose
+    // true area is 333 m2 read as 200 m2 (issue 18, defect 5). Invalid polygons are repaired with
+    // GEOS make-valid (OGC Simple Features validity, ISO 19125-1 6.1.11) and the repair's area is used.
+    OGRGeometryUniquePtr repaired;
+    bool valid = true;
+    {
+      GdalErrorCapture quiet;  // GEOS's "Self-intersection at or near point ..." is said by the finding below
+      valid = g->IsValid();
+    }
+    if (!valid) {
+      const double drawn = (type == wkbPolygon ? g->toPolygon()->get_Area() : g->toMultiPolygon()->get_Area()) * scale * scale;
+      repaired = polygons_only(OGRGeometryUniquePtr(g->MakeValid()));
+      if (!repaired) {
+        who.add("DATA_GEOMETRY", Severity::error, "", "The polygon has no area; the catchment is left out.");
+        return false;
+      }
+      g = repaired.get();
+      const double used = g->toMultiPolygon()->get_Area() * scale * scale;
+      who.add("DATA_GEOMETRY", Severity::warning, "",
+              "The polygon is invalid (its rings cross or touch themselves); it was repaired (GEOS make-valid) and "
+              "its area " + q(used, Dimension::area) + " is used (the rings as drawn give " + q(drawn, Dimension::area) +
+                  ").",
+              used, std::numeric_limits<double>::quiet_NaN(), Dimension::area);
+    }
+    const auto kind = wkbFlatten(g->getGeometryType());
+    const double area_units = kind == wkbPolygon ? g->toPolygon()->get_Area() : g->toMultiPolygon()->get_Area();
     k.area_m2 = area_units * scale * scale;
     if (!(k.area_m2 > 0.0)) {
       who.add("DATA_GEOMETRY", Severity::error, "", "The polygon has no area; the catchment is left out.");
@@ -274,15 +321,18 @@ void read_catchments(const Project& project, PolygonLayer catchments, const Poly
     OGRFeatureUniquePtr feature(layer.GetNextFeature());
     if (!feature) break;
     model::Catchment& k = out.emplace_back();
+    const std::size_t first_finding = findings.size();
     const bool kept = reader.read(*feature, polygons, k);
     gdal.take(capture, k.id);
+    stamp_fid(findings, first_finding, feature->GetFID());
     if (!kept) out.pop_back();
   }
   gdal.finish(capture);
   std::vector<IdRef> ids;
   for (const auto& k : out) ids.push_back({k.id, k.fid});
   report_duplicate_ids(ids, LayerRole::catchments, project.catchments.fields.id, "catchments",
-                       "so findings that name it are ambiguous", findings);
+                       "so findings that name it are ambiguous", findings,
+                       [&](std::int64_t fid) { return raw_text_by_fid(layer, project.catchments.fields.id, fid); });
 }
 
 void read_catchment_layers(const Project& project, const RunCrs& crs, ReadResult& result) {
@@ -290,7 +340,7 @@ void read_catchment_layers(const Project& project, const RunCrs& crs, ReadResult
   // run whose flows come from elsewhere.
   const bool used = project.flow_mode == FlowMode::rational || project.flow_mode == FlowMode::sanitary;
   if (project.catchments.source.source.empty() || !used) return;
-  auto add_files = [&result](const OpenLayer& l) { add_input_files(result.input_files, l.files); };
+  auto add_files = [&result](const OpenLayer& l) { add_input_files(result.input_files, result.read_hashes, l); };
   OpenLayer k = open_layer(project.catchments.source, "catchments");
   require_geometry_and_features(k, "catchments");
   const TransformPtr k_to_run = transform_into_run(k, crs, project.crs_override);

@@ -55,7 +55,7 @@ void read_force_main_layer(const Project& project, const RunCrs& crs, DefaultTal
     c.force_main = true;
     result.network.conduits.push_back(std::move(c));
   }
-  add_input_files(result.input_files, mains.files);
+  add_input_files(result.input_files, result.read_hashes, mains);
 }
 
 }  // namespace detail
@@ -69,7 +69,7 @@ ReadResult read_network(const Project& project) {
   require_geometry_and_features(pipes, "pipes");
   check_pipe_mapping(project, pipes);
   RunCrs crs = plan_run_crs(pipes, project.crs_override);
-  result.input_files = pipes.files;
+  add_input_files(result.input_files, result.read_hashes, pipes);
   result.source_crs_wkt = crs.source_wkt;
   result.network.crs_description = crs.description;
   result.network.crs_wkt = crs.run_wkt;
@@ -82,6 +82,7 @@ ReadResult read_network(const Project& project) {
   Findings structure_findings;
   DefaultTally structure_defaults;
   std::vector<std::string> structure_files;  // added after the pipes' files, in the serial order
+  std::vector<std::pair<std::string, std::string>> structure_hashes;
   std::exception_ptr structures_failed;
   std::thread structure_reader;
   if (!project.structures.source.empty())
@@ -94,7 +95,7 @@ ReadResult read_network(const Project& project) {
         LayerRead structure_read{project, structures, Placement{to_run.get(), crs.metres_per_unit, crs.z_metres_per_unit},
                                  structure_findings, structure_defaults};
         read_structures(structure_read, result.network.structures);
-        structure_files = structures.files;
+        add_input_files(structure_files, structure_hashes, structures);
       } catch (...) {
         structures_failed = std::current_exception();
       }
@@ -113,6 +114,7 @@ ReadResult read_network(const Project& project) {
   result.findings.insert(result.findings.end(), std::make_move_iterator(structure_findings.begin()),
                          std::make_move_iterator(structure_findings.end()));
   add_input_files(result.input_files, structure_files);  // both layers may live in one file
+  result.read_hashes.insert(result.read_hashes.end(), structure_hashes.begin(), structure_hashes.end());
   read_catchment_layers(project, crs, result);
   result.defaults_used = defaults.take();
   for (auto& n : structure_defaults.take()) result.defaults_used.push_back(std::move(n));

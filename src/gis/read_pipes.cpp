@@ -86,9 +86,11 @@ std::optional<double> PipeReader::read_invert(OGRFeature& feature, int col, cons
 }
 
 void PipeReader::read_id(OGRFeature& feature, model::Conduit& c) {
-  auto id = read_text(feature, col_.id);
+  const IdText id_read = gis::detail::read_id(feature, col_.id);
+  auto id = id_read.id;
   c.id = id ? std::move(*id) : "fid " + std::to_string(c.fid);
   const FeatureRef who{LayerRole::conduits, c.id, in_.findings};
+  report_inexact_id(id_read, f_.id, who);
   if (col_.id >= 0 && !id)
     who.add("DATA_MISSING", Severity::warning, f_.id, f_.id + " is empty; the pipe is reported as \"" + c.id + "\".");
 }
@@ -208,13 +210,7 @@ void PipeReader::read_flow(OGRFeature& feature, model::Conduit& c, const Feature
       who.add("DATA_MISSING", Severity::warning, f_.flow.field,
               f_.flow.field + " is empty; " + std::string(none) + ".");
     } else if (const auto v = checked_number(raw, f_.flow.field, none, who)) {
-      const double si = units::to_si(*v, f_.flow.unit);
-      if (si < 0.0)
-        who.add("DATA_IMPLAUSIBLE", Severity::warning, f_.flow.field,
-                f_.flow.field + " " + format_value(*v, f_.flow.unit) + " is negative; " + std::string(none) + ".", si,
-                0.0, Dimension::flow);
-      else
-        c.flow_m3_s = si;
+      if (const auto si = checked_flow(*v, f_.flow, none, who)) c.flow_m3_s = *si;
     }
   }
   if (col_.rated_pressure >= 0) {
@@ -309,15 +305,18 @@ void read_pipes(LayerRead& in, std::vector<model::Conduit>& out) {
     OGRFeatureUniquePtr feature(layer.GetNextFeature());
     if (!feature) break;
     model::Conduit& c = out.emplace_back();
+    const std::size_t first_finding = in.findings.size();
     reader.read(*feature, c);
     gdal.take(capture, c.id);
+    stamp_fid(in.findings, first_finding, feature->GetFID());
   }
   gdal.finish(capture);
   std::vector<IdRef> ids;
   ids.reserve(out.size() - first);
   for (std::size_t i = first; i < out.size(); ++i) ids.push_back({out[i].id, out[i].fid});
   report_duplicate_ids(ids, LayerRole::conduits, in.project.pipe_fields.id, "pipes",
-                       "so results under this id are ambiguous", in.findings);
+                       "so results under this id are ambiguous", in.findings,
+                       [&](std::int64_t fid) { return raw_text_by_fid(layer, in.project.pipe_fields.id, fid); });
 }
 
 }  // namespace rimline::gis::detail

@@ -62,9 +62,11 @@ class StructureReader {
   // False when the structure is left out (no usable point).
   bool read(OGRFeature& feature, model::Structure& s) {
     s.fid = feature.GetFID();
-    auto id = read_text(feature, col_.id);
+    const IdText id_read = gis::detail::read_id(feature, col_.id);
+    auto id = id_read.id;
     s.id = id ? std::move(*id) : "fid " + std::to_string(s.fid);
     const FeatureRef who{LayerRole::structures, s.id, in_.findings};
+    report_inexact_id(id_read, f_.id, who);
     if (col_.id >= 0 && !id)
       who.add("DATA_MISSING", Severity::warning, f_.id,
               f_.id + " is empty; the structure is reported as \"" + s.id + "\".");
@@ -187,15 +189,8 @@ class StructureReader {
     if (col_.inflow >= 0) {
       const RawNumber raw = read_number(feature, col_.inflow);
       const char* none = "the structure has no local inflow";
-      if (const auto q = checked_number(raw, f_.inflow.field, none, who)) {
-        const double si = units::to_si(*q, f_.inflow.unit);
-        if (si >= 0.0)
-          s.inflow_m3_s = si;
-        else
-          who.add("DATA_IMPLAUSIBLE", Severity::warning, f_.inflow.field,
-                  f_.inflow.field + " " + format_value(*q, f_.inflow.unit) + " is negative; " + std::string(none) + ".",
-                  si, 0.0, Dimension::flow);
-      }
+      if (const auto q = checked_number(raw, f_.inflow.field, none, who))
+        if (const auto si = checked_flow(*q, f_.inflow, none, who)) s.inflow_m3_s = *si;
     }
   }
 
@@ -236,8 +231,10 @@ void read_structures(LayerRead& in, std::vector<model::Structure>& out) {
     OGRFeatureUniquePtr feature(layer.GetNextFeature());
     if (!feature) break;
     model::Structure& s = out.emplace_back();
+    const std::size_t first_finding = in.findings.size();
     const bool kept = reader.read(*feature, s);
     gdal.take(capture, s.id);
+    stamp_fid(in.findings, first_finding, feature->GetFID());
     if (!kept) out.pop_back();
   }
   gdal.finish(capture);
@@ -245,7 +242,8 @@ void read_structures(LayerRead& in, std::vector<model::Structure>& out) {
   ids.reserve(out.size() - first);
   for (std::size_t i = first; i < out.size(); ++i) ids.push_back({out[i].id, out[i].fid});
   report_duplicate_ids(ids, LayerRole::structures, in.project.structure_fields.id, "structures",
-                       "so pipes that name this id are ambiguous", in.findings);
+                       "so pipes that name this id are ambiguous", in.findings,
+                       [&](std::int64_t fid) { return raw_text_by_fid(layer, in.project.structure_fields.id, fid); });
 }
 
 }  // namespace rimline::gis::detail

@@ -6,6 +6,7 @@
 #include <cmath>
 #include <cstdio>
 
+#include "gis/value_checks.hpp"
 #include "rimline/error.hpp"
 
 namespace rimline::gis::detail {
@@ -81,6 +82,33 @@ int utm_epsg(double longitude_deg, double latitude_deg) {
   return (latitude_deg < 0.0 ? 32700 : 32600) + utm_zone(longitude_deg);
 }
 
+namespace {
+
+// Projected coordinates (metres, feet) declared as a geographic CRS: every feature failed its
+// transform one by one and the run ended with an empty network (issue 18). Said once instead:
+// longitude and latitude have their ranges, and the CRS its area of use (EPSG, in degrees; 1 degree
+// of slack for features drawn just past its edge).
+void require_in_area_of_use(const OpenLayer& pipes, const OGRSpatialReference& crs, const OGREnvelope& e) {
+  double west = -180.0, south = -90.0, east = 180.0, north = 90.0;
+  const char* area = nullptr;
+  const bool known = crs.GetAreaOfUse(&west, &south, &east, &north, &area) && west <= east;  // not across 180
+  const bool in_range = e.MinX >= -180.0 && e.MaxX <= 360.0 && e.MinY >= -90.0 && e.MaxY <= 90.0;
+  const bool in_area = !known || (e.MinX >= west - 1.0 && e.MaxX <= east + 1.0 && e.MinY >= south - 1.0 &&
+                                  e.MaxY <= north + 1.0);
+  if (in_range && in_area) return;
+  const std::string extent = "x " + format_number(e.MinX) + " to " + format_number(e.MaxX) + ", y " +
+                             format_number(e.MinY) + " to " + format_number(e.MaxY);
+  std::string why = in_range ? "outside its area of use (" + std::string(area ? area : "") + ": longitude " +
+                                   format_number(west) + " to " + format_number(east) + ", latitude " +
+                                   format_number(south) + " to " + format_number(north) + ")"
+                             : "not longitudes and latitudes (they look like projected metres or feet)";
+  throw Error(ErrorKind::bad_input, ErrorContext{pipes.source, pipes.layer_name, "", ""},
+              "the layer's CRS " + label(crs) + " is geographic, but its coordinates (" + extent + ") are " + why +
+                  "; declare the CRS the coordinates are in ([project] crs = \"EPSG:...\")");
+}
+
+}  // namespace
+
 RunCrs plan_run_crs(const OpenLayer& pipes, const std::string& crs_override) {
   RunCrs r;
   r.source = layer_crs(pipes, crs_override);
@@ -93,6 +121,7 @@ RunCrs plan_run_crs(const OpenLayer& pipes, const std::string& crs_override) {
         throw Error(ErrorKind::bad_input, ErrorContext{pipes.source, pipes.layer_name, "", ""},
                     "the layer's CRS is geographic and its extent cannot be computed to choose a projection");
     }
+    require_in_area_of_use(pipes, r.source, extent);
     const double lon = 0.5 * (extent.MinX + extent.MaxX);
     const double lat = 0.5 * (extent.MinY + extent.MaxY);
     const int epsg = utm_epsg(lon, lat);
@@ -127,6 +156,11 @@ RunCrs plan_run_crs(const OpenLayer& pipes, const std::string& crs_override) {
 
 TransformPtr transform_into_run(const OpenLayer& layer, const RunCrs& run, const std::string& crs_override) {
   const OGRSpatialReference srs = layer_crs(layer, crs_override);
+  if (srs.IsGeographic()) {  // every layer, not only the pipes, may declare the wrong CRS
+    OGREnvelope extent;
+    GdalErrorCapture capture;
+    if (layer.layer->GetExtent(&extent, TRUE) == OGRERR_NONE) require_in_area_of_use(layer, srs, extent);
+  }
   if (srs.IsSame(&run.source)) {
     if (!run.to_run) return nullptr;
     return make_transform(srs, run.run, layer);

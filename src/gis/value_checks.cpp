@@ -1,5 +1,7 @@
 #include "gis/value_checks.hpp"
 
+#include "base/number_text.hpp"
+
 #include <cctype>
 #include <charconv>
 #include <cmath>
@@ -92,10 +94,8 @@ std::string format_value(double raw, units::Unit u) {
 std::string format_si(double si, units::Dimension d) { return q(si, d); }
 
 std::string format_fixed(double v, int decimals) {
-  char buf[48];
-  std::snprintf(buf, sizeof buf, "%.*f", decimals, v);
-  std::string out = buf;
-  if (out.find('.') != std::string::npos) {
+  std::string out = fixed_text(v, decimals);  // bounded: a 1e300 value was cut to 47 wrong digits
+  if (out.find('.') != std::string::npos && out.find('e') == std::string::npos) {
     while (out.back() == '0') out.pop_back();
     if (out.back() == '.') out.pop_back();
   }
@@ -198,6 +198,53 @@ std::optional<double> checked_size(const RawNumber& raw, const FieldRef& ref, co
     return std::nullopt;
   }
   return si;
+}
+
+std::optional<double> checked_flow(double raw, const FieldRef& ref, std::string_view consequence, const FeatureRef& who) {
+  const double si = units::to_si(raw, ref.unit);
+  if (si >= 0.0 && si <= max_flow_m3_s) return si;
+  const bool negative = si < 0.0;
+  who.add("DATA_IMPLAUSIBLE", Severity::warning, ref.field,
+          ref.field + " " + format_value(raw, ref.unit) + (negative ? " is negative; " : " is beyond any drain (above ") +
+              (negative ? "" : format_si(max_flow_m3_s, units::Dimension::flow) + "); ") + std::string(consequence) + ".",
+          std::isfinite(si) ? si : std::numeric_limits<double>::quiet_NaN(), negative ? 0.0 : max_flow_m3_s,
+          units::Dimension::flow);
+  return std::nullopt;
+}
+
+IdText read_id(OGRFeature& f, int idx) {
+  IdText out;
+  if (idx < 0 || !f.IsFieldSetAndNotNull(idx)) return out;
+  const OGRFieldType type = f.GetFieldDefnRef(idx)->GetType();
+  if (type == OFTReal) {
+    const double v = f.GetFieldAsDouble(idx);
+    constexpr double exact = 9007199254740992.0;  // 2^53: every whole number up to it is a double
+    if (std::isfinite(v) && v == std::trunc(v) && std::fabs(v) < 1e18) {
+      std::string text;
+      append_fixed(text, v, 0);
+      out.id = text;
+      if (std::fabs(v) > exact)
+        out.inexact = "the number is beyond 2^53, where a real field no longer keeps every whole number: " + text +
+                      " may not be the id in the file";
+      return out;
+    }
+  }
+  if (type == OFTInteger64) {
+    const GIntBig v = f.GetFieldAsInteger64(idx);
+    if (v == std::numeric_limits<GIntBig>::max() || v == std::numeric_limits<GIntBig>::min())
+      out.inexact = "the number is at the end of the 64-bit range, where GDAL puts ids beyond it: " +
+                    std::to_string(v) + " may not be the id in the file";
+  }
+  const std::string_view text = trim(f.GetFieldAsString(idx));
+  if (!text.empty()) out.id = std::string(text);
+  return out;
+}
+
+void report_inexact_id(const IdText& id, const std::string& field, const FeatureRef& who) {
+  if (id.inexact.empty()) return;
+  who.add("DATA_ID_INEXACT", Severity::warning, field,
+          field + " is a number that cannot be read exactly (" + id.inexact +
+              "); ids that differ only there read alike: store ids as text.");
 }
 
 }  // namespace rimline::gis::detail

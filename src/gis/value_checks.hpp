@@ -43,6 +43,26 @@ struct FeatureRef {
            units::Dimension d = units::Dimension::dimensionless) const;
 };
 
+// An id read as text, exactly as the source holds it where its type allows (issue 18: ids beyond
+// 2^53 read from a real field as "9.00719925474099e+15", beyond 64 bits clamped by GDAL to
+// 9223372036854775807, were false duplicates under ids not in the file). A whole number in a real
+// field is written in full ("9007199254740993" where exact). `inexact` says why the id read may not
+// be the one in the file (empty when it is exact): the caller reports DATA_ID_INEXACT.
+struct IdText {
+  std::optional<std::string> id;
+  std::string inexact;
+};
+IdText read_id(OGRFeature& f, int idx);
+// DATA_ID_INEXACT for an id read_id could not read exactly.
+void report_inexact_id(const IdText& id, const std::string& field, const FeatureRef& who);
+
+// A flow as read (design flow, local inflow): the value in SI when it is at least 0 and at most
+// max_flow_m3_s; otherwise DATA_IMPLAUSIBLE ("is negative" / "is beyond any drain") and nullopt.
+// An inflow of 1e300 L/s was once taken and read much later as "must be finite, got inf" (issue 18).
+// 1,000 m3/s is beyond any urban storm drain or sewer (common practice, no source).
+inline constexpr double max_flow_m3_s = 1000.0;
+std::optional<double> checked_flow(double raw, const FieldRef& ref, std::string_view consequence, const FeatureRef& who);
+
 // An elevation (invert, rim, tailwater): null -> DATA_MISSING; text, non-finite, exactly 0 (when
 // zero_means_missing), or outside [invert_min, invert_max) -> DATA_IMPLAUSIBLE. `what` names it.
 std::optional<double> checked_level(const RawNumber& raw, const FieldRef& ref, std::string_view what,

@@ -10,6 +10,7 @@
 #include <unordered_map>
 
 #include "base/number_text.hpp"
+#include "report/budgets_csv.hpp"
 #include "report/design_flows_html.hpp"
 #include "report/method_text.hpp"
 #include "report/html_cells.hpp"
@@ -199,8 +200,18 @@ std::string budget(const run::CheckRun& run, std::size_t s) {
   h += row({"Item", "Feature", "How", "K", "V (" + uv + ")", "V&#178;/2g (" + u + ")", "Length (" + u + ")",
             "Head (" + u + ")", "Level (" + u + ")"},
            "th");
+  // Bounded (issue 18, defect 9): the terms nearest the structure, the rest one summary row; the
+  // whole budget, shared with the others along its route, is in budgets.csv.
+  const std::size_t first_shown = items.size() > budget_rows_shown ? items.size() - budget_rows_shown : 0;
   double level = 0.0;
-  for (const auto& it : items) {
+  for (std::size_t i = 0; i < first_shown; ++i) level += items[i].head_m;
+  if (first_shown > 0)
+    h += "<tr class=\"summarised\"><td colspan=\"7\">" + esc(items[0].kind) + " and the next " +
+         std::to_string(first_shown - 1) + " terms down the route, from " + esc(items[first_shown - 1].feature_id) +
+         " to the outfall (every term: budgets.csv, budget " + esc(run.read.network.structures[s].id) + ")</td><td>" +
+         value(level, Dimension::length, sys) + "</td><td>" + value(level, Dimension::length, sys) + "</td></tr>\n";
+  for (std::size_t i = first_shown; i < items.size(); ++i) {
+    const auto& it = items[i];
     level += it.head_m;
     std::string how = it.basis;
     if (it.jump_m > 0.0) how += "; jump " + value(it.jump_m, Dimension::length, sys) + " " + u;
@@ -272,10 +283,14 @@ std::string findings_table(const run::CheckRun& run, const std::vector<const Fin
         h += finding_row(run, *f, links);
         // Budgets answer "why is the HGL this high here": asked of warnings and errors, not of
         // notes such as an unknown rim (thousands of them in a municipal export).
-        if (!budgets || f->layer != LayerRole::structures || f->severity == Severity::info || run.cases.empty()) continue;
+        if (!budgets || !has_budget(*f) || run.cases.empty()) continue;
         const auto it = structure_index.find(f->feature_id);
         if (it == structure_index.end()) continue;
-        const std::string b = budget(run, it->second);
+        std::size_t s = it->second;  // where ids repeat, the structure with the finding's fid
+        if (f->fid >= 0 && run.read.network.structures[s].fid != f->fid)
+          for (std::size_t t = 0; t < run.read.network.structures.size(); ++t)
+            if (run.read.network.structures[t].fid == f->fid && run.read.network.structures[t].id == f->feature_id) s = t;
+        const std::string b = budget(run, s);
         if (!b.empty()) h += "<tr class=\"budget-row\"><td></td><td colspan=\"8\">" + b + "</td></tr>\n";
       }
       if (total > rows_per_code)
@@ -353,7 +368,8 @@ std::string profiles_section(const std::vector<RenderedProfile>& profiles, bool 
 }  // namespace
 
 void write_report_html(std::ostream& out, const run::CheckRun& run, const std::vector<RenderedProfile>& profiles,
-                       const std::string& date, bool pdf_written, const std::string& selection) {
+                       const std::string& date, bool pdf_written, const std::string& selection,
+                       const Findings* output_findings) {
   std::vector<const Finding*> criteria, data;
   if (run.data_finding.size() == run.findings.size()) {
     for (std::size_t k = 0; k < run.findings.size(); ++k) (run.data_finding[k] ? data : criteria).push_back(&run.findings[k]);
@@ -362,6 +378,8 @@ void write_report_html(std::ostream& out, const run::CheckRun& run, const std::v
     for (const auto& f : run.data_findings) data_keys.insert(finding_key(f));
     for (const auto& f : run.findings) (data_keys.count(finding_key(f)) ? data : criteria).push_back(&f);
   }
+  if (output_findings)
+    for (const auto& f : *output_findings) data.push_back(&f);
 
   // Written a section at a time: the page of a city's run is ~22 MB, and built as one string it
   // held ~0.1 GB at once (its growth and the sections appended to it).
@@ -380,7 +398,8 @@ void write_report_html(std::ostream& out, const run::CheckRun& run, const std::v
       << network_solve_section(run);
   out << "<section id=\"exceptions\"><h2>Exception list</h2>\n<p>Design criteria not met, worst case over the "
          "tailwater cases, by severity. A structure warning or error opens to its energy budget down to the "
-         "outfall.</p>\n";
+         "outfall: the " + std::to_string(budget_rows_shown) + " terms nearest the structure, the rest summarised in one "
+         "row; budgets.csv holds every term, each once where budgets share their route.</p>\n";
   out << findings_table(run, criteria, "exception-table", true, links) << "</section>\n";
   out << pump_stations_section(run);
   out << results_tables_section(run, links);

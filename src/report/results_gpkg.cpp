@@ -14,15 +14,18 @@
 #include <vector>
 
 #include "rimline/error.hpp"
+#include "rimline/file_kind.hpp"
 #include "rimline/flows/catchment_outlets.hpp"
 #include "rimline/hydraulics/section.hpp"
 #include "rimline/report/outputs.hpp"
 #include "rimline/report/report_html.hpp"
 #include "rimline/report/staged_files.hpp"
+#include "gis/gdal_source.hpp"
 #include "report/gpkg_rows.hpp"
 #include "report/gpkg_rtree.hpp"
 #include "report/layer_styles.hpp"
 #include "report/sqlite_db.hpp"
+#include "report/write_failure.hpp"
 
 namespace rimline::report {
 namespace {
@@ -40,7 +43,7 @@ class Writer {
     auto* drv = GetGDALDriverManager()->GetDriverByName("GPKG");
     if (!drv) throw Error(ErrorKind::internal, "GDAL has no GPKG driver");
     ds_.reset(drv->Create(path.c_str(), 0, 0, 0, GDT_Unknown, nullptr));
-    if (!ds_) throw Error(ErrorKind::bad_config, ErrorContext{path, "", "", ""}, "cannot be created");
+    if (!ds_) throw_write_failure(path, 0, gdal_.last_error());
     const auto& net = run.read.network;
     if (!run.read.source_crs_wkt.empty()) out_srs_.importFromWkt(run.read.source_crs_wkt.c_str());
     else if (!net.crs_wkt.empty()) out_srs_.importFromWkt(net.crs_wkt.c_str());
@@ -65,9 +68,12 @@ class Writer {
       write_force_main_points();
       write_pump_cases();
     }
-    if (ds_->CommitTransaction() != OGRERR_NONE)
-      throw Error(ErrorKind::bad_config, ErrorContext{path_, "", "", ""}, "cannot be written");
+    if (ds_->CommitTransaction() != OGRERR_NONE) throw_write_failure(path_, 0, gdal_.last_error());
     ds_.reset();  // closed before SQLite opens it again for the rows and the indexes
+    // GDAL reports some failures only on its error channel (a full disk: "ERROR 1: ... database or
+    // disk is full" for each table it could not make); the first is the cause.
+    for (const auto& m : gdal_.messages())
+      if (m.is_error) throw_write_failure(path_, 0, m.text);
     SqliteDb db(path_);
     db.exec("BEGIN", "");
     std::vector<SpatialIndexRequest> indexes;
@@ -112,7 +118,7 @@ class Writer {
     opts = CSLSetNameValue(opts, "SPATIAL_INDEX", "NO");
     OGRLayer* l = ds_->CreateLayer(name, type == wkbNone ? nullptr : &out_srs_, type, opts);
     CSLDestroy(opts);
-    if (!l) throw Error(ErrorKind::bad_config, ErrorContext{path_, name, "", ""}, "layer cannot be created");
+    if (!l) throw_write_failure(path_, 0, "layer " + std::string(name) + ": " + gdal_.last_error());
     l->SetMetadataItem("RIMLINE_UNITS", sys_ == units::System::us ? "length ft, flow cfs, velocity ft/s"
                                                                   : "length m, flow m3/s, velocity m/s");
     l->SetMetadataItem("RIMLINE_CAUTION", caution);
@@ -132,7 +138,7 @@ class Writer {
 
   void add(OGRLayer* l, OGRFeature& f) {
     if (l->CreateFeature(&f) != OGRERR_NONE)
-      throw Error(ErrorKind::bad_config, ErrorContext{path_, l->GetName(), "", ""}, "a feature cannot be written");
+      throw_write_failure(path_, 0, "layer " + std::string(l->GetName()) + ": " + gdal_.last_error());
     const OGRGeometry* g = f.GetGeometryRef();
     if (!g || g->IsEmpty()) return;
     OGREnvelope e;
@@ -586,6 +592,7 @@ class Writer {
     }
   }
 
+  gis::detail::GdalErrorCapture gdal_;  // GDAL's messages kept off stderr; declared first, popped last
   const run::CheckRun& run_;
   units::System sys_;
   std::string path_;
@@ -604,25 +611,64 @@ class Writer {
 
 void write_results_gpkg(const run::CheckRun& run, const std::string& path) { Writer(run, path).write(); }
 
+const std::vector<std::string>& output_names() {
+  static const std::vector<std::string> names = {"exceptions.csv", "results.gpkg", "summary.json", "report.html",
+                                                 "profiles.pdf",   "profiles",     "budgets.csv"};
+  return names;
+}
+
+void check_output_folder(const std::string& out_dir, const std::vector<std::string>& inputs) {
+  const FileKind kind = file_kind(out_dir);
+  if (kind != FileKind::missing && kind != FileKind::directory)
+    throw Error(ErrorKind::bad_config, ErrorContext{out_dir, "", "", ""},
+                "is " + std::string(file_kind_text(kind)) + ", not a folder; --out names the folder the outputs go in");
+  refuse_outputs_over_inputs(out_dir, output_names(), inputs);
+}
+
+namespace {
+
+// An error of one of the writers, told with the output's final name and the state of the folder.
+[[noreturn]] void rethrow_with_state(const Error& e, const StagedFiles& files) {
+  const std::string prefix = format_context(e.where());
+  std::string what = std::string(e.what()).substr(prefix.size());
+  for (std::size_t at = what.find(files.staging_dir()); at != std::string::npos; at = what.find(files.staging_dir()))
+    what.replace(at, files.staging_dir().size(), files.out_dir());
+  ErrorContext where = e.where();
+  where.file = files.final_name(where.file);
+  throw Error(e.kind(), where, what + "; " + StagedFiles::untouched);
+}
+
+}  // namespace
+
 void write_outputs(const run::CheckRun& run, const std::string& out_dir, const OutputOptions& options) {
-  StagedFiles files(out_dir);
+  std::vector<std::string> inputs;
+  for (const auto& f : run.inputs) inputs.push_back(f.path);
+  check_output_folder(out_dir, inputs);  // before anything is written
+  StagedFiles files(out_dir, output_names());
   const std::string gpkg = files.path_for("results.gpkg");
   std::exception_ptr gpkg_failed;
-  {
-    // results.gpkg (SQLite inserts) is the longest writer of a city-wide run and shares nothing
-    // with the others but the finished run: it is written beside them, on another core.
-    std::jthread gpkg_writer([&] {
-      try {
-        write_results_gpkg(run, gpkg);
-      } catch (...) {
-        gpkg_failed = std::current_exception();
-      }
-    });
-    files.write_stream("exceptions.csv", [&run](std::ostream& out) { write_exceptions_csv(run, out); });
-    files.write_text("summary.json", summary_json(run));
-    if (options.drawings) write_drawings(run, files, options.profiles);
+  try {
+    {
+      // results.gpkg (SQLite inserts) is the longest writer of a city-wide run and shares nothing
+      // with the others but the finished run: it is written beside them, on another core.
+      std::jthread gpkg_writer([&] {
+        try {
+          write_results_gpkg(run, gpkg);
+        } catch (...) {
+          gpkg_failed = std::current_exception();
+        }
+      });
+      // The drawings first: one that cannot be written is a finding the list and summary carry.
+      Findings output_findings;
+      if (options.drawings) write_drawings(run, files, options.profiles, &output_findings);
+      files.write_stream("exceptions.csv",
+                         [&](std::ostream& out) { write_exceptions_csv(run, out, output_findings); });
+      files.write_text("summary.json", summary_json(run, output_findings));
+    }
+    if (gpkg_failed) std::rethrow_exception(gpkg_failed);
+  } catch (const Error& e) {
+    rethrow_with_state(e, files);
   }
-  if (gpkg_failed) std::rethrow_exception(gpkg_failed);
   files.commit();
 }
 

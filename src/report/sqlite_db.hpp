@@ -7,6 +7,7 @@
 #include <memory>
 #include <string>
 
+#include "report/write_failure.hpp"
 #include "rimline/error.hpp"
 
 namespace rimline::report {
@@ -44,7 +45,9 @@ class SqliteDb {
     sqlite3_reset(s);
   }
   [[noreturn]] void fail(const std::string& table, const std::string& what) const {
-    throw Error(ErrorKind::bad_config, ErrorContext{path_, table, "", ""}, what);
+    // SQLITE_FULL ("database or disk is full") is named as a full disk (write_failure.hpp).
+    throw Error(ErrorKind::bad_config, ErrorContext{path_, table, "", ""},
+                means_disk_full(0, what) ? write_failure_text(ENOSPC, "") : what);
   }
   sqlite3* get() const { return db_.get(); }
 

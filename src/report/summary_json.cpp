@@ -128,7 +128,7 @@ void outfalls_json(const run::CheckRun& run, const run::Case& c, ordered_json& k
 
 }  // namespace
 
-std::string summary_json(const run::CheckRun& run) {
+std::string summary_json(const run::CheckRun& run, const Findings& more) {
   const auto sys = run.report_units;
   const auto& net = run.read.network;
   ordered_json j;
@@ -205,10 +205,11 @@ std::string summary_json(const run::CheckRun& run) {
 
   std::map<std::string, int> by_code;
   std::map<std::string, int> by_severity{{"error", 0}, {"warning", 0}, {"info", 0}};
-  for (const auto& f : run.findings) {
-    ++by_code[f.code];
-    ++by_severity[std::string(severity_name(f.severity))];
-  }
+  for (const auto* list : {&run.findings, &more})
+    for (const auto& f : *list) {
+      ++by_code[f.code];
+      ++by_severity[std::string(severity_name(f.severity))];
+    }
   j["counts"] = {{"by_code", by_code}, {"by_severity", by_severity}};
 
   // Worst freeboard over the envelope.

@@ -96,15 +96,18 @@ class DrawnFeatures {
 // lists; those the drawings can show are copied instead, and the cases keep only those (a city's
 // run has ~10^6 findings: held twice they were ~0.3 GB).
 Findings worst_per_feature(std::vector<Case>& cases, const DrawnFeatures& drawn, std::vector<std::string>& case_of) {
+  // The fid is part of the key: two features sharing an id each keep their own finding (issue 18).
   struct Key {
     std::string_view code, id;
     LayerRole layer;
+    std::int64_t fid;
     bool operator==(const Key&) const = default;
   };
   struct KeyHash {
     std::size_t operator()(const Key& k) const {
       std::size_t h = std::hash<std::string_view>{}(k.id);
-      for (std::size_t v : {std::hash<std::string_view>{}(k.code), static_cast<std::size_t>(k.layer)})
+      for (std::size_t v : {std::hash<std::string_view>{}(k.code), static_cast<std::size_t>(k.layer),
+                            static_cast<std::size_t>(k.fid)})
         h ^= v + 0x9e3779b97f4a7c15ULL + (h << 6) + (h >> 2);  // the usual hash combine
       return h;
     }
@@ -129,7 +132,7 @@ Findings worst_per_feature(std::vector<Case>& cases, const DrawnFeatures& drawn,
       // FLOODED and FREEBOARD are one question at one structure: keep the worse of the two.
       const std::string_view key_code = f.code == "FLOODED" ? std::string_view("FREEBOARD") : std::string_view(f.code);
       const double b = badness(f);
-      const auto [it, fresh] = slot.try_emplace(Key{key_code, f.feature_id, f.layer}, winners.size());
+      const auto [it, fresh] = slot.try_emplace(Key{key_code, f.feature_id, f.layer, f.fid}, winners.size());
       if (fresh) {
         winners.push_back({k, i, b, k, i, 1, true});
         continue;
@@ -255,7 +258,7 @@ void gather_march_findings(std::vector<Case>& cases, Findings& into, std::vector
   for (std::size_t k = 0; k < cases.size(); ++k) {
     for (auto& f : cases[k].march.findings) {
       const std::string key = f.code + '\x1f' + std::to_string(static_cast<int>(f.layer)) + '\x1f' + f.feature_id +
-                              '\x1f' + f.message;
+                              '\x1f' + std::to_string(f.fid) + '\x1f' + f.message;  // fid: ids may repeat
       const auto [it, fresh] = seen.try_emplace(key, into.size());
       if (fresh) {
         into.push_back(std::move(f));
@@ -329,6 +332,35 @@ void compute_envelope(CheckRun& run) {
   }
 }
 
+// The fid of findings made without one (force mains, pump stations) whose id names one feature of
+// the network; where the id is used twice it stays unknown (-1) rather than guessed.
+void fill_unique_fids(const model::Network& net, Findings& findings) {
+  // id -> fid per kind of feature: -2 while unseen, -1 when ambiguous.
+  std::unordered_map<std::string_view, std::int64_t> wanted[2];  // [0] structures, [1] conduits
+  auto kind = [](const Finding& f) {
+    if (f.fid >= 0) return -1;
+    switch (f.layer) {
+      case LayerRole::structures:
+      case LayerRole::pump_stations: return 0;
+      case LayerRole::conduits:
+      case LayerRole::force_mains: return 1;
+      default: return -1;
+    }
+  };
+  for (const auto& f : findings)
+    if (const int k = kind(f); k >= 0) wanted[k].emplace(f.feature_id, -2);
+  if (wanted[0].empty() && wanted[1].empty()) return;
+  auto see = [](auto& map, const std::string& id, std::int64_t fid) {
+    const auto it = map.find(id);
+    if (it != map.end()) it->second = it->second == -2 ? fid : -1;
+  };
+  for (const auto& s : net.structures) see(wanted[0], s.id, s.fid);
+  for (const auto& c : net.conduits) see(wanted[1], c.id, c.fid);
+  for (auto& f : findings)
+    if (const int k = kind(f); k >= 0)
+      if (const auto it = wanted[k].find(f.feature_id); it != wanted[k].end() && it->second >= 0) f.fid = it->second;
+}
+
 }  // namespace
 
 EnvelopeCase structure_envelope(const CheckRun& run, std::size_t s) {
@@ -370,7 +402,7 @@ CheckRun run_check(const config::Project& project, const RunOptions& options) {
     files.insert(files.begin(), run.project.file);
     return files;
   };
-  InputHashes hashes(files_read());
+  InputHashes hashes(files_read(), run.read.read_hashes);
   // Darcy-Weisbach's Reynolds number uses the viscosity of water at the project's temperature
   // (default 15 degC), for the gravity pipes and the force mains alike.
   run.kinematic_viscosity_m2_s = hydraulics::water_kinematic_viscosity_m2_s(project.methods.water_temperature_c);
@@ -503,6 +535,7 @@ CheckRun run_check(const config::Project& project, const RunOptions& options) {
       criteria_case.emplace_back(run.cases.size() > 1 ? "highest receiving level over the cases" : run.cases.front().label);
     }
   merge_findings(run, std::move(criteria), data_case, criteria_case);
+  fill_unique_fids(net, run.findings);
   run.inputs = hashes.finish(files_read());
   return run;
 }

@@ -109,11 +109,13 @@ class Marcher {
                                           std::move(inflows));
     std::string fallback;
     auto loss = structure_loss_for(opt_, in, &fallback);
-    if (!fallback.empty())
+    if (!fallback.empty()) {
       findings_.push_back({"LOSS_FALLBACK", Severity::info, LayerRole::structures, st.id, "", nan, nan,
                            units::Dimension::dimensionless,
                                "structure " + st.id + ": the chosen loss method could not be applied (" + fallback +
                                    "); the constant K " + q(in.k_constant, units::Dimension::dimensionless) + " was used."});
+      findings_.back().fid = st.fid;
+    }
     return loss;
   }
 
@@ -147,6 +149,7 @@ class Marcher {
                                units::Dimension::length,
                                "pipe " + c.id + " has no usable " + end + " invert; " + from +
                                    " stands in for it, so its figures and those upstream rest on an estimate."});
+      findings_.back().fid = c.fid;
     }
     if (!std::isfinite(r.flow_m3_s)) {
       r.note = "not checked: no design flow";
@@ -175,11 +178,13 @@ class Marcher {
       blocked_at(ci, r.note);
       return;
     }
-    if (!r.profile.converged)
+    if (!r.profile.converged) {
       findings_.push_back({"NOT_CONVERGED", Severity::warning, LayerRole::conduits, c.id, "", nan, nan,
                                units::Dimension::dimensionless,
                                "pipe " + c.id + ": the water-surface profile did not converge (" + r.profile.note +
                                    "); its figures are approximate."});
+      findings_.back().fid = c.fid;
+    }
   }
 
   // The step points stay in the result for the whole run. Only drawn pipes need them all; the
@@ -252,6 +257,7 @@ class Marcher {
     findings_.push_back({"NOT_CHECKED", Severity::warning, LayerRole::conduits, c.id, "", nan, nan,
                              units::Dimension::dimensionless,
                              "pipe " + c.id + " was " + why + "; the structures upstream of it were not checked."});
+    findings_.back().fid = c.fid;
   }
 
   const model::Network& net_;
@@ -271,6 +277,7 @@ void report_unsolved(const model::Network& net, const topology::Topology& topo, 
     out.findings.push_back({"NOT_CHECKED", Severity::warning, LayerRole::structures, st.id, "", nan, nan,
                             units::Dimension::dimensionless,
                             "structure " + st.id + " was not checked: a pipe downstream of it could not be solved."});
+    out.findings.back().fid = st.fid;
   }
 }
 

@@ -16,6 +16,7 @@ Finding conduit_finding(const model::Conduit& c, std::string code, Severity seve
   f.severity = severity;
   f.layer = LayerRole::conduits;
   f.feature_id = c.id;
+  f.fid = c.fid;
   f.message = std::move(message);
   return f;
 }
@@ -26,6 +27,7 @@ Finding structure_finding(const model::Structure& s, std::string code, Severity 
   f.severity = severity;
   f.layer = LayerRole::structures;
   f.feature_id = s.id;
+  f.fid = s.fid;
   f.message = std::move(message);
   return f;
 }

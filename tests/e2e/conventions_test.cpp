@@ -86,14 +86,14 @@ TEST_CASE("sweep: every finding names its case, and the envelope figures come fr
   CHECK(checked >= 10);
   // exceptions.csv carries the case in its own column, before the message.
   const std::string csv = report::exceptions_csv(r);
-  CHECK(csv.rfind("code,severity,layer,feature_id,field,value,limit,shortfall,unit,case,x,y,message\n", 0) == 0);
+  CHECK(csv.rfind("code,severity,layer,feature_id,fid,field,value,limit,shortfall,unit,case,x,y,message\n", 0) == 0);
   // T-04: freeboard 0.288 m against 0.300 m, shortfall 0.288 - 0.300 = -0.012 m, at the structure's point.
   const auto& t04 = r.read.network.structures[index_of(r.read.network.structures, "T-04")].location;
   char xy[80];
   std::snprintf(xy, sizeof xy, "%.3f,%.3f", t04.x, t04.y);
-  CHECK(csv.find("FREEBOARD,error,structures,T-04,,0.288,0.300,-0.012,m,tailwater 3.900 m," + std::string(xy) +
+  CHECK(csv.find("FREEBOARD,error,structures,T-04," + std::to_string(r.read.network.structures[index_of(r.read.network.structures, "T-04")].fid) + ",,0.288,0.300,-0.012,m,tailwater 3.900 m," + std::string(xy) +
                  ",\"structure T-04: the HGL") != std::string::npos);
-  CHECK(csv.find("REVERSED,info,conduits,C-02,,,,,,,") != std::string::npos);  // not a case's finding
+  CHECK(csv.find("REVERSED,info,conduits,C-02,29,,,,,,,") != std::string::npos);  // not a case's finding
   // CAPACITY: which number is the flow and which the capacity.
   CHECK(csv.find("pipe D-05: the design flow 0.0600 m3/s is 121% of its full-flow capacity 0.0497 m3/s") != std::string::npos);
 }

@@ -40,6 +40,9 @@ struct ReadResult {
   model::Network network;
   Findings findings;
   std::vector<std::string> input_files;  // every file read, for hashing in the summary
+  // SHA-256 of the input files read through a private copy (a GeoPackage with its -wal), by path:
+  // the hash of the bytes copied and read (src/gis/source_files.hpp).
+  std::vector<std::pair<std::string, std::string>> read_hashes;
   std::string source_crs_wkt;            // CRS of the pipe layer as read (outputs go back to it)
   std::vector<DefaultNote> defaults_used;
   std::vector<model::Catchment> catchments;  // [catchments] polygons (src/gis/read_catchments.hpp), run CRS

@@ -41,14 +41,23 @@ inline constexpr std::size_t inline_profiles = 40;
 
 // `selection` says which paths the profiles follow (selection_text). The page is written to `out`
 // a section at a time; report_html returns it as one string (for tests and small runs).
+// `output_findings`: findings of the writing itself (a drawing not written), listed with the data findings.
 void write_report_html(std::ostream& out, const run::CheckRun& run, const std::vector<RenderedProfile>& profiles,
-                       const std::string& date, bool pdf_written, const std::string& selection = "");
+                       const std::string& date, bool pdf_written, const std::string& selection = "",
+                       const Findings* output_findings = nullptr);
 std::string report_html(const run::CheckRun& run, const std::vector<RenderedProfile>& profiles,
                         const std::string& date, bool pdf_written, const std::string& selection = "");
 
-// Stages DIR/profiles/<outfall-id>-<n>.svg, DIR/profiles.pdf (when built with cairo and there
-// is a profile) and DIR/report.html in `files`; the caller commits. Profile SVGs left in
-// DIR/profiles by an earlier run that this run does not draw are removed.
-void write_drawings(const run::CheckRun& run, StagedFiles& files, const DrawingOptions& options = {});
+// Stages DIR/profiles/<stem>.svg, DIR/profiles.pdf (when built with cairo and there is a
+// profile) and DIR/report.html in `files`; the caller commits. A drawing that cannot be written
+// is a DRAWING_NOT_WRITTEN finding added to `output_findings` (and shown in the report), not an
+// error; the report itself that cannot be written throws rimline::Error.
+void write_drawings(const run::CheckRun& run, StagedFiles& files, const DrawingOptions& options = {},
+                    Findings* output_findings = nullptr);
+
+// The file name stem of a drawing named after an id: the portable file name set only, at most 80
+// bytes (a longer id is cut and keeps 8 hex digits of its SHA-256), never hidden, an option or a
+// device name Windows reserves.
+std::string file_stem(const std::string& id);
 
 }  // namespace rimline::report

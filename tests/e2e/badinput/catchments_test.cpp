@@ -271,3 +271,24 @@ TEST_CASE("badinput catchments: sanitary mode needs no runoff coefficient, keeps
   CHECK(r.catchment_flows->pipes[conduit_index(r, "P1")].population == 1500.0);
   for (const auto& f : r.findings) CHECK(f.layer != LayerRole::catchments);
 }
+
+// Issue 18, defect 5: a self-intersecting (bow-tie) ring's signed area cancels part of itself: the
+// ring below encloses 266.67 + 66.67 = 333.33 m2 (two triangles meeting at (40/3, 40/3), worked by
+// hand) but its shoelace area is 200 m2, which was used without a finding.
+TEST_CASE("badinput catchments: a bow-tie polygon is repaired, its true area used and said") {
+  Case c("catchment_bow_tie");
+  const double x = ox - 160, y = oy - 20;
+  auto at = [&](double dx, double dy) { return "[" + num(x + dx) + "," + num(y + dy) + "]"; };
+  const std::string bow_tie = feature(props("K3"), R"({"type":"Polygon","coordinates":[[)" + at(0, 0) + "," +
+                                                       at(20, 20) + "," + at(20, 0) + "," + at(0, 40) + "," + at(0, 0) +
+                                                       "]]}");
+  const auto r = run_with(c, {bow_tie, square(props("K4"), ox - 50, oy + 50, 20), square(props("K2"), ox - 100, oy, 20)});
+  INFO(dump(r));
+  CHECK(r.catchments[catchment(r, "K3")].area_m2 == Approx(1000.0 / 3.0).epsilon(1e-9));
+  const Finding* f = find(r, "DATA_GEOMETRY", "K3");
+  REQUIRE(f != nullptr);
+  CHECK(f->severity == Severity::warning);
+  CHECK(message(f) == "The polygon is invalid (its rings cross or touch themselves); it was repaired (GEOS make-valid) "
+                      "and its area 0.03 ha is used (the rings as drawn give 0.02 ha).");
+  CHECK(f->value == Approx(1000.0 / 3.0));
+}

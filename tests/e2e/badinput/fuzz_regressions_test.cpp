@@ -4,12 +4,14 @@
 //                                for whitespace reaches __builtin_unreachable() (UBSan report)
 //   project/tomlplusplus-295-*   the minimal form reported upstream (marzer/tomlplusplus #295)
 //   project/tomlplusplus-190-*   the same after a line-ending backslash (marzer/tomlplusplus #190)
+//   fuzz/corpus/project/deep_*  seeds of ~200,000 nested parts (issue 18: toml++ overflowed the stack)
 //   quantity/overflow-1e308-ha   parse_quantity returned +inf for "1e308 ha" (finite as written)
 #include <filesystem>
 #include <fstream>
 #include <sstream>
 
 #include "e2e/badinput/fixture.hpp"
+#include "../fuzz/expand_input.hpp"
 
 using namespace rimline;
 namespace fs = std::filesystem;
@@ -53,4 +55,21 @@ TEST_CASE("badinput fuzz regressions: quantities beyond a double in SI are bad_c
   const std::string e = badinput::error_of(
       [&] { config::parse_quantity(bytes.substr(1), units::Dimension::area, "plausibility.catchment_max"); });
   CHECK(e == R"(plausibility.catchment_max: "1e308 ha" is out of range)");
+}
+
+// Issue 18, defect 1: the harness's seeds for deep keys and headers, expanded as the harness does.
+TEST_CASE("badinput fuzz regressions: the deep-nesting seeds of the project harness are bad_config errors") {
+  std::size_t n = 0;
+  for (const auto& e : fs::directory_iterator(fs::path(test::source_dir) / "fuzz/corpus/project")) {
+    if (e.path().filename().string().rfind("deep_", 0) != 0) continue;
+    ++n;
+    INFO(e.path().filename().string());
+    const std::string bytes = read_bytes(e.path());
+    const std::string text = fuzz::expand(reinterpret_cast<const std::uint8_t*>(bytes.data()), bytes.size());
+    CHECK(text.size() > 200000);
+    const std::string err = badinput::error_of([&] { config::parse_project(text, "fuzz.toml"); });
+    CHECK_THAT(err, Catch::StartsWith("fuzz.toml: line "));
+    CHECK_THAT(err, Catch::Contains("levels deep; a project file needs a few, rimline reads at most 64"));
+  }
+  CHECK(n == 5);
 }

@@ -1,6 +1,10 @@
 // Bad-input catalogue, the project file: unknown keys, wrong types, bad quantities. Expected
 // messages follow include/rimline/config/project.hpp (file, key, "did you mean ...?").
-#include "e2e/badinput/fixture.hpp"
+// clang-format off
+#include "e2e/badinput/cli_fixture.hpp"
+
+#include <sys/stat.h>
+// clang-format on
 
 using namespace rimline;
 using namespace rimline::badinput;
@@ -78,4 +82,86 @@ TEST_CASE("badinput project: non-ASCII text in quotes and comments is accepted, 
   CHECK(config::parse_project(ok, "project.toml").name == "Sch\xC3\xB6neck \xC3\x98st");
   CHECK(parse_error(replace(base_project(), "[flows]", "[flows]\n\xC3\xB8 = 1")) ==
         R"(project.toml: line 33: a non-ASCII character outside a string or comment; TOML allows it only in quotes)");
+}
+
+// Issue 18, defect 1: toml++ 3.3 recursed once per part of a dotted key or table header and
+// overflowed the stack at ~200,000 parts (SIGSEGV, exit 139). Depth is now counted before parsing.
+std::string dotted(const std::string& part, int n) {
+  std::string s = part;
+  for (int i = 1; i < n; ++i) s += "." + part;
+  return s;
+}
+
+TEST_CASE("badinput project: a table header of 200,000 parts is an error, not a stack overflow") {
+  CHECK(parse_error("[" + dotted("a", 200000) + "]\nx = 1\n") ==
+        "project.toml: line 1: a table header of 200000 parts nested 200000 levels deep; a project file needs a "
+        "few, rimline reads at most 64");
+  // The same through the command line: exit 2 (a bad project file), not 139.
+  Case c("deep_header");
+  c.write("project.toml", "# deep\n[[" + dotted("b", 200000) + "]]\n");
+  const Ran r = run_cli({"check", c.path("project.toml"), "--out", c.path("out")});
+  CHECK(r.code == 2);
+  CHECK(r.out == "rimline: error: " + c.path("project.toml") +
+                     ": line 2: a table header of 200000 parts nested 200001 levels deep; a project file needs a few, "
+                     "rimline reads at most 64\n");
+}
+
+TEST_CASE("badinput project: a dotted key of 200,000 parts is an error, also inside a table or inline table") {
+  CHECK(parse_error(base_project() + dotted("k", 200000) + " = 1\n") ==
+        "project.toml: line 38: a dotted key of 200000 parts nested 200001 levels deep; a project file needs a few, "
+        "rimline reads at most 64");
+  CHECK(parse_error("[a.b]\nx = { y = { " + dotted("\"q.q\"", 70) + " = 2 } }\n") ==
+        "project.toml: line 2: a dotted key of 70 parts nested 74 levels deep; a project file needs a few, rimline "
+        "reads at most 64");
+  // Dots inside quoted parts, strings and comments are not parts; 64 levels are accepted by the guard.
+  CHECK_THAT(parse_error("# " + dotted("c", 500) + "\nname = \"" + dotted("s", 500) + "\"\n" + dotted("d", 64) +
+                         " = 1.5\n"),
+             Catch::Contains(": unknown key"));
+}
+
+TEST_CASE("badinput project: arrays and inline tables nested past 64 levels are an error") {
+  std::string open, close;
+  for (int i = 0; i < 40; ++i) open += "[{ a = ", close = " }]" + close;
+  CHECK(parse_error("x = " + open + "1" + close + "\n") ==
+        "project.toml: line 1: arrays, inline tables and keys nested 65 levels deep; a project file needs a few, rimline "
+        "reads at most 64");
+}
+
+// Issue 18: a byte-order mark (Windows editors write one) was "a non-ASCII character outside a
+// string"; UTF-16 text was the same. The mark is skipped; UTF-16 and UTF-32 are named.
+TEST_CASE("badinput project: a UTF-8 byte-order mark is accepted") {
+  CHECK(config::parse_project("\xEF\xBB\xBF" + base_project(), "project.toml").name == "bad-input fixture");
+}
+
+TEST_CASE("badinput project: UTF-16 and UTF-32 project files are named, with or without a mark") {
+  const std::string ascii = base_project();
+  std::string le = "\xFF\xFE", be = "\xFE\xFF", le_bare, be_bare;
+  for (char c : ascii) {
+    le += std::string(1, c) + '\0', be += std::string(1, '\0') + c;
+    le_bare += std::string(1, c) + '\0', be_bare += std::string(1, '\0') + c;
+  }
+  const std::string tail = " text; TOML is UTF-8: save it as UTF-8 (without a byte-order mark is best)";
+  CHECK(parse_error(le) == "project.toml: the project file is UTF-16 (little-endian)" + tail);
+  CHECK(parse_error(be) == "project.toml: the project file is UTF-16 (big-endian)" + tail);
+  CHECK(parse_error(le_bare) == "project.toml: the project file is UTF-16 (little-endian, no byte-order mark)" + tail);
+  CHECK(parse_error(be_bare) == "project.toml: the project file is UTF-16 (big-endian, no byte-order mark)" + tail);
+  CHECK(parse_error(std::string("\xFF\xFE\0\0", 4) + "x") == "project.toml: the project file is UTF-32 (little-endian)" + tail);
+}
+
+// Issue 18: a folder given as the project file read as an empty file ("pipes.source missing"); a
+// FIFO blocked the reading forever.
+TEST_CASE("badinput project: a folder or a FIFO given as the project file is named, exit 2") {
+  Case c("project_is_folder");
+  c.write_network(base_pipes(), base_structures());
+  CHECK(error_of([&] { config::load_project(c.dir.string()); }) ==
+        c.dir.string() + ": is a folder, not a project file; give the path of the .toml file (did you mean " +
+            c.path("project.toml") + "?)");
+  const Ran r = run_cli({"check", c.dir.string(), "--out", c.path("out")});
+  CHECK(r.code == 2);
+  REQUIRE(::mkfifo(c.path("fifo.toml").c_str(), 0600) == 0);
+  const Ran f = run_cli({"check", c.path("fifo.toml"), "--out", c.path("out")}, 20);
+  CHECK(f.code == 2);
+  CHECK(f.out == "rimline: error: " + c.path("fifo.toml") +
+                     ": is a named pipe (FIFO), not a project file; rimline reads the project file only from a regular "
+                     "file\n");
 }

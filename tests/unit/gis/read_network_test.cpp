@@ -120,7 +120,7 @@ TEST_CASE("each data problem of a pipe becomes one finding with a fixed message"
   CHECK(f.at("point") == V{"DATA_GEOMETRY The geometry is a POINT, not a line; the pipe is left out of the analysis."});
   CHECK(f.at("degenerate") == V{"DATA_GEOMETRY The line has zero length; the pipe is left out of the analysis."});
   // The second "ok" (fid 15) repeats the id of fid 1.
-  CHECK(f.at("ok") == V{"DATA_DUPLICATE_ID The id \"ok\" is also used by fid 1; both pipes are kept, so results under "
+  CHECK(f.at("ok") == V{"DATA_DUPLICATE_ID The id \"ok\" is also used by fid 1; both pipes are kept and told apart by their fid, so results under "
                         "this id are ambiguous."});
   CHECK(f.at("fid 16") == V{"DATA_MISSING ID is empty; the pipe is reported as \"fid 16\"."});
   CHECK(f.at("egg") ==

@@ -89,7 +89,7 @@ loss_k = 0.5
   CHECK(f.at("outflow") == V{"DATA_IMPLAUSIBLE Q -5 L/s is negative; the structure has no local inflow."});
   CHECK(f.at("no_geom") == V{"DATA_GEOMETRY The structure has no geometry; it is left out."});
   CHECK(f.at("line") == V{"DATA_GEOMETRY The geometry is a LINESTRING, not a point; the structure is left out."});
-  CHECK(f.at("MH1") == V{"DATA_DUPLICATE_ID The id \"MH1\" is also used by fid 1; both structures are kept, so pipes "
+  CHECK(f.at("MH1") == V{"DATA_DUPLICATE_ID The id \"MH1\" is also used by fid 1; both structures are kept and told apart by their fid, so pipes "
                          "that name this id are ambiguous."});
   CHECK(f.at("no_k") == V{"DATA_MISSING K is empty; the default K 0.5 is used."});
   CHECK(r.findings.size() == 10);
