@@ -10,6 +10,7 @@
 #include <unordered_map>
 
 #include "base/number_text.hpp"
+#include "report/budget_html.hpp"
 #include "report/budgets_csv.hpp"
 #include "report/design_flows_html.hpp"
 #include "report/method_text.hpp"
@@ -184,48 +185,6 @@ std::string methods_section(const run::CheckRun& run) {
   return h;
 }
 
-// The energy budget of a structure in the case with its highest HGL: the level at the outfall plus
-// each term down the governing route, summed back to the structure's level, with what each term is
-// made of (K, the velocity whose head it multiplies, the pipe length) so a reviewer can redo it.
-std::string budget(const run::CheckRun& run, std::size_t s) {
-  const auto sys = run.report_units;
-  const std::size_t k = run.envelope_structure_case.empty() ? 0 : run.envelope_structure_case[s];
-  const auto& march = run.cases[k].march;
-  if (!march.structures[s].solved) return "";
-  const auto items = solve::loss_budget(run.read.network, march, s);
-  if (items.empty()) return "";
-  const std::string u = unit(Dimension::length, sys), uv = unit(Dimension::velocity, sys);
-  std::string h = "<details><summary>Energy budget to the outfall (" + esc(render_message(run.cases[k].label, sys)) +
-                  ")</summary>\n<table class=\"budget\">\n";
-  h += row({"Item", "Feature", "How", "K", "V (" + uv + ")", "V&#178;/2g (" + u + ")", "Length (" + u + ")",
-            "Head (" + u + ")", "Level (" + u + ")"},
-           "th");
-  // Bounded (issue 18, defect 9): the terms nearest the structure, the rest one summary row; the
-  // whole budget, shared with the others along its route, is in budgets.csv.
-  const std::size_t first_shown = items.size() > budget_rows_shown ? items.size() - budget_rows_shown : 0;
-  double level = 0.0;
-  for (std::size_t i = 0; i < first_shown; ++i) level += items[i].head_m;
-  if (first_shown > 0)
-    h += "<tr class=\"summarised\"><td colspan=\"7\">" + esc(items[0].kind) + " and the next " +
-         std::to_string(first_shown - 1) + " terms down the route, from " + esc(items[first_shown - 1].feature_id) +
-         " to the outfall (every term: budgets.csv, budget " + esc(run.read.network.structures[s].id) + ")</td><td>" +
-         value(level, Dimension::length, sys) + "</td><td>" + value(level, Dimension::length, sys) + "</td></tr>\n";
-  for (std::size_t i = first_shown; i < items.size(); ++i) {
-    const auto& it = items[i];
-    level += it.head_m;
-    std::string how = it.basis;
-    if (it.jump_m > 0.0) how += "; jump " + value(it.jump_m, Dimension::length, sys) + " " + u;
-    h += row({esc(it.kind), esc(it.feature_id), esc(how), value(it.k, Dimension::dimensionless, sys),
-              value(it.velocity_m_s, Dimension::velocity, sys), value(it.velocity_head_m, Dimension::length, sys),
-              html::distance(it.length_m, sys), value(it.head_m, Dimension::length, sys),
-              value(level, Dimension::length, sys)});
-  }
-  h += "<tr class=\"total\"><td colspan=\"8\">HGL in the structure (its energy level)</td><td>" +
-       value(march.structures[s].hgl_m, Dimension::length, sys) + "</td></tr>\n";
-  h += "</table></details>";
-  return h;
-}
-
 // A city-wide run can hold hundreds of thousands of findings; the report lists at most this many
 // per code and severity (the worst first) and exceptions.csv keeps them all. Common practice, no source.
 constexpr std::size_t rows_per_code = 200;
@@ -290,7 +249,7 @@ std::string findings_table(const run::CheckRun& run, const std::vector<const Fin
         if (f->fid >= 0 && run.read.network.structures[s].fid != f->fid)
           for (std::size_t t = 0; t < run.read.network.structures.size(); ++t)
             if (run.read.network.structures[t].fid == f->fid && run.read.network.structures[t].id == f->feature_id) s = t;
-        const std::string b = budget(run, s);
+        const std::string b = budget_html(run, s);
         if (!b.empty()) h += "<tr class=\"budget-row\"><td></td><td colspan=\"8\">" + b + "</td></tr>\n";
       }
       if (total > rows_per_code)

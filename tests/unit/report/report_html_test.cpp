@@ -86,14 +86,26 @@ TEST_CASE("a structure finding carries its energy budget, summing to its HGL", "
   const auto budget = h.substr(b, h.find("</details>", b) - b);
   // S2: tailwater 3.000, exit C0 0.050, conduit C0 0.200, structure S1 0.050, exit C1 0.050,
   // conduit C1 0.200, structure S2 0.500 (the fixture's levels) -> 4.050 m.
-  // Columns: item, feature, how, K, V, V^2/2g, length, head, level.
+  // Columns: item, feature, how, K, V, V^2/2g, length, friction slope, head, level.
   CHECK(budget.find("<td>tailwater</td><td>S0</td><td>the level at the outfall</td><td></td><td></td><td></td><td></td>"
-                    "<td>3.000</td><td>3.000</td>") != std::string::npos);
+                    "<td></td><td>3.000</td><td>3.000</td>") != std::string::npos);
   const auto s2 = budget.find("<td>structure</td><td>S2</td><td>K V_o^2/2g on the velocity at the inlet of C1");
   REQUIRE(s2 != std::string::npos);
   CHECK(budget.find("<td>0.500</td><td>4.050</td></tr>", s2) != std::string::npos);
   CHECK(budget.find("<td>conduit</td><td>C1</td><td>friction along the pipe</td>") != std::string::npos);
   CHECK(budget.find("HGL in the structure (its energy level)</td><td>4.050</td>") != std::string::npos);
+  // Friction slope of C1: 0.200 m over 80 m = 0.00250.
+  CHECK(budget.find("<td>0.00250</td><td>0.200</td>") != std::string::npos);
+  // Ending with the ground: rim 4.200, freeboard 4.200 - 4.050 = 0.150 against 0.300, short by 0.150.
+  CHECK(budget.find("Rim</td><td>4.200</td>") != std::string::npos);
+  CHECK(budget.find("Freeboard (rim &#8722; HGL)</td><td>0.150</td>") != std::string::npos);
+  CHECK(budget.find("Required freeboard</td><td>0.300</td>") != std::string::npos);
+  CHECK(budget.find("Shortfall (freeboard &#8722; required)</td><td>-0.150</td>") != std::string::npos);
+  // The shares: losses 0.050 + 0.500 (structures) + 0.200 + 0.200 (friction) + 0.050 + 0.050 (exits)
+  // = 1.050 m; above S0's invert 2.000 m the HGL stands 2.050 m: tailwater 1.000 m (49 %), losses 51 %.
+  CHECK(budget.find("HGL 4.050 m = the level at the outfall S0 3.000 m + losses 1.050 m (structures 0.550 m, pipe "
+                    "friction 0.400 m, exits and drops 0.100 m).") != std::string::npos);
+  CHECK(budget.find("the tailwater accounts for 49&#160;% and the losses for 51&#160;%.") != std::string::npos);
 }
 
 TEST_CASE("the report is the same for the same run apart from the date", "[report][html]") {
