@@ -203,6 +203,12 @@ std::string shape_named(std::string_view value) {
                  "O", "RO", "CIRKEL", "CIRCULAR", "REDONDO", "CIRKULAER", "SIRKULAER", "KR", "KREISPROFIL"}) ||
       any_stem(w, {"CIRC", "KREIS", "ROND", "REDOND"}))
     return "circular";
+  // The egg (ovoid) section of older sewers: English, German (Ei-, Eiprofil), French/Spanish/Italian
+  // (ovoide), Dutch (eivormig), Danish/Norwegian written without the letter ae (AEG).
+  if (any_of(w, {"EGG", "EGGSHAPED", "OVOID", "OVOIDAL", "OVOIDE", "OV", "EI", "EIPROFIL", "EIFORM", "EIVORMIG",
+                 "AEG", "EGGFORMET", "AEGGEFORMET"}) ||
+      any_stem(w, {"OVOID", "EIPROF", "EIVORM", "EGGSHAP"}))
+    return "egg";
   if (any_of(w, {"BOX", "RECT", "RECTANGULAR", "RECTANGLE", "R", "RE", "RCB", "CULVERT", "RECHTECK", "REC",
                  "KASTEN", "RECTANGULAIRE", "CADRE", "DALOT", "RECHTHOEK", "RECHTHOEKIG", "RECTANGULO", "CAJON",
                  "REKTANGULAER", "SQUARE", "SQ", "KAST"}) ||

@@ -22,7 +22,7 @@ enum class Word {
 bool says(const std::vector<std::string>& words, Word w);
 
 // Code values: the structure kind a type value names ("manhole", "inlet", "junction", "outfall",
-// "pump_station"; "" when none), the section a shape value names ("circular", "box", ""), whether a
+// "pump_station"; "" when none), the section a shape value names ("circular", "box", "egg", ""), whether a
 // value names a pressure main, whether it names a pipe material.
 std::string kind_named(std::string_view value);
 std::string shape_named(std::string_view value);

@@ -233,7 +233,7 @@ void Inference::codes() {
   const Column& c = pipes_.columns[best];
   for (const auto& [v, n] : value_counts(c, pipes_.rows)) {
     CodeValue cv{v, shape_named(v), "", n};
-    cv.why = cv.meaning.empty() ? "" : "the value names a " + cv.meaning + " section";
+    cv.why = cv.meaning.empty() ? "" : (cv.meaning == "egg" ? "the value names an " : "the value names a ") + cv.meaning + " section";
     if (height_col_ != npos) {
       std::size_t with_height = 0, rows = 0;
       for (std::size_t r = 0; r < pipes_.rows; ++r)

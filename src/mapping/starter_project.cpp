@@ -130,14 +130,19 @@ std::string starter_project_toml(const StarterLayer& pipes, const StarterLayer& 
     }
     if (pm.find("shape")) {
       const bool box_ok = pm.find("width") && pm.find("height");
-      std::vector<const CodeValue*> circ, box, other;
+      std::vector<const CodeValue*> circ, box, egg, other;
       for (const auto& v : pm.shape_values)
-        (v.meaning == "circular" ? circ : v.meaning == "box" && box_ok ? box : other).push_back(&v);
+        (v.meaning == "circular"        ? circ
+         : v.meaning == "box" && box_ok ? box
+         : v.meaning == "egg" && box_ok ? egg  // an egg, like a box, is read from its width and height
+                                        : other)
+            .push_back(&v);
       out << "\n[pipes.shapes]" << comment("values of " + pm.find("shape")->field + " seen, by the section they name") << "\n";
       write_values(out, "circular", circ);
       write_values(out, "box", box);
+      if (!egg.empty()) write_values(out, "egg", egg);
       for (const auto* v : other)
-        out << "# " << quoted(v->value) << comment("not recognised" + std::string(box_ok ? "" : " (or a box: no width/height mapped)") +
+        out << "# " << quoted(v->value) << comment("not recognised" + std::string(box_ok ? "" : " (or a box or an egg: no width/height mapped)") +
                                                    "; such pipes take pipes.defaults.shape")
             << "\n";
     }
