@@ -163,6 +163,20 @@ Findings run_checks(const model::Network& network, const solve::MarchResult& res
   return out;
 }
 
+Findings check_features(const model::Network& network, const solve::MarchResult& result, const Criteria& criteria,
+                        const CriteriaOverrides& overrides, const std::vector<std::size_t>& structures,
+                        const std::vector<std::size_t>& conduits) {
+  Findings out;
+  for (std::size_t s : structures) {
+    const auto& st = network.structures[s];
+    check_structure(st, result.structures[s], criteria_for(criteria, overrides.structures, st.id).freeboard_m, out);
+  }
+  for (std::size_t ci : conduits)
+    check_conduit(network, ci, result.conduits[ci], criteria_for(criteria, overrides.conduits, network.conduits[ci].id),
+                  out);
+  return out;
+}
+
 Criteria criteria_for(const Criteria& run, const std::map<std::string, Override>& overrides, const std::string& id) {
   const auto it = overrides.find(id);
   if (it == overrides.end()) return run;

@@ -118,7 +118,7 @@ void write_drawings(const run::CheckRun& run, StagedFiles& files, const DrawingO
   }
 
   write_file(html_tmp, [&](std::ostream& out) {
-    write_report_html(out, run, rendered, date, pdf, selection_text(options, run.report_units));
+    write_report_html(out, run, rendered, date, pdf, selection_text(options, run.report_units), options.more_sections);
   });
   if (pdf_writer.joinable()) pdf_writer.join();
   if (pdf_failed) std::rethrow_exception(pdf_failed);

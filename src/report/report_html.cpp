@@ -290,7 +290,8 @@ std::string profiles_section(const std::vector<RenderedProfile>& profiles, bool 
 }  // namespace
 
 void write_report_html(std::ostream& out, const run::CheckRun& run, const std::vector<RenderedProfile>& profiles,
-                       const std::string& date, bool pdf_written, const std::string& selection) {
+                       const std::string& date, bool pdf_written, const std::string& selection,
+                       const std::string& more_sections) {
   std::vector<const Finding*> criteria, data;
   if (run.data_finding.size() == run.findings.size()) {
     for (std::size_t k = 0; k < run.findings.size(); ++k) (run.data_finding[k] ? data : criteria).push_back(&run.findings[k]);
@@ -312,7 +313,7 @@ void write_report_html(std::ostream& out, const run::CheckRun& run, const std::v
        "<a href=\"#profiles\">Profiles</a> <a href=\"#data-findings\">Data findings</a>" +
        std::string(run.catchment_flows ? " <a href=\"#design-flows\">Design flows</a>" : "") + "</nav>\n";
   out << h;
-  out << summary_section(run, date) << inputs_section(run) << methods_section(run) << design_flows_section(run);
+  out << summary_section(run, date) << more_sections << inputs_section(run) << methods_section(run) << design_flows_section(run);
   out << "<section id=\"exceptions\"><h2>Exception list</h2>\n<p>Design criteria not met, worst case over the "
          "tailwater cases, by severity. A structure warning or error opens to its energy budget down to the "
          "outfall.</p>\n";

@@ -577,12 +577,14 @@ void write_outputs(const run::CheckRun& run, const std::string& out_dir, const O
     std::jthread gpkg_writer([&] {
       try {
         write_results_gpkg(run, gpkg);
+        if (options.more_layers) options.more_layers(gpkg);
       } catch (...) {
         gpkg_failed = std::current_exception();
       }
     });
     files.write_stream("exceptions.csv", [&run](std::ostream& out) { write_exceptions_csv(run, out); });
     files.write_text("summary.json", summary_json(run));
+    for (const auto& [name, text] : options.more_files) files.write_text(name, text);
     if (options.drawings) write_drawings(run, files, options.profiles);
   }
   if (gpkg_failed) std::rethrow_exception(gpkg_failed);

@@ -203,6 +203,7 @@ CheckRun run_check(const config::Project& project, const RunOptions& options) {
   topo_opt.outfall_ids = project.outfalls.ids;
   topo_opt.direction_from_inverts = project.flow_direction == config::FlowDirection::inverts;
   run.topology = topology::build_topology(run.read.network, topo_opt, run.data_findings);
+  if (options.amend_network) options.amend_network(run.read.network, run.data_findings);
   for (auto& s : run.read.network.structures)  // an outfall's own level from the project beats its field
     if (const auto it = project.outfalls.tailwater_m.find(s.id); it != project.outfalls.tailwater_m.end())
       s.tailwater_m = it->second;
@@ -257,6 +258,7 @@ CheckRun run_check(const config::Project& project, const RunOptions& options) {
       run.flows = catchment_design_flows(project, flow_opt.split, flow_opt.fixed_conduit_flow_m3_s, run, flow_findings);
     else
       run.flows = flows::design_flows(run.read.network, run.topology, flow_opt, flow_findings);
+    if (options.amend_flows) options.amend_flows(run.read.network, run.topology, run.flows.flow_m3_s, flow_findings);
     run.cases.clear();
     for (double tw : levels) {
       stage("march " + std::to_string(run.cases.size() + 1) + "/" + std::to_string(levels.size()));

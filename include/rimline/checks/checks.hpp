@@ -51,6 +51,12 @@ Criteria criteria_for(const Criteria& run, const std::map<std::string, Override>
 Findings run_checks(const model::Network& network, const solve::MarchResult& result, const Criteria& criteria,
                     const CriteriaOverrides& overrides = {});
 
+// The findings of the listed features only (structures, then conduits, in the order given): for the
+// part of a network that a change reached (solve::remarch).
+Findings check_features(const model::Network& network, const solve::MarchResult& result, const Criteria& criteria,
+                        const CriteriaOverrides& overrides, const std::vector<std::size_t>& structures,
+                        const std::vector<std::size_t>& conduits);
+
 // Status word of a structure for the result layer: "flooded", "freeboard", "ok", "unknown_rim", "not_checked".
 std::string structure_status(const model::Structure& s, const solve::StructureResult& r, double freeboard_m);
 

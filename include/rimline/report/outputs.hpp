@@ -8,7 +8,10 @@
 //   DIR/report.html     the self-contained review report
 // Every file is written under a temporary name in DIR and renamed into place, so an interrupted
 // run leaves the previous file or the new one, never a partial one.
+#include <functional>
 #include <iosfwd>
+#include <utility>
+#include <vector>
 #include <string>
 
 #include "rimline/report/profile_path.hpp"
@@ -24,6 +27,12 @@ inline constexpr const char* caution =
 struct OutputOptions {
   bool drawings = true;        // profiles and report.html
   DrawingOptions profiles;     // which paths are drawn
+  // Written with the outputs by a later stage (src/connections: a proposal's comparison, connection
+  // headroom), so they are staged and renamed with the rest: more files in DIR (name, text), more
+  // layers in results.gpkg (called with its staged path once its own layers are written); the
+  // report's extra sections go in profiles.more_sections.
+  std::vector<std::pair<std::string, std::string>> more_files;
+  std::function<void(const std::string& staged_gpkg)> more_layers;
 };
 
 void write_outputs(const run::CheckRun& run, const std::string& out_dir, const OutputOptions& options = {});

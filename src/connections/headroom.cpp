@@ -1,0 +1,254 @@
+#include "rimline/connections/headroom.hpp"
+
+#include <algorithm>
+#include <atomic>
+#include <cmath>
+#include <exception>
+#include <optional>
+#include <thread>
+#include <unordered_map>
+
+#include "rimline/checks/checks.hpp"
+#include "rimline/connections/added_flow.hpp"
+#include "rimline/connections/compare.hpp"
+#include "rimline/error.hpp"
+
+namespace rimline::connections {
+namespace {
+
+struct Failure {
+  LayerRole layer = LayerRole::structures;
+  std::string id, criterion, change;
+  std::size_t case_index = 0;
+  double value = std::numeric_limits<double>::quiet_NaN();
+  units::Dimension dimension = units::Dimension::dimensionless;
+};
+
+std::string key_of(LayerRole layer, const std::string& id, const std::string& question) {
+  return std::string(layer_role_name(layer)) + '\t' + id + '\t' + question;
+}
+
+// What the run without an added flow holds, shared read-only by the workers.
+struct Base {
+  const run::CheckRun& run;
+  const config::ConnectionSettings& settings;
+  std::vector<std::size_t> rank;
+  std::vector<solve::MarchOptions> options;       // per case
+  std::unordered_map<std::string, double> worst;  // key -> badness, worst over the cases
+  flows::Split split;
+  double limit_m3_s;
+
+  bool ignored(const std::string& code) const {
+    const auto& list = settings.comparison.ignore_codes;
+    return std::find(list.begin(), list.end(), code) != list.end() ||
+           std::find(list.begin(), list.end(), question_of(code)) != list.end();
+  }
+};
+
+// One worker's copies of the cases' marches and flows, restored after each trial.
+struct CaseCopy {
+  solve::MarchResult march;
+  std::vector<double> flow;
+  solve::RemarchScratch scratch;
+  solve::Remarched touched;
+  Findings junk;  // the re-solve's own findings (the run already has them)
+};
+
+class Searcher {
+ public:
+  explicit Searcher(const Base& base) : base_(base) {
+    for (const auto& c : base.run.cases) copies_.push_back(CaseCopy{c.march, base.run.flows.flow_m3_s, {}, {}, {}});
+  }
+
+  Headroom search(std::size_t s) {
+    const auto& run = base_.run;
+    const auto& net = run.read.network;
+    Headroom h;
+    h.structure = s;
+    h.id = net.structures[s].id;
+    bool solved = false;
+    for (const auto& c : run.cases) solved = solved || c.march.structures[s].solved;
+    const auto path = added_flow_path(net, run.topology, base_.split, base_.rank, s);
+    if (path.empty()) {
+      h.note = run.topology.nodes[s].outflows.empty() ? "outfall or end of the network: no pipe leaves it"
+                                                      : "the flow leaving it is set by a pump station";
+      return h;
+    }
+    if (!solved) {
+      h.note = "not checked: a pipe downstream of it could not be solved";
+      return h;
+    }
+    const double precision = base_.settings.headroom.precision_m3_s;
+    const double relative = base_.settings.headroom.relative_precision;
+    double leaving = 0.0;
+    for (const auto& p : path)
+      if (net.conduits[p.conduit].from == s && std::isfinite(run.flows.flow_m3_s[p.conduit]))
+        leaving += run.flows.flow_m3_s[p.conduit];
+    double lo = 0.0, hi = std::numeric_limits<double>::infinity();
+    std::optional<Failure> at_hi;
+    double d = std::min(std::max(10.0 * precision, leaving), base_.limit_m3_s);
+    for (;;) {
+      ++h.trials;
+      if (auto f = fails(path, d)) {
+        hi = d, at_hi = std::move(f);
+        break;
+      }
+      lo = d;
+      if (d >= base_.limit_m3_s) break;
+      d = std::min(4.0 * d, base_.limit_m3_s);
+    }
+    if (!at_hi) {
+      h.headroom_m3_s = lo;
+      h.at_limit = true;
+      return h;
+    }
+    while (hi - lo > std::max(precision, relative * lo)) {
+      const double mid = lo > 0.0 && hi > 2.0 * lo ? std::sqrt(lo * hi) : 0.5 * (lo + hi);
+      ++h.trials;
+      if (auto f = fails(path, mid)) hi = mid, at_hi = std::move(f);
+      else lo = mid;
+    }
+    h.headroom_m3_s = lo;
+    h.governing_layer = at_hi->layer;
+    h.governing_id = at_hi->id;
+    h.criterion = at_hi->criterion;
+    h.change = at_hi->change;
+    h.case_label = run.cases[at_hi->case_index].label;
+    h.value = at_hi->value;
+    h.dimension = at_hi->dimension;
+    return h;
+  }
+
+ private:
+  // The first failure of a trial with `added` at the path's structure, trying first the case
+  // that failed last.
+  std::optional<Failure> fails(const std::vector<FlowShare>& path, double added) {
+    const std::size_t n = copies_.size();
+    for (std::size_t j = 0; j < n; ++j) {
+      const std::size_t k = (last_failed_ + j) % n;
+      if (auto f = trial(path, added, k)) {
+        last_failed_ = k;
+        return f;
+      }
+    }
+    return std::nullopt;
+  }
+
+  std::optional<Failure> trial(const std::vector<FlowShare>& path, double added, std::size_t k) {
+    const auto& run = base_.run;
+    const auto& net = run.read.network;
+    const auto& base_march = run.cases[k].march;
+    CaseCopy& cc = copies_[k];
+    changed_.clear();
+    for (const auto& p : path) {
+      const double q0 = run.flows.flow_m3_s[p.conduit];
+      if (!std::isfinite(q0)) continue;
+      cc.flow[p.conduit] = q0 + added * p.share;
+      changed_.push_back(p.conduit);
+    }
+    cc.junk.clear();
+    solve::remarch(net, run.topology, cc.flow, base_.options[k], base_.rank, changed_, still_m_, cc.march, cc.touched,
+                   cc.scratch, cc.junk);
+    std::optional<Failure> out = judge(k, cc);
+    for (std::size_t s : cc.touched.structures) cc.march.structures[s] = base_march.structures[s];
+    for (std::size_t ci : cc.touched.conduits) cc.march.conduits[ci] = base_march.conduits[ci];
+    for (std::size_t ci : changed_) cc.flow[ci] = run.flows.flow_m3_s[ci];
+    return out;
+  }
+
+  std::optional<Failure> judge(std::size_t k, const CaseCopy& cc) const {
+    const auto& run = base_.run;
+    const auto& net = run.read.network;
+    for (std::size_t ci : cc.touched.conduits)
+      if (run.cases[k].march.conduits[ci].solved && !cc.march.conduits[ci].solved)
+        return Failure{LayerRole::conduits, net.conduits[ci].id, "NOT_CHECKED", "not solved", k};
+    const bool none = base_.settings.headroom.existing == config::ExistingExceptions::none;
+    for (const auto& f :
+         checks::check_features(net, cc.march, run.criteria, run.overrides, cc.touched.structures, cc.touched.conduits)) {
+      if (!compared_code(f.code) || base_.ignored(f.code)) continue;
+      const auto it = base_.worst.find(key_of(f.layer, f.feature_id, question_of(f.code)));
+      std::string change;
+      if (it == base_.worst.end()) change = "new";
+      else if (none) change = "stands";
+      else if (run::badness(f) - it->second > tolerance_of(f, base_.settings.comparison)) change = "worsened";
+      if (!change.empty()) return Failure{f.layer, f.feature_id, f.code, change, k, f.value, f.dimension};
+    }
+    return std::nullopt;
+  }
+
+  const Base& base_;
+  std::vector<CaseCopy> copies_;
+  std::vector<std::size_t> changed_;
+  std::size_t last_failed_ = 0;
+  double still_m_ = 1.0e-6;
+
+ public:
+  void set_still(double still_m) { still_m_ = still_m; }
+};
+
+}  // namespace
+
+double headroom_limit_m3_s(const run::CheckRun& run, const config::HeadroomSettings& settings) {
+  if (settings.limit_m3_s) return *settings.limit_m3_s;
+  double largest = 0.0;
+  for (double q : run.flows.flow_m3_s)
+    if (std::isfinite(q)) largest = std::max(largest, q);
+  return std::max(0.1, 10.0 * largest);
+}
+
+std::vector<Headroom> connection_headroom(const run::CheckRun& run, const config::ConnectionSettings& settings,
+                                          std::vector<std::size_t> structures, const HeadroomOptions& options) {
+  const auto& net = run.read.network;
+  if (structures.empty()) {
+    for (const auto& id : settings.headroom.structures) {
+      const std::size_t s = model::find_structure(net, id);
+      if (s == model::no_index)
+        throw Error(ErrorKind::bad_config, "[headroom] structures: the network has no structure \"" + id + "\"");
+      structures.push_back(s);
+    }
+  }
+  if (structures.empty())
+    for (std::size_t s = 0; s < net.structures.size(); ++s) structures.push_back(s);
+  std::vector<Headroom> out(structures.size());
+  if (run.cases.empty()) return out;
+
+  Base base{run, settings, solve::march_rank(net, run.topology), {}, {},
+            run.project.split_rule == config::SplitRule::field ? flows::Split::field : flows::Split::capacity,
+            headroom_limit_m3_s(run, settings.headroom)};
+  for (const auto& c : run.cases) {
+    auto o = run.march_options;
+    o.tailwater_m = c.tailwater_m;
+    o.threads = 1;
+    base.options.push_back(std::move(o));
+    for (const auto& f : checks::run_checks(net, c.march, run.criteria, run.overrides)) {
+      if (!compared_code(f.code) || base.ignored(f.code)) continue;
+      const auto [it, fresh] = base.worst.try_emplace(key_of(f.layer, f.feature_id, question_of(f.code)), run::badness(f));
+      if (!fresh) it->second = std::max(it->second, run::badness(f));
+    }
+  }
+
+  // Structures go to the workers one at a time from a shared counter; each result has its own slot.
+  const unsigned cores = options.threads ? options.threads : std::max(1u, std::thread::hardware_concurrency());
+  const unsigned workers = static_cast<unsigned>(std::min<std::size_t>(cores, structures.size() < 8 ? 1 : structures.size()));
+  std::atomic<std::size_t> next{0};
+  std::vector<std::exception_ptr> failed(workers);
+  auto work = [&](unsigned w) {
+    try {
+      Searcher searcher(base);
+      searcher.set_still(options.still_m);
+      for (std::size_t i = next++; i < structures.size(); i = next++) out[i] = searcher.search(structures[i]);
+    } catch (...) {
+      failed[w] = std::current_exception();
+    }
+  };
+  {
+    std::vector<std::jthread> threads;
+    for (unsigned w = 1; w < workers; ++w) threads.emplace_back(work, w);
+    work(0);
+  }
+  for (const auto& e : failed)
+    if (e) std::rethrow_exception(e);
+  return out;
+}
+
+}  // namespace rimline::connections
