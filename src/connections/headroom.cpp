@@ -12,6 +12,7 @@
 #include "rimline/connections/added_flow.hpp"
 #include "rimline/connections/compare.hpp"
 #include "rimline/error.hpp"
+#include "rimline/hydraulics/section.hpp"
 
 namespace rimline::connections {
 namespace {
@@ -37,6 +38,9 @@ struct Base {
   std::unordered_map<std::string, double> worst;  // key -> badness, worst over the cases
   flows::Split split;
   double limit_m3_s;
+  // Per case and structure: the largest rise of its level that can cause no failure anywhere upstream
+  // of it (safe_rise_upstream below); a trial's re-solve stops there.
+  std::vector<std::vector<double>> safe_up;
 
   bool ignored(const std::string& code) const {
     const auto& list = settings.comparison.ignore_codes;
@@ -147,8 +151,13 @@ class Searcher {
       changed_.push_back(p.conduit);
     }
     cc.junk.clear();
+    const auto& safe = base_.safe_up[k];
+    const double still = still_m_;
     solve::remarch(net, run.topology, cc.flow, base_.options[k], base_.rank, changed_, still_m_, cc.march, cc.touched,
-                   cc.scratch, cc.junk);
+                   cc.scratch, cc.junk, [&safe, still](std::size_t s, double old_hgl, double new_hgl) {
+                     const double rise = new_hgl - old_hgl;
+                     return rise >= -still && rise <= safe[s];
+                   });
     std::optional<Failure> out = judge(k, cc);
     for (std::size_t s : cc.touched.structures) cc.march.structures[s] = base_march.structures[s];
     for (std::size_t ci : cc.touched.conduits) cc.march.conduits[ci] = base_march.conduits[ci];
@@ -186,6 +195,75 @@ class Searcher {
   void set_still(double still_m) { still_m_ = still_m; }
 };
 
+// How far the level at each structure may rise with nothing upstream of it failing, in one case.
+// Off the added flow's path the flows do not change, and a level rising at a structure rises by no
+// more upstream: a subcritical profile converges on normal depth going upstream, a surcharged pipe
+// carries the rise unchanged, and a deeper pool means a slower outflow and a smaller structure loss.
+// So a rise up to the smallest of these margins over everything upstream fails nothing there:
+//  - a structure: its freeboard beyond the required one (no exception yet), else the level tolerance;
+//  - a pipe: its crown above the HGL at its ends (not surcharged), else the level tolerance;
+//  - a partly full pipe's lowest velocity: its margin over the minimum (or the velocity tolerance
+//    when below it) times y / (1.5 v) at each end, since a rise dy changes the area by B dy and
+//    A >= (2/3) B y in a circle (the parabola's area; a box has A = B y), so |dv| <= 1.5 v dy / y.
+// Higher velocities, capacity ratios and cover cannot worsen with a rise. With existing = "none"
+// a feature with an exception allows no rise.
+std::vector<double> safe_rise_upstream(const Base& b, std::size_t k) {
+  const auto& run = b.run;
+  const auto& net = run.read.network;
+  const auto& march = run.cases[k].march;
+  const auto& cmp = b.settings.comparison;
+  const bool none = b.settings.headroom.existing == config::ExistingExceptions::none;
+  const double inf = std::numeric_limits<double>::infinity();
+  auto has = [&b](LayerRole layer, const std::string& id, const char* question) {
+    return b.worst.count(key_of(layer, id, question)) > 0;
+  };
+  auto counted = [&b](const char* code) { return !b.ignored(code); };
+  std::vector<double> own_s(net.structures.size(), inf), own_c(net.conduits.size(), inf);
+  for (std::size_t s = 0; s < net.structures.size(); ++s) {
+    const auto& st = net.structures[s];
+    const auto& r = march.structures[s];
+    if (!r.solved || !st.rim_m || !counted("FREEBOARD")) continue;
+    const double fb = checks::criteria_for(run.criteria, run.overrides.structures, st.id).freeboard_m;
+    own_s[s] = has(LayerRole::structures, st.id, "FREEBOARD") ? (none ? 0.0 : cmp.level_tolerance_m)
+                                                              : std::max(0.0, *st.rim_m - r.hgl_m - fb);
+  }
+  for (std::size_t ci = 0; ci < net.conduits.size(); ++ci) {
+    const auto& c = net.conduits[ci];
+    const auto& r = march.conduits[ci];
+    if (!r.solved) continue;
+    double m = inf;
+    const double rise = hydraulics::rise_m(c.section);
+    if (counted("SURCHARGED")) {
+      const double excess = std::max(r.profile.outlet().hgl_m - (r.invert_down_m + rise),
+                                     r.profile.inlet().hgl_m - (r.invert_up_m + rise));
+      m = has(LayerRole::conduits, c.id, "SURCHARGED") ? (none ? 0.0 : cmp.level_tolerance_m) : std::max(0.0, -excess);
+    }
+    if (counted("VELOCITY_LOW") && run.criteria.velocity_basis == checks::VelocityBasis::profile && r.flow_m3_s > 0.0) {
+      const double vmin = checks::criteria_for(run.criteria, run.overrides.conduits, c.id).velocity_min_m_s;
+      const double v_low = std::min(r.profile.outlet().velocity_m_s, r.profile.inlet().velocity_m_s);
+      const double allowed = has(LayerRole::conduits, c.id, "VELOCITY_LOW") ? (none ? 0.0 : cmp.velocity_tolerance_m_s)
+                                                                             : std::max(0.0, v_low - vmin);
+      for (const auto* p : {&r.profile.outlet(), &r.profile.inlet()})
+        if (p->depth_m < rise && p->velocity_m_s > 0.0) m = std::min(m, allowed * p->depth_m / (1.5 * p->velocity_m_s));
+    }
+    own_c[ci] = m;
+  }
+  // Upstream first (highest rank first): each structure takes the minimum over its inflows, their
+  // upstream structures and what lies upstream of those.
+  std::vector<std::size_t> order;
+  for (std::size_t s = 0; s < net.structures.size(); ++s)
+    if (b.rank[s] != std::numeric_limits<std::size_t>::max()) order.push_back(s);
+  std::sort(order.begin(), order.end(), [&b](std::size_t x, std::size_t y) { return b.rank[x] > b.rank[y]; });
+  std::vector<double> up(net.structures.size(), inf);
+  for (std::size_t s : order)
+    for (std::size_t ci : run.topology.nodes[s].inflows) {
+      const auto& c = net.conduits[ci];
+      if (!model::marched(c) || c.to != s) continue;
+      up[s] = std::min({up[s], own_c[ci], own_s[c.from], up[c.from]});
+    }
+  return up;
+}
+
 }  // namespace
 
 double headroom_limit_m3_s(const run::CheckRun& run, const config::HeadroomSettings& settings) {
@@ -214,7 +292,7 @@ std::vector<Headroom> connection_headroom(const run::CheckRun& run, const config
 
   Base base{run, settings, solve::march_rank(net, run.topology), {}, {},
             run.project.split_rule == config::SplitRule::field ? flows::Split::field : flows::Split::capacity,
-            headroom_limit_m3_s(run, settings.headroom)};
+            headroom_limit_m3_s(run, settings.headroom), {}};
   for (const auto& c : run.cases) {
     auto o = run.march_options;
     o.tailwater_m = c.tailwater_m;
@@ -226,6 +304,8 @@ std::vector<Headroom> connection_headroom(const run::CheckRun& run, const config
       if (!fresh) it->second = std::max(it->second, run::badness(f));
     }
   }
+
+  for (std::size_t k = 0; k < run.cases.size(); ++k) base.safe_up.push_back(safe_rise_upstream(base, k));
 
   // Structures go to the workers one at a time from a shared counter; each result has its own slot.
   const unsigned cores = options.threads ? options.threads : std::max(1u, std::thread::hardware_concurrency());

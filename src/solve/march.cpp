@@ -47,15 +47,17 @@ class Marcher {
   // The walk of remarch() (march.hpp): solves `s` again, then the inflows whose flow or downstream
   // level changed; returns the upstream structures to visit.
   template <typename Visit>
-  void resolve(std::size_t s, const std::vector<char>& flow_changed, double still_m, Remarched& touched, Visit visit) {
+  void resolve(std::size_t s, const std::vector<char>& flow_changed, double still_m, Remarched& touched, Visit visit,
+               const EnoughUpstream& enough) {
     const StructureResult old = out_.structures[s];
     out_.structures[s] = StructureResult{};
     solve_structure(s);
     const auto& r = out_.structures[s];
     touched.structures.push_back(s);
     // An outfall's or wet well's level, as its pipes see it, is the tailwater or pump-on level.
-    const bool moved = !(r.outfall || r.pumped) && (old.solved != r.solved ||
-                                                    (r.solved && !(std::abs(old.hgl_m - r.hgl_m) <= still_m)));
+    const bool moved = !(r.outfall || r.pumped) &&
+                       (old.solved != r.solved || (r.solved && !(std::abs(old.hgl_m - r.hgl_m) <= still_m))) &&
+                       !(enough && old.solved && r.solved && enough(s, old.hgl_m, r.hgl_m));
     for (std::size_t ci : topo_.nodes[s].inflows) {
       const auto& c = net_.conduits[ci];
       if (!model::marched(c) || c.to != s || !(moved || flow_changed[ci])) continue;
@@ -437,7 +439,8 @@ std::vector<std::size_t> march_rank(const model::Network& network, const topolog
 
 void remarch(const model::Network& network, const topology::Topology& topo, const std::vector<double>& flow_m3_s,
              const MarchOptions& options, const std::vector<std::size_t>& rank, const std::vector<std::size_t>& changed,
-             double still_m, MarchResult& result, Remarched& touched, RemarchScratch& scratch, Findings& findings) {
+             double still_m, MarchResult& result, Remarched& touched, RemarchScratch& scratch, Findings& findings,
+             const EnoughUpstream& enough) {
   scratch.queued.resize(network.structures.size(), 0);
   scratch.flow_changed.resize(network.conduits.size(), 0);
   touched.structures.clear();
@@ -458,7 +461,7 @@ void remarch(const model::Network& network, const topology::Topology& topo, cons
   while (!heap.empty()) {
     const std::size_t s = heap.top().second;
     heap.pop();
-    marcher.resolve(s, scratch.flow_changed, still_m, touched, visit);
+    marcher.resolve(s, scratch.flow_changed, still_m, touched, visit, enough);
   }
   for (std::size_t ci : changed) scratch.flow_changed[ci] = 0;
   for (std::size_t s : touched.structures) scratch.queued[s] = 0;

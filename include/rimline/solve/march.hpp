@@ -3,6 +3,7 @@
 // structure. Structures are treated as still pools: their water level is the energy level of
 // the outflow pipe's inlet plus the structure loss, and that level is the downstream water
 // level of every pipe discharging into them (so a pipe's exit velocity head is spent in the pool).
+#include <functional>
 #include <limits>
 #include <map>
 #include <string>
@@ -98,9 +99,14 @@ struct RemarchScratch {
 // moved by no more than `still_m` ends the walk there (its pipes upstream see what they saw). With
 // still_m = 0 the result equals a full march with the new flows; the findings of the part solved
 // again (INVERT_ESTIMATED, ...) go to `findings`.
+// `enough` (optional) may end the walk at a structure whose level moved from old to new when the
+// caller knows nothing upstream of it can matter for such a move; the pipes upstream then keep
+// their old results (the pipes whose flow changed are solved again all the same).
+using EnoughUpstream = std::function<bool(std::size_t structure, double old_hgl_m, double new_hgl_m)>;
 void remarch(const model::Network& network, const topology::Topology& topo, const std::vector<double>& flow_m3_s,
              const MarchOptions& options, const std::vector<std::size_t>& rank, const std::vector<std::size_t>& changed,
-             double still_m, MarchResult& result, Remarched& touched, RemarchScratch& scratch, Findings& findings);
+             double still_m, MarchResult& result, Remarched& touched, RemarchScratch& scratch, Findings& findings,
+             const EnoughUpstream& enough = {});
 
 // The energy budget from a structure down to its outfall along the governing outflows: each
 // item adds to the tailwater so that the sum equals the structure's HGL (EGL) exactly.
