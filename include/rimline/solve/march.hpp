@@ -15,6 +15,7 @@
 // Outfalls and pump wet wells are receiving water: their level is the arriving pipes' HGL at the
 // outlet under both bookkeepings (the exit velocity head is spent there). The EGL never rises
 // downstream, and loss_budget() adds each term back up to a structure's level exactly.
+#include <functional>
 #include <limits>
 #include <map>
 #include <string>
@@ -96,6 +97,38 @@ struct MarchResult {
 
 MarchResult march(const model::Network& network, const topology::Topology& topo, const std::vector<double>& flow_m3_s,
                   const MarchOptions& options);
+
+// Each structure's place in a downstream-first order (the order a serial march solves them: every
+// structure after all those its outflows drain into); structures the march never reaches come last.
+std::vector<std::size_t> march_rank(const model::Network& network, const topology::Topology& topo);
+
+// What remarch solved again (indices), in the order it did.
+struct Remarched {
+  std::vector<std::size_t> structures;
+  std::vector<std::size_t> conduits;
+};
+
+// Scratch kept between calls, so that a call costs what it touches, not the network's size.
+struct RemarchScratch {
+  std::vector<char> queued;        // per structure
+  std::vector<char> flow_changed;  // per conduit
+};
+
+// Solves again, in place, the part of a finished march that a change of the flows in `changed`
+// conduits reaches: `result` holds the march with the old flows, `flow_m3_s` the new ones. The
+// downstream structure of each changed conduit is solved again, then upstream in `rank` order each
+// conduit whose flow or downstream level changed and its upstream structure; a structure whose level
+// moved by no more than `still_m` ends the walk there (its pipes upstream see what they saw). With
+// still_m = 0 the result equals a full march with the new flows; the findings of the part solved
+// again (INVERT_ESTIMATED, ...) go to `findings`.
+// `enough` (optional) may end the walk at a structure whose level moved from old to new when the
+// caller knows nothing upstream of it can matter for such a move; the pipes upstream then keep
+// their old results (the pipes whose flow changed are solved again all the same).
+using EnoughUpstream = std::function<bool(std::size_t structure, double old_hgl_m, double new_hgl_m)>;
+void remarch(const model::Network& network, const topology::Topology& topo, const std::vector<double>& flow_m3_s,
+             const MarchOptions& options, const std::vector<std::size_t>& rank, const std::vector<std::size_t>& changed,
+             double still_m, MarchResult& result, Remarched& touched, RemarchScratch& scratch, Findings& findings,
+             const EnoughUpstream& enough = {});
 
 // The energy budget from a structure down to its outfall along the governing outflows: each
 // item adds to the tailwater so that the sum equals the structure's HGL (EGL) exactly, and carries
