@@ -20,10 +20,26 @@
 // pass again at a larger flow (a low velocity in a pipe drowned by backwater) is not looked for
 // beyond the first failure.
 //
+// Structures searched together go from the outfalls upstream: a structure S whose whole flow goes
+// through one pipe to structure D (searched before it) fails, at D's failing flow, what D failed,
+// since the same flow added at S raises every level at least as much (with constant-K structure
+// losses D's level does not depend on what flows into it) and the flows of the same pipes and one
+// more. So S starts from D's bracket: a trial at D's passing flow, and D's failure as the upper end,
+// without a trial of its own (the value reported is then the one of D's trial). Not so when D
+// failed at the pipe from S (a backwater-lowered velocity there: S's flow speeds it up) or with
+// another loss method: a trial at D's failing flow comes first. Where several criteria fail within
+// the precision of each other (a surcharged stretch crossing the 3 mm tolerance at once), which
+// one is named depends on the order of the trials.
+//
 // Speed: a trial changes the flows only on the path from the structure to its outfall(s) and the
-// levels only upstream of that path, so each trial re-solves that part (solve::remarch, stopping
-// where a level moves by less than a micrometre) and re-checks only what it re-solved, on copies
-// of the run's marches restored after each trial; the structures are shared out over the cores.
+// levels only upstream of that path, so each trial re-solves that part (solve::remarch) and checks
+// it as it goes, downstream first, stopping at the first failure. The walk leaves a branch as it
+// is where the level at its lower end cannot rise by more than the smallest margin over the branch
+// (safe_rise_upstream in headroom.cpp), and, at or below D's passing flow, every branch of the path
+// below S (it sees at most what D's passing trial saw). Each worker keeps its trials' marches on a
+// stack instead of restoring the run's after each trial: S's first trial starts from D's last
+// passing one and re-solves only the pipe from S and what lies upstream of it. The trees of
+// structures are shared out over the cores (a waiting core takes a subtree from a busy one).
 #include <cstddef>
 #include <limits>
 #include <string>
