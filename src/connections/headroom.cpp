@@ -70,6 +70,7 @@ struct Bracket {
   bool known = false;
   double lo = 0.0, hi = 0.0;
   Failure at_hi;
+  std::size_t outflow = model::no_index;  // the pipe the added flow leaves by (the first of its path)
 };
 
 // One worker's copy of a case's march and flows: the run's, with the trials on the worker's stack.
@@ -106,9 +107,9 @@ class Searcher {
     while (frames_.size() > depth) undo_top();
   }
 
-  // `below`: the bracket of the structure the whole added flow goes to next (null if none), whose
-  // failure this structure's trials fail too (see loss_ignores_inflows).
-  Headroom search(std::size_t s, const Bracket* below, Bracket& bracket) {
+  // `below`: the brackets of the structures the whole added flow goes through next, nearest first
+  // (empty if none), searched before this one.
+  Headroom search(std::size_t s, const std::vector<const Bracket*>& below, Bracket& bracket) {
     const auto& run = base_.run;
     const auto& net = run.read.network;
     Headroom h;
@@ -126,32 +127,47 @@ class Searcher {
       h.note = "not checked: a pipe downstream of it could not be solved";
       return h;
     }
+    bracket.outflow = path.front().conduit;
     const double precision = base_.settings.headroom.precision_m3_s;
     const double relative = base_.settings.headroom.relative_precision;
     double lo = 0.0, hi = std::numeric_limits<double>::infinity();
     std::optional<Failure> at_hi;
+    const Bracket* next = below.empty() || !below.front()->known ? nullptr : below.front();
     // Up to the flow that passed one structure down, only the pipe between them and what lies
     // upstream of this structure can fail (the rest sees what the passing trial below saw, or
     // less): the walk leaves the other branches of the path as they are.
-    local_up_to_ = below && below->known && base_.loss_ignores_inflows ? below->lo : -1.0;
-    if (below && below->known) {
-      // The failure one structure down at `hi` is a failure here too: the same flow added here raises
-      // every level at least as much (the one below keeps its level, its inflow loss being a constant K
-      // on its outflow), and raises the flows of the same pipes and one more. Its passing flow is the
-      // first guess.
-      // Not so for the pipe between them, which carries the flow here and only backwater there (a
-      // low velocity), nor where the structure below loses more with more flowing in: try it then.
-      hi = below->hi, at_hi = below->at_hi;
-      const bool between = at_hi->layer == LayerRole::conduits && at_hi->id == net.conduits[path.front().conduit].id;
-      if (between || !base_.loss_ignores_inflows) {
-        ++h.trials;
-        if (auto f = fails(path, hi)) at_hi = std::move(f);
-        else lo = hi, hi = std::numeric_limits<double>::infinity(), at_hi.reset();
+    local_up_to_ = next && base_.loss_ignores_inflows ? next->lo : -1.0;
+    if (next) {
+      // What a structure further down failed at its failing flow fails here too: the same flow added
+      // here raises every level at least as much (each structure between keeps its level, its loss
+      // being a constant K on its outflow) and the flows of the same pipes and more. Not so for the
+      // pipes between, which carry the flow here and only backwater there (a backwater-lowered
+      // velocity rises here): the nearest structure whose failure is not one of them gives the upper
+      // end, without a trial. With another loss method the nearest one's failing flow is tried.
+      if (base_.loss_ignores_inflows) {
+        std::vector<std::size_t> between{bracket.outflow};
+        for (const Bracket* b : below) {
+          if (!b->known) break;
+          const bool on_the_way =
+              b->at_hi.layer == LayerRole::conduits &&
+              std::any_of(between.begin(), between.end(), [&](std::size_t ci) { return net.conduits[ci].id == b->at_hi.id; });
+          if (!on_the_way) {
+            hi = b->hi, at_hi = b->at_hi;
+            break;
+          }
+          if (b->outflow == model::no_index) break;
+          between.push_back(b->outflow);
+        }
       }
-      if (at_hi && below->lo > lo) {
+      if (!base_.loss_ignores_inflows) {
         ++h.trials;
-        if (auto f = fails(path, below->lo)) hi = below->lo, at_hi = std::move(f);
-        else lo = below->lo;
+        if (auto f = fails(path, next->hi)) hi = next->hi, at_hi = std::move(f);
+        else lo = next->hi;
+      }
+      if (next->lo > lo && next->lo < hi) {
+        ++h.trials;
+        if (auto f = fails(path, next->lo)) hi = next->lo, at_hi = std::move(f);
+        else lo = next->lo;
       }
     }
     if (!at_hi) {
@@ -183,7 +199,7 @@ class Searcher {
       if (auto f = fails(path, mid)) hi = mid, at_hi = std::move(f);
       else lo = mid;
     }
-    bracket = Bracket{true, lo, hi, *at_hi};
+    bracket = Bracket{true, lo, hi, *at_hi, bracket.outflow};
     h.headroom_m3_s = lo;
     h.governing_layer = at_hi->layer;
     h.governing_id = at_hi->id;
@@ -514,9 +530,11 @@ std::vector<Headroom> connection_headroom(const run::CheckRun& run, const config
         std::size_t s, next, depth;
       };
       std::vector<Item> stack;
+      std::vector<const Bracket*> below;
       auto enter = [&](std::size_t s) {
         const std::size_t depth = searcher.depth();
-        const Bracket* below = down[s] == model::no_index ? nullptr : &brackets[down[s]];
+        below.clear();
+        for (std::size_t d = down[s]; d != model::no_index && below.size() < 8; d = down[d]) below.push_back(&brackets[d]);
         out[slot[s]] = searcher.search(s, below, brackets[s]);
         stack.push_back({s, 0, depth});
       };

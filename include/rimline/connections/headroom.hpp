@@ -24,12 +24,13 @@
 // through one pipe to structure D (searched before it) fails, at D's failing flow, what D failed,
 // since the same flow added at S raises every level at least as much (with constant-K structure
 // losses D's level does not depend on what flows into it) and the flows of the same pipes and one
-// more. So S starts from D's bracket: a trial at D's passing flow, and D's failure as the upper end,
-// without a trial of its own (the value reported is then the one of D's trial). Not so when D
-// failed at the pipe from S (a backwater-lowered velocity there: S's flow speeds it up) or with
-// another loss method: a trial at D's failing flow comes first. Where several criteria fail within
-// the precision of each other (a surcharged stretch crossing the 3 mm tolerance at once), which
-// one is named depends on the order of the trials.
+// more. Not so for that pipe itself: it carries S's flow but only D's backwater, and a velocity
+// lowered by backwater rises. So S takes as its upper end, without a trial of its own, the failing
+// flow and failure of the nearest structure down its single-outflow chain whose failure is not on
+// a pipe between (the value reported is then the one of that structure's trial), and first tries
+// D's passing flow. With another loss method, D's failing flow is tried first. Where several
+// criteria fail within the precision of each other (a surcharged stretch crossing the 3 mm
+// tolerance at once), which one is named depends on the order of the trials.
 //
 // Speed: a trial changes the flows only on the path from the structure to its outfall(s) and the
 // levels only upstream of that path, so each trial re-solves that part (solve::remarch) and checks
