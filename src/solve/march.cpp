@@ -45,29 +45,35 @@ class Marcher {
     }
   }
 
-  // The walk of remarch() (march.hpp): solves `s` again, then the inflows whose flow or downstream
-  // level changed; returns the upstream structures to visit.
+  // The walk of remarch() (march.hpp): solves `s` again, then the inflows whose flow changed or
+  // that were solved against another level of `s`; returns the upstream structures to visit.
   template <typename Visit>
   void resolve(std::size_t s, const std::vector<char>& flow_changed, double still_m, Remarched& touched, Visit visit,
-               const EnoughUpstream& enough) {
+               const RemarchHooks& hooks) {
+    if (hooks.undo) hooks.undo->structures.emplace_back(s, out_.structures[s]);
     const StructureResult old = out_.structures[s];
     out_.structures[s] = StructureResult{};
     solve_structure(s);
     const auto& r = out_.structures[s];
     touched.structures.push_back(s);
     // An outfall's or wet well's level, as its pipes see it, is the tailwater or pump-on level.
-    const bool moved = !(r.outfall || r.pumped) &&
-                       (old.solved != r.solved || (r.solved && !(std::abs(old.hgl_m - r.hgl_m) <= still_m))) &&
-                       !(enough && old.solved && r.solved && enough(s, old.hgl_m, r.hgl_m));
+    const bool fixed = r.outfall || r.pumped;
+    const bool moved = !fixed && (old.solved != r.solved || (r.solved && !(std::abs(old.hgl_m - r.hgl_m) <= still_m)));
     for (std::size_t ci : topo_.nodes[s].inflows) {
       const auto& c = net_.conduits[ci];
-      if (!model::marched(c) || c.to != s || !(moved || flow_changed[ci])) continue;
+      if (!model::marched(c) || c.to != s) continue;
+      const auto& cr = out_.conduits[ci];
+      // A pipe left behind by an earlier walk (ended by `enough`) may have seen another level.
+      const bool stale = !fixed && r.solved && cr.solved && !(std::abs(cr.downstream_level_m - r.hgl_m) <= still_m);
+      if (!flow_changed[ci] && !moved && !stale) continue;
+      if (!flow_changed[ci] && r.solved && hooks.enough && hooks.enough(ci, r.hgl_m)) continue;
+      if (hooks.undo) hooks.undo->conduits.emplace_back(ci, cr);
       out_.conduits[ci] = ConduitResult{};
       solve_conduit(ci);
       touched.conduits.push_back(ci);
       visit(c.from);
     }
-    if (r.outfall || r.pumped) settle_outfall(s);
+    if (fixed) settle_outfall(s);
   }
 
  private:
@@ -415,10 +421,10 @@ std::vector<std::size_t> march_rank(const model::Network& network, const topolog
   return rank;
 }
 
-void remarch(const model::Network& network, const topology::Topology& topo, const std::vector<double>& flow_m3_s,
+bool remarch(const model::Network& network, const topology::Topology& topo, const std::vector<double>& flow_m3_s,
              const MarchOptions& options, const std::vector<std::size_t>& rank, const std::vector<std::size_t>& changed,
              double still_m, MarchResult& result, Remarched& touched, RemarchScratch& scratch, Findings& findings,
-             const EnoughUpstream& enough) {
+             const RemarchHooks& hooks) {
   scratch.queued.resize(network.structures.size(), 0);
   scratch.flow_changed.resize(network.conduits.size(), 0);
   touched.structures.clear();
@@ -436,13 +442,20 @@ void remarch(const model::Network& network, const topology::Topology& topo, cons
     scratch.flow_changed[ci] = 1;
     if (model::marched(network.conduits[ci])) visit(network.conduits[ci].to);
   }
+  bool complete = true;
   while (!heap.empty()) {
     const std::size_t s = heap.top().second;
     heap.pop();
-    marcher.resolve(s, scratch.flow_changed, still_m, touched, visit, enough);
+    marcher.resolve(s, scratch.flow_changed, still_m, touched, visit, hooks);
+    if (hooks.stop && hooks.stop(touched)) {
+      complete = false;
+      break;
+    }
   }
+  for (; !heap.empty(); heap.pop()) scratch.queued[heap.top().second] = 0;
   for (std::size_t ci : changed) scratch.flow_changed[ci] = 0;
   for (std::size_t s : touched.structures) scratch.queued[s] = 0;
+  return complete;
 }
 
 namespace {

@@ -25,10 +25,27 @@
 // or whose trials' level changes reach such a part, gets no figure and a note saying so, since a
 // trial re-solve is a tree march and its number would not be the solve's.
 //
+// Structures searched together go from the outfalls upstream: a structure S whose whole flow goes
+// through one pipe to structure D (searched before it) fails, at D's failing flow, what D failed,
+// since the same flow added at S raises every level at least as much (with constant-K structure
+// losses D's level does not depend on what flows into it) and the flows of the same pipes and one
+// more. Not so for that pipe itself: it carries S's flow but only D's backwater, and a velocity
+// lowered by backwater rises. So S takes as its upper end, without a trial of its own, the failing
+// flow and failure of the nearest structure down its single-outflow chain whose failure is not on
+// a pipe between (the value reported is then the one of that structure's trial), and first tries
+// D's passing flow. With another loss method, D's failing flow is tried first. Where several
+// criteria fail within the precision of each other (a surcharged stretch crossing the 3 mm
+// tolerance at once), which one is named depends on the order of the trials.
+//
 // Speed: a trial changes the flows only on the path from the structure to its outfall(s) and the
-// levels only upstream of that path, so each trial re-solves that part (solve::remarch, stopping
-// where a level moves by less than a micrometre) and re-checks only what it re-solved, on copies
-// of the run's marches restored after each trial; the structures are shared out over the cores.
+// levels only upstream of that path, so each trial re-solves that part (solve::remarch) and checks
+// it as it goes, downstream first, stopping at the first failure. The walk leaves a branch as it
+// is where the level at its lower end cannot rise by more than the smallest margin over the branch
+// (safe_rise_upstream in headroom.cpp), and, at or below D's passing flow, every branch of the path
+// below S (it sees at most what D's passing trial saw). Each worker keeps its trials' marches on a
+// stack instead of restoring the run's after each trial: S's first trial starts from D's last
+// passing one and re-solves only the pipe from S and what lies upstream of it. The trees of
+// structures are shared out over the cores (a waiting core takes a subtree from a busy one).
 #include <cstddef>
 #include <cstdint>
 #include <limits>

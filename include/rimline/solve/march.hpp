@@ -19,6 +19,7 @@
 #include <limits>
 #include <map>
 #include <string>
+#include <utility>
 #include <vector>
 
 #include "rimline/finding.hpp"
@@ -114,21 +115,35 @@ struct RemarchScratch {
   std::vector<char> flow_changed;  // per conduit
 };
 
-// Solves again, in place, the part of a finished march that a change of the flows in `changed`
-// conduits reaches: `result` holds the march with the old flows, `flow_m3_s` the new ones. The
-// downstream structure of each changed conduit is solved again, then upstream in `rank` order each
-// conduit whose flow or downstream level changed and its upstream structure; a structure whose level
-// moved by no more than `still_m` ends the walk there (its pipes upstream see what they saw). With
-// still_m = 0 the result equals a full march with the new flows; the findings of the part solved
-// again (INVERT_ESTIMATED, ...) go to `findings`.
-// `enough` (optional) may end the walk at a structure whose level moved from old to new when the
-// caller knows nothing upstream of it can matter for such a move; the pipes upstream then keep
-// their old results (the pipes whose flow changed are solved again all the same).
-using EnoughUpstream = std::function<bool(std::size_t structure, double old_hgl_m, double new_hgl_m)>;
-void remarch(const model::Network& network, const topology::Topology& topo, const std::vector<double>& flow_m3_s,
+// What the caller of remarch may add to the walk (all optional).
+struct RemarchUndo {  // the results as they were before the walk changed them, in the order it did
+  std::vector<std::pair<std::size_t, StructureResult>> structures;
+  std::vector<std::pair<std::size_t, ConduitResult>> conduits;
+};
+struct RemarchHooks {
+  // May leave pipe `conduit` (whose flow did not change) and everything upstream of it as they
+  // are, with its downstream structure now at `level_m`, when the caller knows that nothing there
+  // can matter for it. Those results then belong to another level (remarch notices that when a
+  // later walk reaches the pipe: it is solved again there unless `enough` says so again).
+  std::function<bool(std::size_t conduit, double level_m)> enough;
+  // Called after each structure is solved again (with the pipes into it): true ends the walk there,
+  // leaving the rest of the part a full walk would solve as it was (to be undone by the caller).
+  std::function<bool(const Remarched& touched)> stop;
+  RemarchUndo* undo = nullptr;  // appended to, for the caller to restore the march
+};
+
+// Solves again, in place, the part of a march that a change of the flows in `changed` conduits
+// reaches: `result` holds a march with the old flows, `flow_m3_s` the new ones. The downstream
+// structure of each changed conduit is solved again, then upstream in `rank` order each conduit
+// whose flow changed or which was solved against a level of its downstream structure more than
+// `still_m` away from the new one, and its upstream structure; where the level stays within
+// `still_m` the walk ends (the pipes upstream see what they saw). With still_m = 0 and no hooks the
+// result equals a full march with the new flows; the findings of the part solved again
+// (INVERT_ESTIMATED, ...) go to `findings`. Returns false when `hooks.stop` ended the walk early.
+bool remarch(const model::Network& network, const topology::Topology& topo, const std::vector<double>& flow_m3_s,
              const MarchOptions& options, const std::vector<std::size_t>& rank, const std::vector<std::size_t>& changed,
              double still_m, MarchResult& result, Remarched& touched, RemarchScratch& scratch, Findings& findings,
-             const EnoughUpstream& enough = {});
+             const RemarchHooks& hooks = {});
 
 // The energy budget from a structure down to its outfall along the governing outflows: each
 // item adds to the tailwater so that the sum equals the structure's HGL (EGL) exactly, and carries

@@ -178,3 +178,85 @@ TEST_CASE("the trial re-solve equals a whole march with the new flows", "[connec
     }
   }
 }
+TEST_CASE("every structure searched at once agrees with each searched alone (consistency)", "[connections][headroom]") {
+  // Searched together, a structure starts from the bracket and the trial march of the one its flow
+  // goes to; alone, from the run's march. Both must land within the promised precision of each
+  // other, in the sweep (two tailwater cases) and on the diversion network; alone takes more trials.
+  const auto sweep = replace(base_project(), R"(levels = ["2.2 m"])", R"(levels = ["2.2 m", "3.3 m"])");
+  auto div_pipes = base_pipes();
+  div_pipes.push_back(pipe("P5", ox - 100, oy, ox - 100, oy - 60, 225, 2.6, 2.3));
+  auto div_structures = base_structures();
+  div_structures.push_back(structure("OF2", "OUTFALL", ox - 100, oy - 60, 3.5, 2.3, 0.0));
+  for (const auto& project :
+       {config::load_project(write_network("together-sweep", base_pipes(), base_structures(), sweep)),
+        // Split by capacity, so that the march (not the network solve) takes the diversion.
+        config::load_project(write_network("together-diversion", div_pipes, div_structures,
+                                           replace(base_project(), "mode = \"structure_inflows\"\n",
+                                                   "mode = \"structure_inflows\"\nsplit = \"capacity\"\n")))}) {
+    const auto base = run_with(project, {});
+    const auto together = connections::connection_headroom(base, project.connections);
+    int trials_together = 0, trials_alone = 0;
+    for (const auto& h : together) {
+      const auto alone = connections::connection_headroom(base, project.connections, {h.structure});
+      REQUIRE(alone.size() == 1);
+      INFO(h.id << ": together " << h.headroom_m3_s << " (" << h.trials << " trials), alone " << alone[0].headroom_m3_s
+                << " (" << alone[0].trials << " trials)");
+      CHECK(std::isfinite(h.headroom_m3_s) == std::isfinite(alone[0].headroom_m3_s));
+      if (!std::isfinite(h.headroom_m3_s)) continue;
+      CHECK(std::abs(h.headroom_m3_s - alone[0].headroom_m3_s) <=
+            promised(project.connections.headroom, std::max(h.headroom_m3_s, alone[0].headroom_m3_s)) + 1e-12);
+      trials_together += h.trials;
+      trials_alone += alone[0].trials;
+    }
+    CHECK(trials_together < trials_alone);
+  }
+}
+
+TEST_CASE("remarch's undo log restores the march, after a whole walk or one ended early", "[connections][remarch]") {
+  // Consistency of the hooks the headroom search uses: whatever the walk changed, the undo log
+  // (applied last entry first) gives back the march it started from, bit for bit.
+  const auto project = config::load_project(write_network("undo", base_pipes(), base_structures(), base_project()));
+  const auto base = run_with(project, {});
+  const auto& net = base.read.network;
+  const auto rank = solve::march_rank(net, base.topology);
+  const auto path = connections::added_flow_path(net, base.topology, flows::Split::capacity, rank,
+                                                 model::find_structure(net, "M3"));
+  auto flow = base.flows.flow_m3_s;
+  std::vector<std::size_t> changed;
+  for (const auto& p : path) flow[p.conduit] += 0.05 * p.share, changed.push_back(p.conduit);
+  auto opt = base.march_options;
+  opt.tailwater_m = base.cases[0].tailwater_m;
+  for (const std::size_t stop_after : {std::size_t{2}, std::size_t{1000}}) {
+    auto march = base.cases[0].march;
+    solve::Remarched touched;
+    solve::RemarchScratch scratch;
+    solve::RemarchUndo undo;
+    Findings junk;
+    solve::RemarchHooks hooks;
+    hooks.undo = &undo;
+    hooks.stop = [stop_after](const solve::Remarched& t) { return t.structures.size() >= stop_after; };
+    const bool complete = solve::remarch(net, base.topology, flow, opt, rank, changed, 0.0, march, touched, scratch, junk, hooks);
+    CHECK(complete == (stop_after == 1000));
+    REQUIRE_FALSE(undo.structures.empty());
+    bool moved = false;
+    for (const auto& [s, old] : undo.structures) moved = moved || march.structures[s].hgl_m != old.hgl_m;
+    CHECK(moved);
+    for (auto it = undo.structures.rbegin(); it != undo.structures.rend(); ++it) march.structures[it->first] = it->second;
+    for (auto it = undo.conduits.rbegin(); it != undo.conduits.rend(); ++it) march.conduits[it->first] = it->second;
+    for (std::size_t s = 0; s < net.structures.size(); ++s) {
+      INFO(net.structures[s].id << " stop after " << stop_after);
+      CHECK(march.structures[s].hgl_m == base.cases[0].march.structures[s].hgl_m);
+    }
+    for (std::size_t ci = 0; ci < net.conduits.size(); ++ci) {
+      INFO(net.conduits[ci].id << " stop after " << stop_after);
+      CHECK(march.conduits[ci].flow_m3_s == base.cases[0].march.conduits[ci].flow_m3_s);
+      CHECK(march.conduits[ci].profile.inlet().hgl_m == base.cases[0].march.conduits[ci].profile.inlet().hgl_m);
+    }
+    // The scratch is left clean: a second walk from the restored march matches a whole march.
+    solve::Remarched again;
+    solve::remarch(net, base.topology, flow, opt, rank, changed, 0.0, march, again, scratch, junk);
+    const auto whole = solve::march(net, base.topology, flow, opt);
+    for (std::size_t s = 0; s < net.structures.size(); ++s)
+      CHECK(march.structures[s].hgl_m == Approx(whole.structures[s].hgl_m).margin(1e-12));
+  }
+}
