@@ -12,6 +12,10 @@
 #            --loops "N ..." (issue 21: a network of N tree pipes with 5 % of its structures on loops,
 #            make_network.py --loops 0.05, through the network solve, against the tree march of the
 #            same N; wall time, RSS, the ratio and the solve's convergence from summary.json)
+#            --headroom "N ..." (connection headroom at every structure of networks of N pipes:
+#            `rimline check --headroom --no-drawings`, targets 30 s at 10^4 and 10 min at 10^5; alone,
+#            without --sizes, only these run and only their section of RESULTS is rewritten)
+#            --binary PATH (time this rimline instead of building build-bench)
 #            --keep-results (no build and no end-to-end runs: rewrite RESULTS from the timings and
 #            profile of the last run in WORK, adding --stages / --profile / micro figures)
 #
@@ -37,11 +41,16 @@ KEEP=0
 STAGES_N=""
 TIMEOUT=0
 LOOPS_N=""
+HEADROOM_N=""
+SIZES_SET=0
+BINARY=""
 
 while [[ $# -gt 0 ]]; do
   case "$1" in
     --quick) SIZES="1000 10000"; QUICK=1; shift ;;
-    --sizes) SIZES="$2"; shift 2 ;;
+    --sizes) SIZES="$2"; SIZES_SET=1; shift 2 ;;
+    --headroom) HEADROOM_N="$2"; shift 2 ;;
+    --binary) BINARY="$2"; shift 2 ;;
     --seed) SEED="$2"; shift 2 ;;
     --work) WORK="$2"; shift 2 ;;
     --repeat) REPEAT="$2"; shift 2 ;;
@@ -57,6 +66,8 @@ while [[ $# -gt 0 ]]; do
   esac
 done
 
+HEADROOM_ONLY=0
+[[ -n "$HEADROOM_N" && $SIZES_SET -eq 0 && $QUICK -eq 0 ]] && { HEADROOM_ONLY=1; SIZES=""; MICRO=0; }
 # A quick run does not overwrite the committed table unless asked to.
 [[ -z "$RESULTS" ]] && { [[ $QUICK -eq 1 ]] && RESULTS="$WORK/RESULTS-quick.md" || RESULTS="$ROOT/bench/RESULTS.md"; }
 
@@ -76,7 +87,9 @@ fi
 [[ -n "$PROFILE_N" ]] && need_pkg linux-perf perf
 
 mkdir -p "$WORK"
-if [[ $KEEP -eq 0 ]]; then
+if [[ -n "$BINARY" ]]; then
+mkdir -p "$WORK"; cp "$BINARY" "$WORK/rimline"; MICRO=0
+elif [[ $KEEP -eq 0 ]]; then
 echo "== build (Release, $BUILD)"
 cmake -S "$ROOT" -B "$BUILD" -DCMAKE_BUILD_TYPE=Release >/dev/null
 cmake --build "$BUILD" -j2 --target rimline >"$WORK/build.log" 2>&1 || { cat "$WORK/build.log" >&2; exit 1; }
@@ -249,6 +262,56 @@ if [[ $MICRO -eq 1 ]]; then
   "$BUILD/rimline_bench" --benchmark_filter='partly_full|march_dendritic' --benchmark_min_time=0.5 \
     2>/dev/null | tee "$MICRO_TXT"
 fi
+
+# Connection headroom at every structure (issue 20): its own section of RESULTS, between markers,
+# kept by the full runs (it sits below the analysis mark).
+if [[ -n "$HEADROOM_N" ]]; then
+  HTSV="$WORK/headroom.tsv"; : > "$HTSV"
+  for n in $HEADROOM_N; do
+    dir="$WORK/n$n-s$SEED"
+    [[ -f "$dir/project.toml" ]] || /usr/bin/python3 "$ROOT/scripts/make_network.py" --pipes "$n" --seed "$SEED" --out "$dir"
+    echo "== connection headroom at every structure, N=$n"
+    rm -rf "$WORK/hout"; rc=0
+    tmo=(); [[ $TIMEOUT -gt 0 ]] && tmo=(timeout "$TIMEOUT")
+    /usr/bin/time -v -o "$WORK/head.time" "${tmo[@]}" "$RIMLINE" check "$dir/project.toml" --headroom --no-drawings \
+      --out "$WORK/hout" --quiet || rc=$?
+    if [[ $rc -eq 124 ]]; then printf "%s\ttimeout>%s\n" "$n" "$TIMEOUT" >> "$HTSV"; continue; fi
+    [[ $rc -le 1 ]] || { echo "rimline check --headroom failed (exit $rc) on N=$n" >&2; exit 1; }
+    read -r hw hr hc < <(parse_time "$WORK/head.time")
+    searched=$(awk -F, 'NR > 1 && $3 != "" { n++ } END { print n + 0 }' "$WORK/hout/headroom.csv")
+    trials=$(awk -F, 'NR > 1 { t += $14 } END { print t + 0 }' "$WORK/hout/headroom.csv")
+    printf "%s\t%s\t%s\t%s\t%s\t%s\n" "$n" "$hw" "$hr" "$hc" "$searched" "$trials" >> "$HTSV"
+    echo "   $hw s wall, $hc s CPU, $searched structures, $trials trials"
+  done
+  /usr/bin/python3 - "$HTSV" "$RESULTS" "$ROOT" <<'PY'
+import os, subprocess, sys, time
+tsv, out, root = sys.argv[1:4]
+sh = lambda c: subprocess.run(c, shell=True, capture_output=True, text=True).stdout.strip()
+rows = [l.split("\t") for l in open(tsv).read().splitlines() if l]
+block = ["<!-- headroom: begin -->", "## Connection headroom at every structure (issue 20)", "",
+         "Written by `scripts/benchmark.sh --headroom` on %s (commit %s), load average %s at the end (2 shared cores)."
+         % (time.strftime("%Y-%m-%d %H:%M UTC", time.gmtime()), sh("git -C '%s' rev-parse --short HEAD" % root),
+            sh("cut -d' ' -f1-3 /proc/loadavg")),
+         "`rimline check project.toml --headroom --no-drawings` end to end (the check itself included). Targets: 10^4 pipes",
+         "in 30 s, 10^5 in 10 min.", "",
+         "| pipes N | wall s | CPU s | RSS MiB | structures searched | trials |", "|---:|---:|---:|---:|---:|---:|"]
+for r in rows:
+    if r[1].startswith("timeout"):
+        block.append("| %s | did not finish in %s s | | | | |" % (r[0], r[1].split(">")[1]))
+    else:
+        block.append("| %s | %.1f | %.1f | %.0f | %s | %s |" % (r[0], float(r[1]), float(r[3]), int(r[2]) / 1024, r[4], r[5]))
+block.append("<!-- headroom: end -->")
+text = open(out).read() if os.path.exists(out) else "# rimline scale benchmark\n"
+b, e = "<!-- headroom: begin -->", "<!-- headroom: end -->"
+if b in text and e in text:
+    text = text[:text.index(b)] + "\n".join(block) + text[text.index(e) + len(e):]
+else:
+    text = text.rstrip("\n") + "\n\n" + "\n".join(block) + "\n"
+open(out, "w").write(text)
+print("wrote the headroom section of " + out)
+PY
+fi
+[[ $HEADROOM_ONLY -eq 1 ]] && exit 0
 
 /usr/bin/python3 - "$TSV" "$RESULTS" "$PROFILE_TXT" "$MICRO_TXT" "$SEED" "$QUICK" "$STAGES_TXT" "$STAGES_N" "$ROOT" "$LOOPS_TXT" <<'PY'
 import math, os, subprocess, sys, time

@@ -33,4 +33,16 @@ for variant in metric us; do
   "$here/build/rimline" check "$here/data/demo/$variant/project-relief.toml" --out "$out/relief-$variant" || status=$?
   [ "$status" -le 1 ] || exit "$status"
 done
-echo "outputs: $out/{metric,us,rational-metric,rational-us,ground-metric,relief-metric,relief-us} (exceptions.csv, results.gpkg, summary.json)" >&2
+# Development connections (metric): the invented Quillfen Rise subdivision connecting at trunk
+# manhole T-10, run beside the existing network and compared; then the connection headroom of every
+# structure of the existing network.
+echo "== demo, a proposed connection (metric) -> $out/proposal-metric" >&2
+status=0
+"$here/build/rimline" check "$here/data/demo/metric/project.toml" \
+  --proposal "$here/data/demo/metric/proposal-quillfen-rise.toml" --out "$out/proposal-metric" || status=$?
+[ "$status" -le 1 ] || exit "$status"
+echo "== demo, connection headroom at every structure (metric) -> $out/headroom-metric" >&2
+status=0
+"$here/build/rimline" check "$here/data/demo/metric/project.toml" --headroom --out "$out/headroom-metric" || status=$?
+[ "$status" -le 1 ] || exit "$status"
+echo "outputs: $out/{metric,us,rational-metric,rational-us,ground-metric,relief-metric,relief-us,proposal-metric,headroom-metric} (exceptions.csv, results.gpkg, summary.json)" >&2

@@ -211,6 +211,25 @@ double highest_velocity_m_s(const solve::ConduitResult& r) {
 
 std::string_view velocity_basis_name(VelocityBasis b) { return b == VelocityBasis::full_flow ? "full_flow" : "normal_depth"; }
 
+Findings check_features(const model::Network& network, const solve::MarchResult& result, const Criteria& criteria,
+                        const CriteriaOverrides& overrides, const std::vector<std::size_t>& structures,
+                        const std::vector<std::size_t>& conduits) {
+  Findings out;
+  for (std::size_t s : structures) {
+    const auto& st = network.structures[s];
+    const std::size_t first = out.size();
+    check_structure(st, result.structures[s], criteria_for(criteria, overrides.structures, st.id).freeboard_m, out);
+    stamp_fid(out, first, st.fid);
+  }
+  for (std::size_t ci : conduits) {
+    const std::size_t first = out.size();
+    check_conduit(network, ci, result.conduits[ci], criteria_for(criteria, overrides.conduits, network.conduits[ci].id),
+                  out);
+    stamp_fid(out, first, network.conduits[ci].fid);
+  }
+  return out;
+}
+
 Criteria criteria_for(const Criteria& run, const std::map<std::string, Override>& overrides, const std::string& id) {
   const auto it = overrides.find(id);
   if (it == overrides.end()) return run;

@@ -6,6 +6,7 @@
 #include <map>
 
 #include "cli/commands.hpp"
+#include "cli/connection_options.hpp"
 #include "rimline/error.hpp"
 #include "rimline/config/project.hpp"
 #include "rimline/report/outputs.hpp"
@@ -25,6 +26,7 @@ struct CheckArgs {
   bool no_drawings = false;
   std::string profile_from;
   std::string profile_trunks;
+  ConnectionArgs connections;  // --proposal, --headroom, --headroom-at
 };
 
 Severity parse_severity(const std::string& s) {
@@ -80,7 +82,9 @@ class Progress {
 
 int run_check_command(const CheckArgs& a, const GlobalOptions& g) {
   const Severity fail_on = parse_severity(a.fail_on);
-  const config::Project project = config::load_project(a.project);
+  const config::Project base_project = config::load_project(a.project);
+  ConnectionJob connections(a.connections, base_project);
+  const config::Project project = connections.project_to_run();
   run::RunOptions opt;
   opt.dry_run = a.dry_run;
   if (a.units == "si") opt.report_units = units::System::si;
@@ -112,6 +116,7 @@ int run_check_command(const CheckArgs& a, const GlobalOptions& g) {
                             : std::vector<bool>(net.conduits.size(), false);
   };
 
+  connections.amend(opt);
   Progress progress(!g.quiet);
   opt.progress = [&progress](const std::string& stage) { progress(stage); };
   // The run stays allocated until the process ends: freeing a city's millions of small blocks one
@@ -128,14 +133,18 @@ int run_check_command(const CheckArgs& a, const GlobalOptions& g) {
     std::cout << (a.dry_run ? "data findings:\n" : "findings:\n");
     print_findings(result.findings, result.report_units, a.dry_run || g.verbose, std::cout);
   }
+  if (!a.dry_run) connections.finish(result, opt, out_opt, g.quiet ? nullptr : &std::cout);
+  progress.done();
   if (!a.dry_run) {
     progress("writing the outputs");
     report::write_outputs(result, a.out, out_opt);
     progress.done();
-    if (!g.quiet)
+    if (!g.quiet) {
       std::cout << "wrote " << a.out << "/exceptions.csv, results.gpkg, summary.json"
-                << (a.no_drawings ? "" : ", profiles.pdf, profiles/, report.html") << "\n"
-                << report::caution << "\n";
+                << (a.no_drawings ? "" : ", profiles.pdf, profiles/, report.html, budgets.csv");
+      for (const auto& f : out_opt.more_files) std::cout << ", " << f.first;
+      std::cout << "\n" << report::caution << "\n";
+    }
   }
   if (!a.dry_run && run::checked_nothing(result)) {
     // Loud, and on stderr even with --quiet: an empty exception list from such a run means nothing.
@@ -162,10 +171,12 @@ std::function<int()> setup_check(CLI::App& app, const GlobalOptions& global) {
   app.add_option("--profile-from", a->profile_from, "Draw the profile from this structure down to its outfall");
   app.add_option("--profile-trunks", a->profile_trunks, "Draw every trunk of pipes at least this size, e.g. \"900 mm\"");
   app.add_flag("--no-drawings", a->no_drawings, "Write the exception list, layers and summary only");
+  add_connection_options(app, a->connections);
   app.footer("Every key of the project file (unit, default, example, the findings it can raise): docs/project-file.md\n"
              "Exit 5 when the run checked nothing (no pipe could be solved).\n\nExample:\n  rimline check data/demo/metric/project.toml --out out/demo\n"
              "  rimline check project.toml --tailwater \"12.4 m\" --tailwater \"13.1 m\" --out out/sweep\n"
-             "  rimline check project.toml --out out/b8 --profile-from B-08");
+             "  rimline check project.toml --out out/b8 --profile-from B-08\n"
+             "  rimline check project.toml --proposal subdivision.toml --headroom --out out/proposal");
   return [a, &global] { return run_check_command(*a, global); };
 }
 

@@ -11,6 +11,7 @@
 #include <tuple>
 
 #include "config/project_catchments.hpp"
+#include "config/project_connections.hpp"
 #include "config/project_force_mains.hpp"
 #include "config/toml_guard.hpp"
 #include "config/toml_plain.hpp"
@@ -516,7 +517,8 @@ Project parse_project(const std::string& toml_text, const std::string& path_for_
               plausibility = top.table("plausibility"), criteria = top.table("criteria"),
               force_mains = top.table("force_mains"), pump_curves = top.table("pump_curves"),
               pump_points = top.table("pump_station_points"), outfalls = top.table("outfalls"),
-              ground = top.table("ground"), network_solve = top.table("network_solve");
+              ground = top.table("ground"), network_solve = top.table("network_solve"),
+              comparison = top.table("comparison"), headroom = top.table("headroom");
   const toml::node* pump_stations = top.node("pump_stations");
   detail::CatchmentSections catchment_sections{top.table("catchments"), top.table("land_use"), top.table("rational"),
                                                top.table("sanitary")};
@@ -542,6 +544,7 @@ Project parse_project(const std::string& toml_text, const std::string& path_for_
   detail::read_pump_curves(pump_curves, p);
   detail::read_pump_stations(pump_stations, p);
   detail::read_pump_station_points(pump_points, p);
+  detail::read_connection_settings(comparison, headroom, p);
   return p;
 }
 

@@ -7,6 +7,7 @@
 
 #include "config/toml_section.hpp"
 #include "rimline/config/project.hpp"
+#include "rimline/config/proposal.hpp"
 #include "rimline/error.hpp"
 
 namespace rimline::config {
@@ -79,7 +80,15 @@ const std::vector<std::string>& project_key_table() {
         "pump_station_points.fields.id", "pump_station_points.fields.duty_pumps",
         "pump_station_points.fields.discharge", "pump_station_points.fields.curve",
         "pump_station_points.fields.fittings_k", "pump_station_points.fields.pump_on",
-        "pump_station_points.fields.pump_off"};
+        "pump_station_points.fields.pump_off",
+        // development connections: the project's [comparison] and [headroom], and the proposal file
+        "comparison", "comparison.level_tolerance", "comparison.velocity_tolerance", "comparison.ratio_tolerance",
+        "comparison.ignore_codes", "headroom", "headroom.structures", "headroom.existing", "headroom.precision",
+        "headroom.relative_precision", "headroom.limit", "proposal", "proposal.name", "proposal.inflows",
+        "proposal.inflows[].structure", "proposal.inflows[].flow", "proposal.pipes", "proposal.pipes[].id",
+        "proposal.pipes[].diameter", "proposal.pipes[].width", "proposal.pipes[].height", "proposal.pipes[].manning_n",
+        "proposal.pipes[].invert_up", "proposal.pipes[].invert_down", "proposal.tailwater", "proposal.tailwater.mode",
+        "proposal.tailwater.levels"};
     std::sort(k.begin(), k.end());
     return k;
   }();
@@ -90,7 +99,9 @@ std::vector<std::string> project_keys_set(const std::string& toml_text, const st
   std::vector<std::string> keys;
   {
     detail::KeyCollector collector(keys);
-    (void)parse_project(toml_text, path_for_messages);
+    // A proposal file (its one table is [proposal]) is read by its own parser.
+    if (toml_text.rfind("[proposal]", 0) == 0) (void)parse_proposal(toml_text, path_for_messages);
+    else (void)parse_project(toml_text, path_for_messages);
   }
   std::sort(keys.begin(), keys.end());
   return keys;

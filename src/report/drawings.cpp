@@ -181,7 +181,7 @@ void write_drawings(const run::CheckRun& run, StagedFiles& files, const DrawingO
   }
   const int err = try_write(html_tmp, [&](std::ostream& out) {
     write_report_html(out, run, rendered, date, pdf && pdf_failed.empty(), selection_text(options, run.report_units),
-                      &failed);
+                      &failed, options.more_sections);
   });
   if (err) throw_write_failure(files.final_name(html_tmp), err, "");  // the report is not a drawing
   // The budgets the report summarises (budgets_csv.hpp): bounded by the network, not by findings x depth.

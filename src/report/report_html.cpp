@@ -328,7 +328,7 @@ std::string profiles_section(const std::vector<RenderedProfile>& profiles, bool 
 
 void write_report_html(std::ostream& out, const run::CheckRun& run, const std::vector<RenderedProfile>& profiles,
                        const std::string& date, bool pdf_written, const std::string& selection,
-                       const Findings* output_findings) {
+                       const Findings* output_findings, const std::string& more_sections) {
   std::vector<const Finding*> criteria, data;
   if (run.data_finding.size() == run.findings.size()) {
     for (std::size_t k = 0; k < run.findings.size(); ++k) (run.data_finding[k] ? data : criteria).push_back(&run.findings[k]);
@@ -346,14 +346,22 @@ void write_report_html(std::ostream& out, const run::CheckRun& run, const std::v
                   esc(run.project.name) + "</title>\n<style>\n" + std::string(report_css) + review_css + "</style>\n</head>\n<body>\n";
   h += "<header><div class=\"mark\">rimline</div><h1>Hydraulic grade line review: " + esc(run.project.name) +
        "</h1>\n<p class=\"caution\" id=\"caution-top\">" + esc(caution) + "</p></header>\n<main>\n";
-  h += "<nav><a href=\"#verdict\">Verdict</a> <a href=\"#plan\">Plan</a> <a href=\"#summary\">Summary</a> <a href=\"#inputs\">Inputs</a> <a href=\"#methods\">Methods</a> "
+  // The sections a later stage adds (src/connections) are linked when present.
+  const auto linked = [&more_sections](const char* id, const char* label) {
+    return more_sections.find("<section id=\"" + std::string(id) + "\"") == std::string::npos
+               ? std::string()
+               : "<a href=\"#" + std::string(id) + "\">" + label + "</a> ";
+  };
+  h += "<nav><a href=\"#verdict\">Verdict</a> <a href=\"#plan\">Plan</a> <a href=\"#summary\">Summary</a> " +
+       linked("proposal", "Proposal") + linked("headroom", "Connection headroom") +
+       "<a href=\"#inputs\">Inputs</a> <a href=\"#methods\">Methods</a> "
        "<a href=\"#exceptions\">Exceptions</a> " +
        std::string(run.pump_stations.empty() ? "" : "<a href=\"#pump-stations\">Pump stations</a> ") +
        "<a href=\"#results\">Results</a> <a href=\"#profiles\">Profiles</a> <a href=\"#data-findings\">Data findings</a>" +
        std::string(run.catchment_flows ? " <a href=\"#design-flows\">Design flows</a>" : "") + "</nav>\n";
   const FeatureLinks links(run, profiles);
   out << h << verdict_section(run) << plan_map_section(run, links);
-  out << summary_section(run, date) << inputs_section(run) << methods_section(run) << design_flows_section(run)
+  out << summary_section(run, date) << more_sections << inputs_section(run) << methods_section(run) << design_flows_section(run)
       << network_solve_section(run);
   out << "<section id=\"exceptions\"><h2>Exception list</h2>\n<p>Design criteria not met, worst case over the "
          "tailwater cases, by severity. A structure warning or error opens to its energy budget down to the "

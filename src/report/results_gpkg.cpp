@@ -23,6 +23,7 @@
 #include "gis/gdal_source.hpp"
 #include "report/gpkg_rows.hpp"
 #include "report/gpkg_rtree.hpp"
+#include "report/layer_srs.hpp"
 #include "report/layer_styles.hpp"
 #include "report/sqlite_db.hpp"
 #include "report/write_failure.hpp"
@@ -44,15 +45,7 @@ class Writer {
     if (!drv) throw Error(ErrorKind::internal, "GDAL has no GPKG driver");
     ds_.reset(drv->Create(path.c_str(), 0, 0, 0, GDT_Unknown, nullptr));
     if (!ds_) throw_write_failure(path, 0, gdal_.last_error());
-    const auto& net = run.read.network;
-    if (!run.read.source_crs_wkt.empty()) out_srs_.importFromWkt(run.read.source_crs_wkt.c_str());
-    else if (!net.crs_wkt.empty()) out_srs_.importFromWkt(net.crs_wkt.c_str());
-    out_srs_.SetAxisMappingStrategy(OAMS_TRADITIONAL_GIS_ORDER);
-    if (!net.crs_wkt.empty() && !run.read.source_crs_wkt.empty()) {
-      run_srs_.importFromWkt(net.crs_wkt.c_str());
-      run_srs_.SetAxisMappingStrategy(OAMS_TRADITIONAL_GIS_ORDER);
-      if (!run_srs_.IsSame(&out_srs_)) to_source_.reset(OGRCreateCoordinateTransformation(&run_srs_, &out_srs_));
-    }
+    place_layers(run, out_srs_, run_srs_, to_source_);
   }
 
   void write() {
@@ -87,12 +80,7 @@ class Writer {
 
  private:
   // Run coordinates are metres in the run CRS; the outputs go back to the input CRS and its unit.
-  void place(double& x, double& y) const {
-    const double k = run_.read.network.crs_metres_per_unit;
-    x /= k;
-    y /= k;
-    if (to_source_) to_source_->Transform(1, &x, &y);
-  }
+  void place(double& x, double& y) const { place_point(run_, to_source_.get(), x, y); }
 
   // A column of a layer whose rows go through SQLite: its schema is still made by GDAL.
   struct Column {
@@ -127,12 +115,7 @@ class Writer {
 
   // The pipe's plan line in the output CRS (a line of fewer than two points is left without geometry).
   void set_line(OGRFeature& f, const model::Conduit& c) const {
-    OGRLineString line;
-    for (const auto& v : c.vertices) {
-      double x = v.x, y = v.y;
-      place(x, y);
-      line.addPoint(x, y);
-    }
+    OGRLineString line = plan_line(run_, to_source_.get(), c);
     if (line.getNumPoints() >= 2) f.SetGeometry(&line);
   }
 
@@ -612,8 +595,12 @@ class Writer {
 void write_results_gpkg(const run::CheckRun& run, const std::string& path) { Writer(run, path).write(); }
 
 const std::vector<std::string>& output_names() {
-  static const std::vector<std::string> names = {"exceptions.csv", "results.gpkg", "summary.json", "report.html",
-                                                 "profiles.pdf",   "profiles",     "budgets.csv"};
+  // changes.csv, structure_changes.csv (a proposal's run) and headroom.csv (--headroom) too: a plain
+  // run after one of those must not leave their figures beside its own.
+  static const std::vector<std::string> names = {"exceptions.csv", "results.gpkg",          "summary.json",
+                                                 "report.html",    "profiles.pdf",          "profiles",
+                                                 "budgets.csv",    "changes.csv",           "structure_changes.csv",
+                                                 "headroom.csv"};
   return names;
 }
 
@@ -654,6 +641,7 @@ void write_outputs(const run::CheckRun& run, const std::string& out_dir, const O
       std::jthread gpkg_writer([&] {
         try {
           write_results_gpkg(run, gpkg);
+          if (options.more_layers) options.more_layers(gpkg);
         } catch (...) {
           gpkg_failed = std::current_exception();
         }
@@ -664,6 +652,7 @@ void write_outputs(const run::CheckRun& run, const std::string& out_dir, const O
       files.write_stream("exceptions.csv",
                          [&](std::ostream& out) { write_exceptions_csv(run, out, output_findings); });
       files.write_text("summary.json", summary_json(run, output_findings));
+      for (const auto& [name, text] : options.more_files) files.write_text(name, text);
     }
     if (gpkg_failed) std::rethrow_exception(gpkg_failed);
   } catch (const Error& e) {

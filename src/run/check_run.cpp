@@ -414,6 +414,7 @@ CheckRun run_check(const config::Project& project, const RunOptions& options) {
   topo_opt.outfall_ids = project.outfalls.ids;
   topo_opt.direction_from_inverts = project.flow_direction == config::FlowDirection::inverts;
   run.topology = topology::build_topology(run.read.network, topo_opt, run.data_findings);
+  if (options.amend_network) options.amend_network(run.read.network, run.data_findings);
   for (auto& s : run.read.network.structures)  // an outfall's own level from the project beats its field
     if (const auto it = project.outfalls.tailwater_m.find(s.id); it != project.outfalls.tailwater_m.end())
       s.tailwater_m = it->second;
@@ -469,13 +470,17 @@ CheckRun run_check(const config::Project& project, const RunOptions& options) {
     for (const auto& st : run.pump_stations)
       for (std::size_t ci : st.layout.chain) flow_opt.fixed_conduit_flow_m3_s[ci] = st.design_flow_m3_s;
     stage("design flows");
+    // A proposal's added inflows go in every round of design flows, with the split of that round (the
+    // network solve's rounds see them as net inflow at the connection structure).
     auto design = [&](const flows::SplitRule& rule) {
       flow_findings.clear();
       auto opt = flow_opt;
       opt.split = rule;
-      if (from_catchments)
-        return catchment_design_flows(project, rule, flow_opt.fixed_conduit_flow_m3_s, run, flow_findings);
-      return flows::design_flows(run.read.network, run.topology, opt, flow_findings);
+      auto flows = from_catchments
+                       ? catchment_design_flows(project, rule, flow_opt.fixed_conduit_flow_m3_s, run, flow_findings)
+                       : flows::design_flows(run.read.network, run.topology, opt, flow_findings);
+      if (options.amend_flows) options.amend_flows(run.read.network, run.topology, rule, flows.flow_m3_s, flow_findings);
+      return flows;
     };
     if (network.active()) {
       stage("network solve");

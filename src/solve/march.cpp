@@ -4,6 +4,7 @@
 #include <cmath>
 #include <exception>
 #include <iterator>
+#include <queue>
 #include <thread>
 
 #include "rimline/error.hpp"
@@ -42,6 +43,37 @@ class Marcher {
       }
       if (out_.structures[s].outfall || out_.structures[s].pumped) settle_outfall(s);
     }
+  }
+
+  // The walk of remarch() (march.hpp): solves `s` again, then the inflows whose flow changed or
+  // that were solved against another level of `s`; returns the upstream structures to visit.
+  template <typename Visit>
+  void resolve(std::size_t s, const std::vector<char>& flow_changed, double still_m, Remarched& touched, Visit visit,
+               const RemarchHooks& hooks) {
+    if (hooks.undo) hooks.undo->structures.emplace_back(s, out_.structures[s]);
+    const StructureResult old = out_.structures[s];
+    out_.structures[s] = StructureResult{};
+    solve_structure(s);
+    const auto& r = out_.structures[s];
+    touched.structures.push_back(s);
+    // An outfall's or wet well's level, as its pipes see it, is the tailwater or pump-on level.
+    const bool fixed = r.outfall || r.pumped;
+    const bool moved = !fixed && (old.solved != r.solved || (r.solved && !(std::abs(old.hgl_m - r.hgl_m) <= still_m)));
+    for (std::size_t ci : topo_.nodes[s].inflows) {
+      const auto& c = net_.conduits[ci];
+      if (!model::marched(c) || c.to != s) continue;
+      const auto& cr = out_.conduits[ci];
+      // A pipe left behind by an earlier walk (ended by `enough`) may have seen another level.
+      const bool stale = !fixed && r.solved && cr.solved && !(std::abs(cr.downstream_level_m - r.hgl_m) <= still_m);
+      if (!flow_changed[ci] && !moved && !stale) continue;
+      if (!flow_changed[ci] && r.solved && hooks.enough && hooks.enough(ci, r.hgl_m)) continue;
+      if (hooks.undo) hooks.undo->conduits.emplace_back(ci, cr);
+      out_.conduits[ci] = ConduitResult{};
+      solve_conduit(ci);
+      touched.conduits.push_back(ci);
+      visit(c.from);
+    }
+    if (fixed) settle_outfall(s);
   }
 
  private:
@@ -368,6 +400,62 @@ MarchResult march(const model::Network& network, const topology::Topology& topo,
     out.findings.insert(out.findings.end(), std::make_move_iterator(f.begin()), std::make_move_iterator(f.end()));
   report_unsolved(network, topo, out);
   return out;
+}
+
+std::vector<std::size_t> march_rank(const model::Network& network, const topology::Topology& topo) {
+  const std::size_t ns = network.structures.size();
+  std::vector<std::size_t> pending(ns, 0), rank(ns, std::numeric_limits<std::size_t>::max()), ready;
+  for (const auto& c : network.conduits)
+    if (model::marched(c)) ++pending[c.from];
+  for (std::size_t s = 0; s < ns; ++s)
+    if (pending[s] == 0) ready.push_back(s);
+  std::size_t next = 0;
+  for (std::size_t k = 0; k < ready.size(); ++k) {  // breadth first: any order with the dependencies will do
+    const std::size_t s = ready[k];
+    rank[s] = next++;
+    for (std::size_t ci : topo.nodes[s].inflows) {
+      const auto& c = network.conduits[ci];
+      if (model::marched(c) && c.to == s && --pending[c.from] == 0) ready.push_back(c.from);
+    }
+  }
+  return rank;
+}
+
+bool remarch(const model::Network& network, const topology::Topology& topo, const std::vector<double>& flow_m3_s,
+             const MarchOptions& options, const std::vector<std::size_t>& rank, const std::vector<std::size_t>& changed,
+             double still_m, MarchResult& result, Remarched& touched, RemarchScratch& scratch, Findings& findings,
+             const RemarchHooks& hooks) {
+  scratch.queued.resize(network.structures.size(), 0);
+  scratch.flow_changed.resize(network.conduits.size(), 0);
+  touched.structures.clear();
+  touched.conduits.clear();
+  std::vector<std::size_t> no_pending;
+  Marcher marcher(network, topo, flow_m3_s, options, result, no_pending, findings);
+  using Item = std::pair<std::size_t, std::size_t>;  // rank, structure: lowest rank first
+  std::priority_queue<Item, std::vector<Item>, std::greater<Item>> heap;
+  auto visit = [&](std::size_t s) {
+    if (s == model::no_index || scratch.queued[s]) return;
+    scratch.queued[s] = 1;
+    heap.push({rank[s], s});
+  };
+  for (std::size_t ci : changed) {
+    scratch.flow_changed[ci] = 1;
+    if (model::marched(network.conduits[ci])) visit(network.conduits[ci].to);
+  }
+  bool complete = true;
+  while (!heap.empty()) {
+    const std::size_t s = heap.top().second;
+    heap.pop();
+    marcher.resolve(s, scratch.flow_changed, still_m, touched, visit, hooks);
+    if (hooks.stop && hooks.stop(touched)) {
+      complete = false;
+      break;
+    }
+  }
+  for (; !heap.empty(); heap.pop()) scratch.queued[heap.top().second] = 0;
+  for (std::size_t ci : changed) scratch.flow_changed[ci] = 0;
+  for (std::size_t s : touched.structures) scratch.queued[s] = 0;
+  return complete;
 }
 
 namespace {

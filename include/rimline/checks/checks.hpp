@@ -83,6 +83,11 @@ Surcharge surcharge_of(const model::Conduit& conduit, const solve::ConduitResult
 // The highest velocity anywhere along a solved pipe's profile (what VELOCITY_HIGH compares).
 double highest_velocity_m_s(const solve::ConduitResult& result);
 std::string_view velocity_basis_name(VelocityBasis b);  // "normal_depth" | "full_flow"
+// The findings of the listed features only (structures, then conduits, in the order given): for the
+// part of a network that a change reached (solve::remarch).
+Findings check_features(const model::Network& network, const solve::MarchResult& result, const Criteria& criteria,
+                        const CriteriaOverrides& overrides, const std::vector<std::size_t>& structures,
+                        const std::vector<std::size_t>& conduits);
 
 // Status word of a structure for the result layer: "flooded", "freeboard", "ok", "unknown_rim", "not_checked".
 std::string structure_status(const model::Structure& s, const solve::StructureResult& r, double freeboard_m);

@@ -82,6 +82,10 @@
 //               (flowing full at the pipe's slope), capacity_ratio_max = 1.0, cover_min = "0.6 m"
 //   [criteria.structures."T-04"] freeboard = "0.5 m"          (per structure id)
 //   [criteria.conduits."D-05"]   velocity_min = "0.6 m/s", velocity_min_basis, velocity_max, capacity_ratio_max, cover_min
+//   [comparison] level_tolerance = "3 mm", velocity_tolerance = "0.01 m/s", ratio_tolerance = 0.01,
+//               ignore_codes = ["SURCHARGED"]   (a proposal against the existing network; headroom)
+//   [headroom]  structures = ["T-07"], existing = "no_worse" | "none", precision = "0.1 L/s",
+//               relative_precision = 0.01, limit = "2 m3/s"   (connection headroom, `check --headroom`)
 //   [[pump_stations]]  one per pump station (parsed in src/config/project_force_mains.cpp):
 //               id = "WW-1" (the wet-well structure; the force main leaves it),
 //               pump_on = "14.2 m", pump_off = "12.8 m" (wet-well levels, datum of the inverts),
@@ -112,6 +116,7 @@
 #include <string>
 #include <vector>
 
+#include "rimline/config/connection_settings.hpp"
 #include "rimline/hydraulics/friction.hpp"
 #include "rimline/hydraulics/losses.hpp"
 #include "rimline/hydraulics/section.hpp"
@@ -334,6 +339,7 @@ struct Project {
   LayerSource pump_station_points;            // [pump_station_points] source/layer (empty: none)
   PumpStationFields pump_station_fields;
   std::map<std::string, std::vector<hydraulics::CurvePoint>> pump_curves;  // [pump_curves] by name
+  ConnectionSettings connections;  // [comparison], [headroom]
 };
 
 // Parses and validates a project file. Unknown keys and values of the wrong type are errors. Throws rimline::Error(bad_config) naming the file,

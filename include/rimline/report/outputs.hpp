@@ -15,10 +15,13 @@
 //                       error, written once where budgets share their route (bounded by the network's size)
 // The set is written into a new sibling folder and swapped into DIR's place in one rename
 // (staged_files.hpp): an interrupted or failed run leaves the previous set whole, or the new set
-// whole, never a mix; the user's other files in DIR are kept. An output that would replace an
-// input of the run is refused before anything is written.
+// whole, never a mix (a proposal's and headroom's files and layers included); the user's other
+// files in DIR are kept. An output that would replace an input of the run is refused before
+// anything is written.
+#include <functional>
 #include <iosfwd>
 #include <string>
+#include <utility>
 #include <vector>
 
 #include "rimline/report/profile_path.hpp"
@@ -34,6 +37,12 @@ inline constexpr const char* caution =
 struct OutputOptions {
   bool drawings = true;        // profiles and report.html
   DrawingOptions profiles;     // which paths are drawn
+  // Written with the outputs by a later stage (src/connections: a proposal's comparison, connection
+  // headroom), so they are staged and renamed with the rest: more files in DIR (name, text), more
+  // layers in results.gpkg (called with its staged path once its own layers are written); the
+  // report's extra sections go in profiles.more_sections.
+  std::vector<std::pair<std::string, std::string>> more_files;
+  std::function<void(const std::string& staged_gpkg)> more_layers;
 };
 
 // The names in DIR that belong to the output set: replaced as a whole by every run (an earlier

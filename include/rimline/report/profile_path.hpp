@@ -58,6 +58,7 @@ struct DrawingOptions {
   PathSelection selection = PathSelection::longest;
   std::string from_structure_id;  // for from_structure
   double min_rise_m = 0.0;        // for trunks
+  std::string more_sections;      // report.html sections placed after the summary (src/connections)
 };
 
 // One sentence saying which paths are drawn, for the report.

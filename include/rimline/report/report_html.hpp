@@ -42,9 +42,10 @@ inline constexpr std::size_t inline_profiles = 40;
 // `selection` says which paths the profiles follow (selection_text). The page is written to `out`
 // a section at a time; report_html returns it as one string (for tests and small runs).
 // `output_findings`: findings of the writing itself (a drawing not written), listed with the data findings.
+// `more_sections`: HTML sections placed after the summary (a proposal's comparison, connection headroom).
 void write_report_html(std::ostream& out, const run::CheckRun& run, const std::vector<RenderedProfile>& profiles,
                        const std::string& date, bool pdf_written, const std::string& selection = "",
-                       const Findings* output_findings = nullptr);
+                       const Findings* output_findings = nullptr, const std::string& more_sections = "");
 std::string report_html(const run::CheckRun& run, const std::vector<RenderedProfile>& profiles,
                         const std::string& date, bool pdf_written, const std::string& selection = "");
 

@@ -31,6 +31,13 @@ struct RunOptions {
   // the network is connected; the others keep only what the checks and result layers use.
   // Unset: every pipe keeps all its points.
   std::function<std::vector<bool>(const model::Network&, const topology::Topology&)> detailed_conduits;
+  // A proposal's changes (src/connections): to the network once it is connected (pipes resized,
+  // re-laid), and to the design flows each time they are made (inflows added at structures, split at
+  // diversions by the rule of that round of design flows: the network solve's hydraulic split too).
+  std::function<void(model::Network&, Findings&)> amend_network;
+  std::function<void(const model::Network&, const topology::Topology&, const flows::SplitRule&,
+                     std::vector<double>& flow_m3_s, Findings&)>
+      amend_flows;
   // Told the name of each stage as it starts ("reading", "connecting", "march 1/2", ...).
   std::function<void(const std::string& stage)> progress;
 };

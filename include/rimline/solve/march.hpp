@@ -15,9 +15,11 @@
 // Outfalls and pump wet wells are receiving water: their level is the arriving pipes' HGL at the
 // outlet under both bookkeepings (the exit velocity head is spent there). The EGL never rises
 // downstream, and loss_budget() adds each term back up to a structure's level exactly.
+#include <functional>
 #include <limits>
 #include <map>
 #include <string>
+#include <utility>
 #include <vector>
 
 #include "rimline/finding.hpp"
@@ -96,6 +98,52 @@ struct MarchResult {
 
 MarchResult march(const model::Network& network, const topology::Topology& topo, const std::vector<double>& flow_m3_s,
                   const MarchOptions& options);
+
+// Each structure's place in a downstream-first order (the order a serial march solves them: every
+// structure after all those its outflows drain into); structures the march never reaches come last.
+std::vector<std::size_t> march_rank(const model::Network& network, const topology::Topology& topo);
+
+// What remarch solved again (indices), in the order it did.
+struct Remarched {
+  std::vector<std::size_t> structures;
+  std::vector<std::size_t> conduits;
+};
+
+// Scratch kept between calls, so that a call costs what it touches, not the network's size.
+struct RemarchScratch {
+  std::vector<char> queued;        // per structure
+  std::vector<char> flow_changed;  // per conduit
+};
+
+// What the caller of remarch may add to the walk (all optional).
+struct RemarchUndo {  // the results as they were before the walk changed them, in the order it did
+  std::vector<std::pair<std::size_t, StructureResult>> structures;
+  std::vector<std::pair<std::size_t, ConduitResult>> conduits;
+};
+struct RemarchHooks {
+  // May leave pipe `conduit` (whose flow did not change) and everything upstream of it as they
+  // are, with its downstream structure now at `level_m`, when the caller knows that nothing there
+  // can matter for it. Those results then belong to another level (remarch notices that when a
+  // later walk reaches the pipe: it is solved again there unless `enough` says so again).
+  std::function<bool(std::size_t conduit, double level_m)> enough;
+  // Called after each structure is solved again (with the pipes into it): true ends the walk there,
+  // leaving the rest of the part a full walk would solve as it was (to be undone by the caller).
+  std::function<bool(const Remarched& touched)> stop;
+  RemarchUndo* undo = nullptr;  // appended to, for the caller to restore the march
+};
+
+// Solves again, in place, the part of a march that a change of the flows in `changed` conduits
+// reaches: `result` holds a march with the old flows, `flow_m3_s` the new ones. The downstream
+// structure of each changed conduit is solved again, then upstream in `rank` order each conduit
+// whose flow changed or which was solved against a level of its downstream structure more than
+// `still_m` away from the new one, and its upstream structure; where the level stays within
+// `still_m` the walk ends (the pipes upstream see what they saw). With still_m = 0 and no hooks the
+// result equals a full march with the new flows; the findings of the part solved again
+// (INVERT_ESTIMATED, ...) go to `findings`. Returns false when `hooks.stop` ended the walk early.
+bool remarch(const model::Network& network, const topology::Topology& topo, const std::vector<double>& flow_m3_s,
+             const MarchOptions& options, const std::vector<std::size_t>& rank, const std::vector<std::size_t>& changed,
+             double still_m, MarchResult& result, Remarched& touched, RemarchScratch& scratch, Findings& findings,
+             const RemarchHooks& hooks = {});
 
 // The energy budget from a structure down to its outfall along the governing outflows: each
 // item adds to the tailwater so that the sum equals the structure's HGL (EGL) exactly, and carries
