@@ -39,4 +39,11 @@ trap 'rm -rf "$tsan_net"' EXIT
 status=0
 "$here/build-tsan/rimline" check "$tsan_net/net/project.toml" --out "$tsan_net/out" -q || status=$?
 [[ $status -le 1 ]] || { echo "rimline under ThreadSanitizer exited with $status" >&2; exit 1; }
+# Connection headroom shares the structures out over two workers (an idle one takes a subtree from the
+# busy one): headroom at every structure of a 1,500-pipe network.
+/usr/bin/python3 "$here/scripts/make_network.py" --pipes 1500 --seed 3 --out "$tsan_net/small" >/dev/null
+status=0
+"$here/build-tsan/rimline" check "$tsan_net/small/project.toml" --headroom --no-drawings --out "$tsan_net/out-headroom" -q \
+  || status=$?
+[[ $status -le 1 ]] || { echo "rimline --headroom under ThreadSanitizer exited with $status" >&2; exit 1; }
 echo "ThreadSanitizer: no data race reported" >&2

@@ -245,15 +245,15 @@ class Searcher {
     return h;
   }
 
-  // The first failure of a trial with `added` at the path's structure, trying first the case
-  // that failed last. A failing trial is undone; a passing one stays on the stack (all cases).
+  // The first failure of a trial with `added` at the path's structure, the cases tried in their
+  // order, so that the case named does not depend on which worker searched which structure first
+  // (a failure that does not depend on the tailwater, such as a capacity ratio, is named under the
+  // first case every run). A failing trial is undone; a passing one stays on the stack (all cases).
   std::optional<Failure> fails(const std::vector<FlowShare>& path, double added) {
     const std::size_t n = states_.size();
     const std::size_t depth = frames_.size();
-    for (std::size_t j = 0; j < n; ++j) {
-      const std::size_t k = (last_failed_ + j) % n;
+    for (std::size_t k = 0; k < n; ++k) {
       if (auto f = trial(path, added, k)) {
-        last_failed_ = k;
         undo_to(depth);
         return f;
       }
@@ -374,7 +374,6 @@ class Searcher {
   std::vector<char> on_path_;  // per structure, scratch: downstream of the searched one on the path
   double local_up_to_ = -1.0;
   std::vector<std::size_t> changed_, new_s_, new_c_;
-  std::size_t last_failed_ = 0;
   double still_m_ = 1.0e-6;
   bool reached_network_ = false;
 
