@@ -165,8 +165,8 @@ class Marcher {
       return;
     }
     std::string up_source, down_source;
-    auto inv_up = c.invert_up_m ? c.invert_up_m : estimate_invert(ci, c.from, true, up_source);
-    auto inv_down = c.invert_down_m ? c.invert_down_m : estimate_invert(ci, c.to, false, down_source);
+    std::optional<double> inv_up = c.invert_up_m ? std::optional<double>(c.invert_up_m) : estimate_invert(ci, c.from, true, up_source);
+    std::optional<double> inv_down = c.invert_down_m ? std::optional<double>(c.invert_down_m) : estimate_invert(ci, c.to, false, down_source);
     // One end known, nothing around the other: take the pipe as level so the march goes on.
     if (inv_up && !inv_down) inv_down = inv_up, down_source = "the upstream invert (level pipe assumed)";
     if (inv_down && !inv_up) inv_up = inv_down, up_source = "the downstream invert (level pipe assumed)";

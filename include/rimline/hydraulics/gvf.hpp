@@ -6,6 +6,8 @@
 #include <string>
 #include <vector>
 
+#include "rimline/optional_double.hpp"
+
 #include "rimline/hydraulics/depth.hpp"
 
 namespace rimline::hydraulics {
@@ -70,7 +72,7 @@ struct ConduitProfile {
   double normal_depth_m = 0.0;       // NaN when none (adverse/horizontal, or Q above peak)
   double critical_depth_m = 0.0;     // rise when above the rise
   double surcharged_length_m = 0.0;
-  std::optional<double> jump_station_m;
+  OptionalDouble jump_station_m;
   double jump_loss_m = 0.0;          // energy lost in the jump (EGL step at jump_station_m)
   int steps = 0;                     // accepted step-method steps
   bool free_outlet = false;          // downstream level below outlet invert + critical depth

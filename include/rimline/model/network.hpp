@@ -8,6 +8,7 @@
 #include <vector>
 
 #include "rimline/hydraulics/friction.hpp"
+#include "rimline/optional_double.hpp"
 #include "rimline/hydraulics/section.hpp"
 
 namespace rimline::model {
@@ -27,13 +28,13 @@ struct Structure {
   std::int64_t fid = -1;          // OGR feature id in the source layer; -1 for derived
   StructureKind kind = StructureKind::manhole;
   Point2 location;                // in the run CRS (projected, metres or feet as the CRS says -> converted to m)
-  std::optional<double> rim_m;    // ground / cover level
-  std::optional<double> invert_m; // sump / lowest invert
-  std::optional<double> loss_k;   // structure loss coefficient from the source, if mapped
-  std::optional<double> diameter_m;      // inside diameter (HEC-22 b)
-  std::optional<double> inflow_m3_s;     // local inflow (flows mode "structure_inflows")
-  std::optional<double> population;      // persons served here (flows mode "sanitary"), besides its catchments'
-  std::optional<double> tailwater_m;     // outfall tailwater from a field
+  OptionalDouble rim_m;    // ground / cover level
+  OptionalDouble invert_m; // sump / lowest invert
+  OptionalDouble loss_k;   // structure loss coefficient from the source, if mapped
+  OptionalDouble diameter_m;      // inside diameter (HEC-22 b)
+  OptionalDouble inflow_m3_s;     // local inflow (flows mode "structure_inflows")
+  OptionalDouble population;      // persons served here (flows mode "sanitary"), besides its catchments'
+  OptionalDouble tailwater_m;     // outfall tailwater from a field
   std::string type_text;          // the source's own type value, for the report
 };
 
@@ -47,12 +48,12 @@ struct Conduit {
   hydraulics::Section section;
   hydraulics::Roughness roughness;
   std::string material;
-  std::optional<double> invert_up_m;
-  std::optional<double> invert_down_m;
+  OptionalDouble invert_up_m;
+  OptionalDouble invert_down_m;
   double length_m = 0.0;          // mapped length field if present and plausible, else geometry length
   double geometry_length_m = 0.0; // plan length of the line
-  std::optional<double> flow_m3_s;   // design flow from a field
-  std::optional<double> split_fraction;  // share of a diversion's flow, if given
+  OptionalDouble flow_m3_s;   // design flow from a field
+  OptionalDouble split_fraction;  // share of a diversion's flow, if given
   Point2 up_point;                // line end at the upstream structure (after orientation)
   Point2 down_point;
   Point2 up_direction;            // unit vector of the line leaving its upstream end (flow direction)
@@ -61,7 +62,7 @@ struct Conduit {
   std::vector<double> vertex_z_m; // Z of the vertices when the source has it, else empty
   bool reversed = false;          // digitised against the flow, turned by topology
   bool force_main = false;
-  std::optional<double> rated_pressure_head_m;  // force mains: rated (class) pressure as head of water
+  OptionalDouble rated_pressure_head_m;  // force mains: rated (class) pressure as head of water
   bool usable = true;             // false when a data problem keeps it out of the march
 };
 

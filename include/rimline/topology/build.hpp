@@ -71,6 +71,7 @@
 
 #include "rimline/finding.hpp"
 #include "rimline/model/network.hpp"
+#include "rimline/topology/index_list.hpp"
 
 namespace rimline::topology {
 
@@ -89,8 +90,8 @@ struct TopologyOptions {
 };
 
 struct Node {
-  std::vector<std::size_t> inflows;   // marched conduit indices arriving here
-  std::vector<std::size_t> outflows;  // marched conduit indices leaving here
+  IndexList inflows;   // marched conduit indices arriving here
+  IndexList outflows;  // marched conduit indices leaving here
   std::size_t main_outflow = model::no_index;  // largest outflow; no_index at outfalls
   std::size_t tree = model::no_index;          // index into Topology::trees
   bool diversion = false;             // more than one outflow
