@@ -94,11 +94,12 @@ StagedFiles::StagedFiles(std::string out_dir, std::vector<std::string> outputs) 
   remove_leftovers(out);
   staging_ = (out.parent_path() / sibling(out, "staging", ::getpid())).string();
   fs::remove_all(staging_, ec);
+  // Registered before it exists: a signal between the two steps must not leave it behind.
+  register_for_cleanup(staging_);
   if (!fs::create_directory(staging_, ec) || ec)
     throw Error(ErrorKind::bad_config, ErrorContext{staging_, "", "", ""},
                 "the folder the outputs are written into before they replace " + out_ + " cannot be made: " +
                     ec.message());
-  register_for_cleanup(staging_);
 }
 
 StagedFiles::~StagedFiles() {
@@ -110,8 +111,15 @@ StagedFiles::~StagedFiles() {
 
 std::string StagedFiles::path_for(const std::string& name) {
   const fs::path p = fs::path(staging_) / name;
-  std::error_code ec;
-  fs::create_directories(p.parent_path(), ec);
+  // Sub-folders made one level at a time below the staging folder, never the staging folder
+  // itself: after a stop signal has removed it, a writer still running must fail to open its file
+  // rather than make the folder again (which would then be left behind).
+  fs::path folder = staging_;
+  for (const auto& part : fs::path(name).parent_path()) {
+    folder /= part;
+    std::error_code ec;
+    fs::create_directory(folder, ec);
+  }
   return p.string();
 }
 
