@@ -1,6 +1,7 @@
 #include "report/feature_locator.hpp"
 
 #include <cmath>
+#include <unordered_set>
 
 namespace rimline::report {
 
@@ -22,10 +23,18 @@ std::optional<model::Point2> line_middle(const std::vector<model::Point2>& v) {
 
 FeatureLocator::FeatureLocator(const run::CheckRun& run) : run_(run) {
   const auto& net = run.read.network;
-  structures_.reserve(net.structures.size());
-  conduits_.reserve(net.conduits.size());
-  for (std::size_t k = 0; k < net.structures.size(); ++k) structures_.emplace(net.structures[k].id, k);
-  for (std::size_t k = 0; k < net.conduits.size(); ++k) conduits_.emplace(net.conduits[k].id, k);
+  // Only the ids some finding names are looked up: indexing those alone keeps the maps as large as
+  // the exception list, not the network (issue 22: three writers each indexed a city's 2 x 10^6 ids
+  // at once, ~97 MB apiece at the peak). The first feature of a repeated id is still the one found.
+  std::unordered_set<std::string_view> named_structures, named_conduits;
+  for (const auto& f : run.findings) {
+    if (f.layer == LayerRole::structures || f.layer == LayerRole::pump_stations) named_structures.insert(f.feature_id);
+    else if (f.layer == LayerRole::conduits || f.layer == LayerRole::force_mains) named_conduits.insert(f.feature_id);
+  }
+  for (std::size_t k = 0; k < net.structures.size(); ++k)
+    if (named_structures.count(net.structures[k].id)) structures_.emplace(net.structures[k].id, k);
+  for (std::size_t k = 0; k < net.conduits.size(); ++k)
+    if (named_conduits.count(net.conduits[k].id)) conduits_.emplace(net.conduits[k].id, k);
   for (std::size_t k = 0; k < run.catchments.size(); ++k) catchments_.emplace(run.catchments[k].id, k);
 }
 

@@ -20,7 +20,8 @@ std::optional<model::Point2> line_middle(const std::vector<model::Point2>& verti
 class FeatureLocator {
  public:
   explicit FeatureLocator(const run::CheckRun& run);
-  // Index of a structure / conduit by its id (the first of duplicates); nullopt when unknown.
+  // Index of a structure / conduit by its id (the first of duplicates); nullopt when unknown or
+  // when no finding of the run names it (only those are indexed).
   std::optional<std::size_t> structure(const std::string& id) const;
   std::optional<std::size_t> conduit(const std::string& id) const;
   // The finding's place in the run CRS (metres); nullopt for project findings and unknown ids.

@@ -1,6 +1,7 @@
 #pragma once
 // Point (minor) losses as K V^2/2g, and the structure-loss methods applied at junctions.
 #include <string>
+#include <string_view>
 #include <vector>
 
 namespace rimline::hydraulics {
@@ -64,7 +65,7 @@ struct StructureLossInputs {
 };
 
 struct LossTerm {
-  std::string name;  // "K_o", "C_Q", ...
+  std::string_view name;  // "K_o", "C_Q", ...: a literal of structure_loss (no copy per structure)
   double value = 0.0;
 };
 
