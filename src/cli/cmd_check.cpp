@@ -183,7 +183,10 @@ std::function<int()> setup_check(CLI::App& app, const GlobalOptions& global) {
              "  rimline check project.toml --tailwater \"12.4 m\" --tailwater \"13.1 m\" --out out/sweep\n"
              "  rimline check project.toml --out out/b8 --profile-from B-08\n"
              "  rimline check project.toml --proposal subdivision.toml --headroom --out out/proposal\n"
-             "  rimline check project.toml --out out/part-0 --where \"pipes=part = 0\" --where \"structures=part = 0\"");
+             "  rimline check project.toml --out out/part-0 \\\n"
+             "    --where \"pipes=ogc_fid IN (SELECT fid FROM rimline_parts WHERE layer = 'pipes' AND part = 0)\" \\\n"
+             "    --where \"structures=ogc_fid IN (SELECT fid FROM rimline_parts WHERE layer = 'structures' AND part = 0)\"\n"
+             "  (rimline_parts: scripts/parts.sql; README, \"Past one machine\")");
   return [a, &global] { return run_check_command(*a, global); };
 }
 
