@@ -1,7 +1,8 @@
 #!/usr/bin/env bash
 # A real database source: loads data/demo/metric into PostGIS on a throw-away loopback server,
 # runs `rimline check` against the PG: connection and against the GeoJSON files, and compares
-# exceptions.csv and every structure's HGL (results.gpkg). Usage: scripts/postgis-test.sh RIMLINE_BINARY
+# exceptions.csv and every structure's HGL (results.gpkg); then scripts/parts-demo.sh checks a network
+# split into parts in two processes against one run. Usage: scripts/postgis-test.sh RIMLINE_BINARY
 # Needs root (installs postgresql postgresql-15-postgis-3 with apt-get when missing; runs the
 # server as the postgres user). Prints "postgis-test: N passed, N failed"; exit 0 only if none failed.
 set -uo pipefail
@@ -87,6 +88,15 @@ hgls "$tmp/out-file" >"$tmp/hgl-file.csv"; hgls "$tmp/out-pg" >"$tmp/hgl-pg.csv"
 n=$(($(wc -l <"$tmp/hgl-file.csv") - 1))
 if [ "$n" -gt 0 ] && cmp -s "$tmp/hgl-file.csv" "$tmp/hgl-pg.csv"; then pass "structure HGLs identical ($n structures)"
 else fail "structure HGLs identical"; diff "$tmp/hgl-file.csv" "$tmp/hgl-pg.csv" | head -20; fi
+
+# A check split into parts (README, "Past one machine"): two processes over the same database, merged,
+# against one whole run.
+t_parts=$(date +%s)
+if bash "$here/scripts/parts-demo.sh" "$rimline" "$pg" "$tmp/parts" 2>&1 | sed 's/^/  /'; then
+  pass "parts demo: merged outputs of two processes equal one run's ($(($(date +%s) - t_parts)) s)"
+else
+  fail "parts demo: merged outputs of two processes equal one run's"
+fi
 
 stop_server; trap - EXIT
 if [ ! -d "$tmp" ]; then pass "server stopped, temp dir removed"; else fail "server stopped"; fi

@@ -26,6 +26,7 @@ struct CheckArgs {
   bool no_drawings = false;
   std::string profile_from;
   std::string profile_trunks;
+  std::vector<std::string> where;  // --where TABLE=SQL, over the project file's where
   ConnectionArgs connections;  // --proposal, --headroom, --headroom-at
 };
 
@@ -82,7 +83,8 @@ class Progress {
 
 int run_check_command(const CheckArgs& a, const GlobalOptions& g) {
   const Severity fail_on = parse_severity(a.fail_on);
-  const config::Project base_project = config::load_project(a.project);
+  config::Project base_project = config::load_project(a.project);
+  config::apply_where_overrides(base_project, a.where);
   ConnectionJob connections(a.connections, base_project);
   const config::Project project = connections.project_to_run();
   run::RunOptions opt;
@@ -171,12 +173,20 @@ std::function<int()> setup_check(CLI::App& app, const GlobalOptions& global) {
   app.add_option("--profile-from", a->profile_from, "Draw the profile from this structure down to its outfall");
   app.add_option("--profile-trunks", a->profile_trunks, "Draw every trunk of pipes at least this size, e.g. \"900 mm\"");
   app.add_flag("--no-drawings", a->no_drawings, "Write the exception list, layers and summary only");
+  app.add_option("--where", a->where,
+                 "Read only the features this filter selects: TABLE=SQL (pipes, structures, catchments, land_use, "
+                 "force_mains, pump_station_points), over the project's where; repeatable, \"TABLE=\" removes it")
+      ->allow_extra_args(false);
   add_connection_options(app, a->connections);
   app.footer("Every key of the project file (unit, default, example, the findings it can raise): docs/project-file.md\n"
              "Exit 5 when the run checked nothing (no pipe could be solved).\n\nExample:\n  rimline check data/demo/metric/project.toml --out out/demo\n"
              "  rimline check project.toml --tailwater \"12.4 m\" --tailwater \"13.1 m\" --out out/sweep\n"
              "  rimline check project.toml --out out/b8 --profile-from B-08\n"
-             "  rimline check project.toml --proposal subdivision.toml --headroom --out out/proposal");
+             "  rimline check project.toml --proposal subdivision.toml --headroom --out out/proposal\n"
+             "  rimline check project.toml --out out/part-0 \\\n"
+             "    --where \"pipes=ogc_fid IN (SELECT fid FROM rimline_parts WHERE layer = 'pipes' AND part = 0)\" \\\n"
+             "    --where \"structures=ogc_fid IN (SELECT fid FROM rimline_parts WHERE layer = 'structures' AND part = 0)\"\n"
+             "  (rimline_parts: scripts/parts.sql; README, \"Past one machine\")");
   return [a, &global] { return run_check_command(*a, global); };
 }
 

@@ -59,6 +59,7 @@ LayerSource read_layer_source(TomlSection& s, const std::string& directory) {
   src.source = resolve_source(*source, directory);
   src.layer = s.string("layer").value_or("");
   src.open_options = s.strings("open_options");
+  src.where = s.string("where").value_or("");
   return src;
 }
 
@@ -545,6 +546,8 @@ Project parse_project(const std::string& toml_text, const std::string& path_for_
   detail::read_pump_stations(pump_stations, p);
   detail::read_pump_station_points(pump_points, p);
   detail::read_connection_settings(comparison, headroom, p);
+  for (auto& [table, src] : layer_sources(p))
+    if (!src->where.empty()) src->where_origin = p.file;
   return p;
 }
 

@@ -161,6 +161,7 @@ void read_force_main_settings(TomlSection s, Project& p) {
     p.force_main_layer.source = resolve(*source, p.directory);
     p.force_main_layer.layer = s.string("layer").value_or("");
     p.force_main_layer.open_options = s.strings("open_options");
+    p.force_main_layer.where = s.string("where").value_or("");
   }
   if (const auto dem = s.string("dem")) f.dem_source = resolve(*dem, p.directory);
   if (const auto u = s.string("dem_unit")) {
@@ -204,6 +205,7 @@ void read_pump_station_points(TomlSection s, Project& p) {
   p.pump_station_points.source = resolve(*source, p.directory);
   p.pump_station_points.layer = s.string("layer").value_or("");
   p.pump_station_points.open_options = s.strings("open_options");
+  p.pump_station_points.where = s.string("where").value_or("");
   TomlSection f = s.table("fields");
   PumpStationFields& pf = p.pump_station_fields;
   for (auto [key, dst] : {std::pair<std::string_view, std::string*>{"id", &pf.id},

@@ -56,6 +56,25 @@ std::string quoted_list(const std::vector<std::string>& names) {
   return out;
 }
 
+// The source's attribute filter on the opened layer. A file driver compiles it as OGR SQL at once;
+// the PostgreSQL driver passes it into its SELECT unchecked, so a count (which the readers ask for
+// anyway) makes the database judge it here, before any feature is read.
+void apply_where(OpenLayer& out, const LayerSource& src, const std::string& role) {
+  if (src.where.empty()) return;
+  GdalErrorCapture capture;
+  const OGRErr set = out.layer->SetAttributeFilter(src.where.c_str());
+  if (set == OGRERR_NONE) (void)out.layer->GetFeatureCount(FALSE);
+  const bool failed = set != OGRERR_NONE || std::any_of(capture.messages().begin(), capture.messages().end(),
+                                                        [](const auto& m) { return m.is_error; });
+  if (!failed) return;
+  std::string why = capture.last_error();
+  if (why.empty()) why = "GDAL refused it";
+  const std::string origin = src.where_origin.empty() ? std::string("the project file") : src.where_origin;
+  throw Error(ErrorKind::bad_config, ErrorContext{origin, out.layer_name, "", ""},
+              "the " + role + " filter where = \"" + src.where + "\" on the layer \"" + out.layer_name + "\" of " +
+                  out.source + " is not accepted: " + why);
+}
+
 }  // namespace
 
 std::vector<std::string> field_names(OGRLayer& layer) {
@@ -115,6 +134,8 @@ OpenLayer open_layer(const LayerSource& src, const std::string& role) {
     }
   }
   out.layer_name = out.layer->GetName();
+  out.where = src.where;
+  apply_where(out, src, role);
   if (char** files = ds.GetFileList()) {
     for (char** f = files; *f; ++f) out.files.emplace_back(*f);
     CSLDestroy(files);
@@ -134,7 +155,9 @@ void require_geometry_and_features(const OpenLayer& l, const std::string& role) 
                 "the " + role + " layer has no geometry column (a CSV needs a WKT column, or X/Y columns named in "
                 "open_options)");
   if (l.layer->GetFeatureCount(FALSE) == 0)
-    throw Error(ErrorKind::bad_input, where, "the " + role + " layer has no features");
+    throw Error(ErrorKind::bad_input, where,
+                "the " + role + " layer has no features" +
+                    (l.where.empty() ? std::string() : " that match its filter where = \"" + l.where + "\""));
   // A layer declared as points cannot hold one pipe: the structure layer named as the pipes.
   const OGRwkbGeometryType type = wkbFlatten(l.layer->GetGeomType());
   if (role == "pipes" && (type == wkbPoint || type == wkbMultiPoint))

@@ -55,6 +55,7 @@ struct OpenLayer {
   OGRLayer* layer = nullptr;  // owned by the dataset
   std::string source;         // printable source, for messages
   std::string layer_name;
+  std::string where;  // the attribute filter set on the layer ("" for none)
   std::vector<std::string> files;  // files behind the dataset (shapefile: .shp/.dbf/.shx/.prj ...), as named in the project
   // SHA-256 of files read through a private copy (the bytes copied), by the original's path.
   std::vector<std::pair<std::string, std::string>> read_hashes;

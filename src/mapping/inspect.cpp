@@ -262,7 +262,7 @@ bool LayerSummary::points() const {
 SourceSummary inspect_source(const std::string& source, const std::vector<std::string>& open_options) {
   SourceSummary out;
   out.source = detail::printable_source(source);
-  const detail::OpenedSource opened = detail::open_dataset(config::LayerSource{source, "", open_options}, "inspected");
+  const detail::OpenedSource opened = detail::open_dataset(config::LayerSource{source, "", open_options, "", ""}, "inspected");
   const GDALDatasetUniquePtr& ds = opened.dataset;
   detail::GdalErrorCapture quiet;  // read warnings are not the point of an inspection
   if (GDALDriver* d = ds->GetDriver()) out.driver = d->GetDescription();

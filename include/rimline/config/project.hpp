@@ -137,6 +137,10 @@ struct LayerSource {
   std::string source;  // path (resolved against the project file) or a GDAL connection string
   std::string layer;   // empty: the only / first layer
   std::vector<std::string> open_options;  // GDAL open options "KEY=VALUE" (CSV X/Y columns, ...)
+  // An attribute filter (`where = "..."`, or `--where TABLE=SQL`): only the features it selects are
+  // read (OGRLayer::SetAttributeFilter; a database driver runs it as SQL). Empty: every feature.
+  std::string where;
+  std::string where_origin;  // where the filter was written (the project file, or "--where"), for messages
 };
 
 struct PipeFields {
@@ -346,6 +350,14 @@ struct Project {
 // the key and, for unknown keys, the closest known one ("did you mean ...?").
 Project load_project(const std::string& path);
 Project parse_project(const std::string& toml_text, const std::string& path_for_messages);
+
+// The project's GIS layer sources by their table name: pipes, structures, catchments, land_use,
+// force_mains, pump_station_points (those without a source included).
+std::vector<std::pair<std::string, LayerSource*>> layer_sources(Project& p);
+// Applies command-line filters "TABLE=SQL" (`--where`), each replacing the project file's `where`
+// of that table ("TABLE=" removes it), so one project file serves every part of a split check.
+// Throws Error(bad_config) for text without "=", an unknown table, or a table the project does not read.
+void apply_where_overrides(Project& p, const std::vector<std::string>& specs);
 
 // Every key the parser reads, sorted, as dotted patterns ("criteria.structures.*.freeboard",
 // "pump_stations[].id"); docs/project-file.md lists the same keys.
