@@ -57,6 +57,13 @@ void ConnectionJob::finish(const run::CheckRun& result, const run::RunOptions& o
     for (const auto& in : proposal_->inflows)
       if (std::find(connection_ids.begin(), connection_ids.end(), in.structure) == connection_ids.end())
         connection_ids.push_back(in.structure);
+    // The heads of a new sewer the proposal lays (added structures no pipe drains into): its
+    // profile runs through the connection to the outfall.
+    const auto& net = result.read.network;
+    for (std::size_t s = 0; s < net.structures.size(); ++s)
+      if (net.structures[s].proposed && result.topology.nodes[s].inflows.empty() &&
+          std::find(connection_ids.begin(), connection_ids.end(), net.structures[s].id) == connection_ids.end())
+        connection_ids.push_back(net.structures[s].id);
     out.more_files.emplace_back("changes.csv", connections::changes_csv(*comparison_, sys));
     out.more_files.emplace_back("structure_changes.csv", connections::structure_changes_csv(*comparison_, sys));
     out.profiles.more_sections += connections::comparison_html(*comparison_, *base_, result, connection_ids);

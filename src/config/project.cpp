@@ -13,6 +13,7 @@
 #include "config/project_catchments.hpp"
 #include "config/project_connections.hpp"
 #include "config/project_force_mains.hpp"
+#include "config/source_path.hpp"
 #include "config/toml_guard.hpp"
 #include "config/toml_plain.hpp"
 #include "config/toml_section.hpp"
@@ -20,10 +21,7 @@
 #include "rimline/file_kind.hpp"
 
 namespace rimline::config {
-namespace {
-
-using detail::TomlSection;
-using units::Dimension;
+namespace detail {
 
 // "PG:dbname=x", "ODBC:...", "/vsizip/...", "https://..." are GDAL connection strings, not paths.
 // A single letter before ':' is a Windows drive, so it stays a path.
@@ -44,6 +42,15 @@ std::string resolve_source(const std::string& source, const std::string& directo
   if (p.is_absolute()) return p.lexically_normal().string();
   return (std::filesystem::path(directory) / p).lexically_normal().string();
 }
+
+}  // namespace detail
+
+namespace {
+
+using detail::resolve_source;
+
+using detail::TomlSection;
+using units::Dimension;
 
 double positive_number(TomlSection& s, std::string_view key, double fallback) {
   const auto v = s.number(key);

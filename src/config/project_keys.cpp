@@ -88,7 +88,10 @@ const std::vector<std::string>& project_key_table() {
         "proposal.inflows[].structure", "proposal.inflows[].flow", "proposal.pipes", "proposal.pipes[].id",
         "proposal.pipes[].diameter", "proposal.pipes[].width", "proposal.pipes[].height", "proposal.pipes[].manning_n",
         "proposal.pipes[].invert_up", "proposal.pipes[].invert_down", "proposal.tailwater", "proposal.tailwater.mode",
-        "proposal.tailwater.levels"};
+        "proposal.tailwater.levels", "proposal.new_pipes", "proposal.new_pipes.source",
+        "proposal.new_pipes.layer", "proposal.new_pipes.open_options", "proposal.new_pipes.where",
+        "proposal.new_structures", "proposal.new_structures.source", "proposal.new_structures.layer",
+        "proposal.new_structures.open_options", "proposal.new_structures.where"};
     std::sort(k.begin(), k.end());
     return k;
   }();

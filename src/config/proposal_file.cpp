@@ -6,6 +6,7 @@
 #include <fstream>
 #include <sstream>
 
+#include "config/source_path.hpp"
 #include "config/toml_guard.hpp"
 #include "config/toml_plain.hpp"
 #include "config/toml_section.hpp"
@@ -31,6 +32,22 @@ void each_entry(TomlSection& s, std::string_view key, Read read) {
     read(TomlSection(item.as_table(), s.name() + "." + std::string(key) + "[" + std::to_string(n) + "]", s.file(),
                      s.pattern() + "." + std::string(key) + "[]"));
   }
+}
+
+// [proposal.new_pipes] / [proposal.new_structures]: a layer of added features. A relative source
+// is read beside the proposal file, as the project's own layers are beside the project file.
+LayerSource new_layer(TomlSection t, const std::string& proposal_path) {
+  LayerSource src;
+  if (!t.present()) return src;
+  const auto source = t.string("source");
+  if (!source || source->empty()) t.fail("source", "the layer source (a file or a GDAL connection string) is missing");
+  src.source = detail::resolve_source(*source, std::filesystem::path(proposal_path).parent_path().string());
+  src.layer = t.string("layer").value_or("");
+  src.open_options = t.strings("open_options");
+  src.where = t.string("where").value_or("");
+  if (!src.where.empty()) src.where_origin = proposal_path;
+  t.finish();
+  return src;
 }
 
 std::string required_id(TomlSection& t, std::string_view key) {
@@ -85,6 +102,8 @@ Proposal parse_proposal(const std::string& toml_text, const std::string& path_fo
     t.finish();
     p.pipes.push_back(c);
   });
+  p.new_pipes = new_layer(s.table("new_pipes"), p.file);
+  p.new_structures = new_layer(s.table("new_structures"), p.file);
   TomlSection tw = s.table("tailwater");
   p.tailwater_mode = tw.choice<TailwaterMode>(
       "mode", {{"fixed", TailwaterMode::fixed}, {"free", TailwaterMode::free}, {"higher", TailwaterMode::higher}});
@@ -92,9 +111,11 @@ Proposal parse_proposal(const std::string& toml_text, const std::string& path_fo
     p.tailwater_levels_m.push_back(parse_quantity(level, Dimension::length, p.file + ": " + tw.where("levels")));
   tw.finish();
   s.finish();
-  if (p.inflows.empty() && p.pipes.empty() && !p.tailwater_mode && p.tailwater_levels_m.empty())
+  if (p.inflows.empty() && p.pipes.empty() && !p.tailwater_mode && p.tailwater_levels_m.empty() &&
+      p.new_pipes.source.empty() && p.new_structures.source.empty())
     throw Error(ErrorKind::bad_config, ErrorContext{p.file, "", "", ""},
-                "the proposal changes nothing: give [[proposal.inflows]], [[proposal.pipes]] or [proposal.tailwater]");
+                "the proposal changes nothing: give [[proposal.inflows]], [[proposal.pipes]], [proposal.new_pipes], "
+                "[proposal.new_structures] or [proposal.tailwater]");
   return p;
 }
 
@@ -113,6 +134,14 @@ Project proposed_project(const Project& base, const Proposal& proposal) {
   Project p = base;
   if (proposal.tailwater_mode) p.tailwater_mode = *proposal.tailwater_mode;
   if (!proposal.tailwater_levels_m.empty()) p.tailwater_levels_m = proposal.tailwater_levels_m;
+  if (!proposal.new_structures.source.empty() && base.structures.source.empty())
+    throw Error(ErrorKind::bad_config, ErrorContext{proposal.file, "", "proposal.new_structures", ""},
+                "the project has no [structures] layer (its structures are the pipe ends), so there is no field "
+                "mapping to read new structures with; give the project a structures layer, or leave "
+                "[proposal.new_structures] out and let the new pipes' ends be the new structures");
+  p.proposal_pipes = proposal.new_pipes;
+  p.proposal_structures = proposal.new_structures;
+  p.proposal_file = proposal.file;
   return p;
 }
 

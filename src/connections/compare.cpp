@@ -126,6 +126,8 @@ Comparison compare_runs(const run::CheckRun& base, const run::CheckRun& proposed
     sc.structure = s;
     sc.fid = net.structures[s].fid;
     sc.hgl_after_m = envelope_hgl(proposed, s);
+    sc.added = net.structures[s].proposed;
+    if (sc.added) cmp.added_structures.push_back(sc.id);
     if (const auto it = base_index.find(sc.id); it != base_index.end()) sc.hgl_before_m = envelope_hgl(base, it->second);
     const auto rim = net.structures[s].rim_m;
     if (rim) sc.freeboard_before_m = *rim - sc.hgl_before_m, sc.freeboard_after_m = *rim - sc.hgl_after_m;
@@ -133,6 +135,9 @@ Comparison compare_runs(const run::CheckRun& base, const run::CheckRun& proposed
     if (std::isfinite(rise) && rise > cmp.largest_rise_m) cmp.largest_rise_m = rise, cmp.largest_rise_at = sc.id;
     cmp.structures.push_back(sc);
   }
+
+  for (const auto& c : net.conduits)
+    if (c.proposed) cmp.added_pipes.push_back(c.id);
 
   const std::size_t bad = cmp.counts[Change::new_exception] + cmp.counts[Change::worsened];
   cmp.acceptable = bad == 0;

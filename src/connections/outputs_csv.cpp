@@ -48,9 +48,10 @@ std::string changes_csv(const Comparison& cmp, units::System sys) {
 std::string structure_changes_csv(const Comparison& cmp, units::System sys) {
   using units::Dimension;
   std::ostringstream out;
-  out << "id,fid,hgl_before,hgl_after,hgl_change,freeboard_before,freeboard_after,freeboard_change,unit\n";
+  out << "id,fid,status,hgl_before,hgl_after,hgl_change,freeboard_before,freeboard_after,freeboard_change,unit\n";
   for (const auto& s : cmp.structures) {
-    out << cell(s.id) << ',' << fid_cell(s.fid) << ',' << number(s.hgl_before_m, Dimension::length, sys) << ','
+    out << cell(s.id) << ',' << fid_cell(s.fid) << ',' << (s.added ? "added" : "existing") << ','
+        << number(s.hgl_before_m, Dimension::length, sys) << ','
         << number(s.hgl_after_m, Dimension::length, sys) << ',' << number(s.hgl_change_m(), Dimension::length, sys)
         << ',' << number(s.freeboard_before_m, Dimension::length, sys) << ','
         << number(s.freeboard_after_m, Dimension::length, sys) << ','

@@ -130,11 +130,12 @@ void write_changes(LayerWriter& w, const run::CheckRun& run, const Comparison& c
     w.add(l, f);
   }
   OGRLayer* s = w.layer("structure_changes", wkbPoint,
-                        {{"id", OFTString}, {"hgl_before", OFTReal}, {"hgl_after", OFTReal}, {"hgl_change", OFTReal},
+                        {{"id", OFTString}, {"status", OFTString}, {"hgl_before", OFTReal}, {"hgl_after", OFTReal}, {"hgl_change", OFTReal},
                          {"freeboard_before", OFTReal}, {"freeboard_after", OFTReal}, {"freeboard_change", OFTReal}});
   for (const auto& c : cmp.structures) {
     OGRFeature f(s->GetLayerDefn());
     f.SetField("id", c.id.c_str());
+    f.SetField("status", c.added ? "added" : "existing");
     w.set(f, "hgl_before", c.hgl_before_m, Dimension::length);
     w.set(f, "hgl_after", c.hgl_after_m, Dimension::length);
     w.set(f, "hgl_change", c.hgl_change_m(), Dimension::length);

@@ -168,6 +168,21 @@ std::string comparison_html(const Comparison& cmp, const run::CheckRun& base, co
                   num(cmp.settings.ratio_tolerance, 2) +
                   " of the capacity ratio counts as none ([comparison]; common practice, no source).</p>\n";
   h += "<p class=\"verdict\"><strong>Verdict: " + esc(render_message(cmp.verdict, sys)) + ".</strong></p>\n";
+  if (!cmp.added_pipes.empty() || !cmp.added_structures.empty()) {
+    // Which features exist only in the proposal: their exceptions count as new.
+    auto listed = [](const std::vector<std::string>& ids) {
+      std::string s;
+      for (std::size_t i = 0; i < ids.size() && i < 30; ++i) s += (i ? ", " : "") + ids[i];
+      if (ids.size() > 30) s += ", ... (" + std::to_string(ids.size() - 30) + " more)";
+      return s;
+    };
+    h += "<p>The proposal adds " + std::to_string(cmp.added_pipes.size()) + " pipe(s)" +
+         (cmp.added_pipes.empty() ? "" : " (" + esc(listed(cmp.added_pipes)) + ")") + " and " +
+         std::to_string(cmp.added_structures.size()) + " structure(s)" +
+         (cmp.added_structures.empty() ? "" : " (" + esc(listed(cmp.added_structures)) + ")") +
+         "; they have no figures before, and each exception on them counts as new (unless [comparison] "
+         "ignore_codes leaves its code out).</p>\n";
+  }
   h += "<table class=\"grid\">" + row({"new", "worsened", "unchanged", "improved", "resolved"}, "th");
   auto n = [&cmp](Change c) {
     const auto it = cmp.counts.find(c);

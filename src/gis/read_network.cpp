@@ -7,6 +7,7 @@
 
 #include "gis/read_catchments.hpp"
 #include "gis/read_layers.hpp"
+#include "gis/read_proposal_layers.hpp"
 #include "gis/run_crs.hpp"
 
 namespace rimline::gis {
@@ -115,6 +116,7 @@ ReadResult read_network(const Project& project) {
                          std::make_move_iterator(structure_findings.end()));
   add_input_files(result.input_files, structure_files);  // both layers may live in one file
   result.read_hashes.insert(result.read_hashes.end(), structure_hashes.begin(), structure_hashes.end());
+  read_proposal_layers(project, crs, defaults, result);  // a proposal's new pipes and structures, if any
   read_catchment_layers(project, crs, result);
   result.defaults_used = defaults.take();
   for (auto& n : structure_defaults.take()) result.defaults_used.push_back(std::move(n));

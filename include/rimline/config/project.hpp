@@ -341,6 +341,10 @@ struct Project {
   model::ForceMainSettings force_mains;                        // [force_mains]
   LayerSource force_main_layer;  // [force_mains] source/layer: a line layer of force mains (pipe field mapping)
   LayerSource pump_station_points;            // [pump_station_points] source/layer (empty: none)
+  // A proposal's new pipes and structures (config::proposed_project sets them; empty otherwise):
+  // read with the [pipes.fields] / [structures.fields] mapping and added to the network.
+  LayerSource proposal_pipes, proposal_structures;
+  std::string proposal_file;  // the proposal file that names them, for messages
   PumpStationFields pump_station_fields;
   std::map<std::string, std::vector<hydraulics::CurvePoint>> pump_curves;  // [pump_curves] by name
   ConnectionSettings connections;  // [comparison], [headroom]

@@ -6,6 +6,9 @@
 //   [[proposal.inflows]]  structure = "T-07", flow = "42 L/s"        (added at that structure)
 //   [[proposal.pipes]]    id = "D-05", diameter = "600 mm" | width, height (box), manning_n = 0.013,
 //                         invert_up = "4.10 m", invert_down = "3.95 m"   (resized / re-laid)
+//   [proposal.new_pipes]       source = "new-pipes.geojson", layer, open_options, where
+//   [proposal.new_structures]  source = "new-structures.geojson", ...   (added; read with the
+//                         project's [pipes.fields] / [structures.fields]; sources relative to this file)
 //   [proposal.tailwater]  mode = "fixed" | "free" | "higher", levels = ["3.9 m"]   (replaces the project's)
 #include <optional>
 #include <string>
@@ -35,6 +38,7 @@ struct Proposal {
   std::string name;
   std::vector<AddedInflow> inflows;
   std::vector<PipeChange> pipes;
+  LayerSource new_pipes, new_structures;  // source empty: none
   std::optional<TailwaterMode> tailwater_mode;
   std::vector<double> tailwater_levels_m;  // empty: the project's
 };

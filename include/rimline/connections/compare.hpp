@@ -52,7 +52,8 @@ struct ExceptionChange {
 struct StructureChange {
   std::string id;
   std::size_t structure = model::no_index;  // in the proposed run
-  std::int64_t fid = -1;                     // its fid in the structure layer
+  std::int64_t fid = -1;                     // its fid in the structure layer (the proposal's layer when added)
+  bool added = false;                        // the proposal adds it (no "before" figures)
   double hgl_before_m = std::numeric_limits<double>::quiet_NaN();  // envelope over the cases
   double hgl_after_m = std::numeric_limits<double>::quiet_NaN();
   double freeboard_before_m = std::numeric_limits<double>::quiet_NaN();
@@ -66,6 +67,9 @@ struct Comparison {
   std::vector<ExceptionChange> exceptions;   // worst change first, then by layer and id
   std::vector<StructureChange> structures;   // in the proposed network's order
   std::map<Change, std::size_t> counts;
+  // Features the proposal adds (its new_pipes / new_structures layers), in the proposed network's
+  // order; their exceptions are "new", as a new pipe must meet the criteria like any other.
+  std::vector<std::string> added_pipes, added_structures;
   double largest_rise_m = 0.0;               // HGL, 0 when nothing rose
   std::string largest_rise_at;
   // "no new or worsened exception; largest HGL rise 0.012 m at T-07", with q() tokens.

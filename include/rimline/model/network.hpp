@@ -27,6 +27,7 @@ struct Structure {
   std::string id;                 // the source layer's own id (or the node id for derived structures)
   std::int64_t fid = -1;          // OGR feature id in the source layer; -1 for derived
   StructureKind kind = StructureKind::manhole;
+  bool proposed = false;          // added by a proposal's new_structures layer (fid is of that layer)
   Point2 location;                // in the run CRS (projected, metres or feet as the CRS says -> converted to m)
   OptionalDouble rim_m;    // ground / cover level
   OptionalDouble invert_m; // sump / lowest invert
@@ -62,6 +63,7 @@ struct Conduit {
   std::vector<double> vertex_z_m; // Z of the vertices when the source has it, else empty
   bool reversed = false;          // digitised against the flow, turned by topology
   bool force_main = false;
+  bool proposed = false;          // added by a proposal's new_pipes layer (fid is of that layer)
   OptionalDouble rated_pressure_head_m;  // force mains: rated (class) pressure as head of water
   bool usable = true;             // false when a data problem keeps it out of the march
 };

@@ -60,7 +60,8 @@ TEST_CASE("structure_changes.csv and changes.csv carry fids and neutralise ids",
   cmp.exceptions.push_back(e);
   const std::string sc_csv = connections::structure_changes_csv(cmp, units::System::si);
   INFO(sc_csv);
-  CHECK(sc_csv.find("\n\"'-T1\",5,4.123,4.180,0.057,") != std::string::npos);
+  CHECK(sc_csv.rfind("id,fid,status,hgl_before,", 0) == 0);
+  CHECK(sc_csv.find("\n\"'-T1\",5,existing,4.123,4.180,0.057,") != std::string::npos);
   const std::string ch_csv = connections::changes_csv(cmp, units::System::si);
   INFO(ch_csv);
   CHECK(ch_csv.rfind("change,layer,feature_id,fid,", 0) == 0);
