@@ -43,22 +43,6 @@ std::string resolve_source(const std::string& source, const std::string& directo
   return (std::filesystem::path(directory) / p).lexically_normal().string();
 }
 
-}  // namespace detail
-
-namespace {
-
-using detail::resolve_source;
-
-using detail::TomlSection;
-using units::Dimension;
-
-double positive_number(TomlSection& s, std::string_view key, double fallback) {
-  const auto v = s.number(key);
-  if (!v) return fallback;
-  if (!(*v > 0.0)) s.fail(key, "must be greater than 0");
-  return *v;
-}
-
 LayerSource read_layer_source(TomlSection& s, const std::string& directory) {
   LayerSource src;
   const auto source = s.string("source");
@@ -69,6 +53,23 @@ LayerSource read_layer_source(TomlSection& s, const std::string& directory) {
   src.where = s.string("where").value_or("");
   return src;
 }
+
+}  // namespace detail
+
+namespace {
+
+using detail::read_layer_source;
+using detail::resolve_source;
+using detail::TomlSection;
+using units::Dimension;
+
+double positive_number(TomlSection& s, std::string_view key, double fallback) {
+  const auto v = s.number(key);
+  if (!v) return fallback;
+  if (!(*v > 0.0)) s.fail(key, "must be greater than 0");
+  return *v;
+}
+
 
 hydraulics::Shape shape_choice(TomlSection& s, std::string_view key, hydraulics::Shape fallback) {
   return s.choice<hydraulics::Shape>(key, {{"circular", hydraulics::Shape::circular},

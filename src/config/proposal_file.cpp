@@ -37,14 +37,8 @@ void each_entry(TomlSection& s, std::string_view key, Read read) {
 // [proposal.new_pipes] / [proposal.new_structures]: a layer of added features. A relative source
 // is read beside the proposal file, as the project's own layers are beside the project file.
 LayerSource new_layer(TomlSection t, const std::string& proposal_path) {
-  LayerSource src;
-  if (!t.present()) return src;
-  const auto source = t.string("source");
-  if (!source || source->empty()) t.fail("source", "the layer source (a file or a GDAL connection string) is missing");
-  src.source = detail::resolve_source(*source, std::filesystem::path(proposal_path).parent_path().string());
-  src.layer = t.string("layer").value_or("");
-  src.open_options = t.strings("open_options");
-  src.where = t.string("where").value_or("");
+  if (!t.present()) return {};
+  LayerSource src = detail::read_layer_source(t, std::filesystem::path(proposal_path).parent_path().string());
   if (!src.where.empty()) src.where_origin = proposal_path;
   t.finish();
   return src;
