@@ -15,6 +15,9 @@
 #            --headroom "N ..." (connection headroom at every structure of networks of N pipes:
 #            `rimline check --headroom --no-drawings`, targets 30 s at 10^4 and 10 min at 10^5; alone,
 #            without --sizes, only these run and only their section of RESULTS is rewritten)
+#            --parts "N P" (issue 22: the network of N pipes checked in P parts by outfall tree, each
+#            part one process reading its trees through --where, as many at once as there are cores;
+#            wall time of the whole, RSS and counts per part; alone, only its section is rewritten)
 #            --binary PATH (time this rimline instead of building build-bench)
 #            --keep-results (no build and no end-to-end runs: rewrite RESULTS from the timings and
 #            profile of the last run in WORK, adding --stages / --profile / micro figures)
@@ -42,6 +45,7 @@ STAGES_N=""
 TIMEOUT=0
 LOOPS_N=""
 HEADROOM_N=""
+PARTS_NP=""
 SIZES_SET=0
 BINARY=""
 
@@ -50,6 +54,7 @@ while [[ $# -gt 0 ]]; do
     --quick) SIZES="1000 10000"; QUICK=1; shift ;;
     --sizes) SIZES="$2"; SIZES_SET=1; shift 2 ;;
     --headroom) HEADROOM_N="$2"; shift 2 ;;
+    --parts) PARTS_NP="$2"; shift 2 ;;
     --binary) BINARY="$2"; shift 2 ;;
     --seed) SEED="$2"; shift 2 ;;
     --work) WORK="$2"; shift 2 ;;
@@ -67,7 +72,7 @@ while [[ $# -gt 0 ]]; do
 done
 
 HEADROOM_ONLY=0
-[[ -n "$HEADROOM_N" && $SIZES_SET -eq 0 && $QUICK -eq 0 ]] && { HEADROOM_ONLY=1; SIZES=""; MICRO=0; }
+[[ ( -n "$HEADROOM_N" || -n "$PARTS_NP" ) && $SIZES_SET -eq 0 && $QUICK -eq 0 ]] && { HEADROOM_ONLY=1; SIZES=""; MICRO=0; }
 # A quick run does not overwrite the committed table unless asked to.
 [[ -z "$RESULTS" ]] && { [[ $QUICK -eq 1 ]] && RESULTS="$WORK/RESULTS-quick.md" || RESULTS="$ROOT/bench/RESULTS.md"; }
 
@@ -280,35 +285,108 @@ if [[ -n "$HEADROOM_N" ]]; then
     read -r hw hr hc < <(parse_time "$WORK/head.time")
     searched=$(awk -F, 'NR > 1 && $3 != "" { n++ } END { print n + 0 }' "$WORK/hout/headroom.csv")
     trials=$(awk -F, 'NR > 1 { t += $14 } END { print t + 0 }' "$WORK/hout/headroom.csv")
-    printf "%s\t%s\t%s\t%s\t%s\t%s\n" "$n" "$hw" "$hr" "$hc" "$searched" "$trials" >> "$HTSV"
-    echo "   $hw s wall, $hc s CPU, $searched structures, $trials trials"
+    # A proposal run on the same network (issue 22: its own row): 1 L/s added at the first structure
+    # headroom searched, `rimline check --proposal` end to end (the existing and the proposed network).
+    first=$(awk -F, 'NR > 1 && $3 != "" { print $1; exit }' "$WORK/hout/headroom.csv")
+    pw=""; pr=""; pc=""
+    if [[ -n "$first" ]]; then
+      printf '[proposal]\nname = "benchmark: 1 L/s at %s"\n[[proposal.inflows]]\nstructure = "%s"\nflow = "1 L/s"\n' \
+        "$first" "$first" > "$WORK/proposal.toml"
+      rm -rf "$WORK/pout"; rc=0
+      /usr/bin/time -v -o "$WORK/prop.time" "${tmo[@]}" "$RIMLINE" check "$dir/project.toml" --proposal "$WORK/proposal.toml" \
+        --no-drawings --out "$WORK/pout" --quiet || rc=$?
+      if [[ $rc -le 1 ]]; then read -r pw pr pc < <(parse_time "$WORK/prop.time")
+      else echo "rimline check --proposal exited $rc on N=$n (row left empty)" >&2; fi
+    fi
+    printf "%s\t%s\t%s\t%s\t%s\t%s\t%s\t%s\t%s\n" "$n" "$hw" "$hr" "$hc" "$searched" "$trials" "$pw" "$pr" "$pc" >> "$HTSV"
+    echo "   $hw s wall, $hc s CPU, $searched structures, $trials trials; proposal run ${pw:-?} s wall"
   done
   /usr/bin/python3 - "$HTSV" "$RESULTS" "$ROOT" <<'PY'
 import os, subprocess, sys, time
 tsv, out, root = sys.argv[1:4]
 sh = lambda c: subprocess.run(c, shell=True, capture_output=True, text=True).stdout.strip()
 rows = [l.split("\t") for l in open(tsv).read().splitlines() if l]
-block = ["<!-- headroom: begin -->", "## Connection headroom at every structure (issue 20)", "",
+block = ["## Connection headroom at every structure (issue 20)", "",
          "Written by `scripts/benchmark.sh --headroom` on %s (commit %s), load average %s at the end (2 shared cores)."
          % (time.strftime("%Y-%m-%d %H:%M UTC", time.gmtime()), sh("git -C '%s' rev-parse --short HEAD" % root),
             sh("cut -d' ' -f1-3 /proc/loadavg")),
          "`rimline check project.toml --headroom --no-drawings` end to end (the check itself included). Targets: 10^4 pipes",
-         "in 30 s, 10^5 in 10 min.", "",
-         "| pipes N | wall s | CPU s | RSS MiB | structures searched | trials |", "|---:|---:|---:|---:|---:|---:|"]
+         "in 30 s, 10^5 in 10 min. The proposal run: `rimline check project.toml --proposal P --no-drawings` with P adding",
+         "1 L/s at the first structure searched (the existing and the proposed network, both checked, and the change outputs).", "",
+         "| pipes N | headroom wall s | headroom CPU s | headroom RSS MiB | structures searched | trials | proposal wall s | proposal CPU s | proposal RSS MiB |",
+         "|---:|---:|---:|---:|---:|---:|---:|---:|---:|"]
+def prop(r):
+    if len(r) < 9 or not r[6]: return "| | |"
+    return "%.1f | %.1f | %.0f |" % (float(r[6]), float(r[8]), int(r[7]) / 1024)
 for r in rows:
     if r[1].startswith("timeout"):
-        block.append("| %s | did not finish in %s s | | | | |" % (r[0], r[1].split(">")[1]))
+        block.append("| %s | did not finish in %s s | | | | | | | |" % (r[0], r[1].split(">")[1]))
     else:
-        block.append("| %s | %.1f | %.1f | %.0f | %s | %s |" % (r[0], float(r[1]), float(r[3]), int(r[2]) / 1024, r[4], r[5]))
-block.append("<!-- headroom: end -->")
-text = open(out).read() if os.path.exists(out) else "# rimline scale benchmark\n"
-b, e = "<!-- headroom: begin -->", "<!-- headroom: end -->"
-if b in text and e in text:
-    text = text[:text.index(b)] + "\n".join(block) + text[text.index(e) + len(e):]
-else:
-    text = text.rstrip("\n") + "\n\n" + "\n".join(block) + "\n"
-open(out, "w").write(text)
-print("wrote the headroom section of " + out)
+        block.append("| %s | %.1f | %.1f | %.0f | %s | %s | %s" % (r[0], float(r[1]), float(r[3]), int(r[2]) / 1024, r[4], r[5], prop(r)))
+sys.path.insert(0, os.path.join(root, "scripts"))
+from results_section import write_section
+write_section(out, "headroom", block)
+PY
+fi
+# One network in parts (issue 22, "past one machine" on one machine): make_network.py names pipes
+# P<tree>-<k>, structures S<tree>-<k> and outfalls OF-<tree>, so a part is the trees whose number is
+# K modulo P, selected by --where in SQLite's SQL on the GeoPackage (in PostGIS the parts come from
+# scripts/parts.sql instead). The parts run as many at once as there are cores.
+if [[ -n "$PARTS_NP" ]]; then
+  read -r pn pp <<<"$PARTS_NP"
+  dir="$WORK/n$pn-s$SEED"
+  [[ -f "$dir/project.toml" ]] || /usr/bin/python3 "$ROOT/scripts/make_network.py" --pipes "$pn" --seed "$SEED" --out "$dir"
+  PTSV="$WORK/parts.tsv"; : > "$PTSV"
+  echo "== N=$pn in $pp parts by outfall tree, $(nproc) at a time"
+  run_part() {
+    local k=$1 rc=0
+    local tp="CAST(substr(PIPE_ID, 2, instr(PIPE_ID, '-') - 2) AS INTEGER) % $pp = $k"
+    local ts="(CASE WHEN NODE_ID LIKE 'OF-%' THEN CAST(substr(NODE_ID, 4) AS INTEGER) ELSE CAST(substr(NODE_ID, 2, instr(NODE_ID, '-') - 2) AS INTEGER) END) % $pp = $k"
+    rm -rf "$WORK/part-$k"
+    /usr/bin/time -v -o "$WORK/part-$k.time" "$RIMLINE" check "$dir/project.toml" --out "$WORK/part-$k" --quiet \
+      --where "pipes=$tp" --where "structures=$ts" || rc=$?
+    echo "$rc" > "$WORK/part-$k.rc"
+  }
+  start=$(date +%s.%N)
+  for ((k = 0; k < pp; ++k)); do
+    run_part "$k" &
+    (( (k + 1) % $(nproc) == 0 )) && wait
+  done
+  wait
+  total=$(awk -v a="$start" -v b="$(date +%s.%N)" 'BEGIN { printf "%.1f", b - a }')
+  for ((k = 0; k < pp; ++k)); do
+    rc=$(cat "$WORK/part-$k.rc")
+    [[ $rc -le 1 ]] || { echo "part $k of N=$pn exited $rc" >&2; exit 1; }
+    read -r w r c < <(parse_time "$WORK/part-$k.time")
+    counts=$(/usr/bin/python3 -c "import json,sys; d=json.load(open(sys.argv[1]))['network']; print(d['conduits'], d['structures'], d['trees'])" \
+      "$WORK/part-$k/summary.json")
+    printf "%s\t%s\t%s\t%s\t%s\n" "$k" "$w" "$r" "$c" "$counts" >> "$PTSV"
+    rm -rf "$WORK/part-$k"   # ~1 GB of outputs per 10^6 pipes
+  done
+  /usr/bin/python3 - "$PTSV" "$RESULTS" "$ROOT" "$pn" "$pp" "$total" <<'PY'
+import os, subprocess, sys, time
+tsv, out, root, n, p, total = sys.argv[1:7]
+sh = lambda c: subprocess.run(c, shell=True, capture_output=True, text=True).stdout.strip()
+rows = [l.split("\t") for l in open(tsv).read().splitlines() if l]
+block = ["## One network in parts by outfall tree (issue 22)", "",
+         "Written by `scripts/benchmark.sh --parts \"%s %s\"` on %s (commit %s), load average %s at the end (2 shared cores)."
+         % (n, p, time.strftime("%Y-%m-%d %H:%M UTC", time.gmtime()), sh("git -C '%s' rev-parse --short HEAD" % root),
+            sh("cut -d' ' -f1-3 /proc/loadavg")),
+         "The generated network of %s pipes, its outfall trees dealt into %s parts (tree number modulo %s), each part one"
+         % (n, p, p),
+         "`rimline check --where pipes=... --where structures=...` process on the GeoPackage, %d at a time, all outputs written."
+         % os.cpu_count(), "",
+         "| part | wall s | CPU s | peak RSS MiB | pipes | structures | outfall trees |", "|---:|---:|---:|---:|---:|---:|---:|"]
+pipes = structures = trees = 0
+for r in rows:
+    c, s_, t = (int(x) for x in r[4].split())
+    pipes, structures, trees = pipes + c, structures + s_, trees + t
+    block.append("| %s | %.1f | %.1f | %.0f | %d | %d | %d |" % (r[0], float(r[1]), float(r[3]), int(r[2]) / 1024, c, s_, t))
+block.append("| all | **%.1f** (start to end) | %.1f | %.0f (largest) | %d | %d | %d |"
+             % (float(total), sum(float(r[3]) for r in rows), max(int(r[2]) for r in rows) / 1024, pipes, structures, trees))
+sys.path.insert(0, os.path.join(root, "scripts"))
+from results_section import write_section
+write_section(out, "parts", block)
 PY
 fi
 [[ $HEADROOM_ONLY -eq 1 ]] && exit 0

@@ -1,7 +1,8 @@
 #pragma once
 // Decimal text of numbers for the outputs. std::to_chars prints exactly what printf's "%.*f" and
-// "%.*g" print in the C locale (ISO C++ [charconv.to.chars]), without printf's format parsing and
+// "%.*g" print in the C locale (ISO C++ [charconv.to.chars]; one exception: no "-0.000"), without printf's format parsing and
 // arbitrary-precision digit loop, which were a tenth of the CPU time of writing a city's outputs.
+#include <algorithm>
 #include <charconv>
 #include <string>
 #include <string_view>
@@ -20,7 +21,11 @@ inline void append_fixed(std::string& out, double v, int decimals) {
   const bool huge = v >= fixed_text_limit || v <= -fixed_text_limit;
   const auto r = huge ? std::to_chars(buf, buf + sizeof buf, v, std::chars_format::scientific, 6)
                       : std::to_chars(buf, buf + sizeof buf, v, std::chars_format::fixed, d);
-  out.append(buf, r.ptr);
+  // A small negative value that rounds to zero reads "0.000", not "-0.000": a change of -0.2 mm
+  // shown to the millimetre is no change, and a sign on it would suggest one.
+  char* first = buf;
+  if (!huge && buf[0] == '-' && std::all_of(buf + 1, r.ptr, [](char c) { return c == '0' || c == '.'; })) ++first;
+  out.append(first, r.ptr);
 }
 
 inline std::string fixed_text(double v, int decimals) {

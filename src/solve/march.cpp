@@ -220,18 +220,23 @@ class Marcher {
   }
 
   // The step points stay in the result for the whole run. Only drawn pipes need them all; the
-  // others keep three (outlet, inlet, fastest point: what the checks and the result layers read)
-  // instead of ~24, which was most of a city-wide run's memory.
+  // others keep the outlet and the inlet, and the fastest point between them only where it is
+  // faster than both ends (what the checks and the result layers read: the end levels and the
+  // highest velocity), instead of ~24, which was most of a city-wide run's memory. A gradually
+  // varied profile is monotonic, so most pipes keep two points.
   void keep_needed_points(std::size_t ci, std::vector<hydraulics::ProfilePoint>& points) const {
     const auto& keep = opt_.keep_step_points;
-    if (keep.empty() || (ci < keep.size() && keep[ci]) || points.size() <= 3) {
+    if (keep.empty() || (ci < keep.size() && keep[ci]) || points.size() <= 2) {
       points.shrink_to_fit();  // growth by doubling leaves up to half of the capacity unused
       return;
     }
     std::size_t fastest = 1;
     for (std::size_t k = 2; k + 1 < points.size(); ++k)
       if (points[k].velocity_m_s > points[fastest].velocity_m_s) fastest = k;
-    std::vector<hydraulics::ProfilePoint> few{points.front(), points[fastest], points.back()};
+    const double ends = std::max(points.front().velocity_m_s, points.back().velocity_m_s);
+    std::vector<hydraulics::ProfilePoint> few;
+    if (points[fastest].velocity_m_s > ends) few = {points.front(), points[fastest], points.back()};
+    else few = {points.front(), points.back()};
     points.swap(few);
   }
 

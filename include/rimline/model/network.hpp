@@ -64,8 +64,8 @@ struct Conduit {
   bool reversed = false;          // digitised against the flow, turned by topology
   bool force_main = false;
   bool proposed = false;          // added by a proposal's new_pipes layer (fid is of that layer)
-  OptionalDouble rated_pressure_head_m;  // force mains: rated (class) pressure as head of water
   bool usable = true;             // false when a data problem keeps it out of the march
+  OptionalDouble rated_pressure_head_m;  // force mains: rated (class) pressure as head of water
 };
 
 struct Network {

@@ -60,7 +60,6 @@ struct MarchOptions {
 unsigned march_threads(const MarchOptions& options, std::size_t conduits);
 
 struct ConduitResult {
-  bool solved = false;
   std::string note;                    // why not solved, or a caveat
   double flow_m3_s = 0.0;
   double slope = 0.0;                  // (invert_up - invert_down) / length
@@ -69,24 +68,27 @@ struct ConduitResult {
   double invert_down_m = 0.0;
   hydraulics::ConduitProfile profile;  // step points, outlet first
   double downstream_level_m = 0.0;     // the water level (HGL) of what it discharged into
+  // The two flags last, side by side: 232 bytes a result instead of 240 (one per pipe of a city).
+  bool solved = false;
   // Whether its outlet was set by the structure's energy level (whole_loss: it keeps its velocity
   // head to the outlet) rather than by the water level (still pool, outfall, wet well).
   bool outlet_energy_control = false;
 };
 
 struct StructureResult {
+  // The flags and the bookkeeping first, packed into one word: 88 bytes a result instead of 104.
   bool solved = false;
   bool outfall = false;
   bool pumped = false;                  // a pump wet well: only force mains leave it
+  bool tailwater_from_field = false;    // outfalls: the tailwater came from the outfall's own field
+  hydraulics::StructureEnergy energy = hydraulics::StructureEnergy::whole_loss;  // its bookkeeping
   double hgl_m = std::numeric_limits<double>::quiet_NaN();  // water level = energy level (no velocity)
   double egl_m = std::numeric_limits<double>::quiet_NaN();
   double tailwater_m = std::numeric_limits<double>::quiet_NaN();  // outfalls: the tailwater given (NaN: none)
-  bool tailwater_from_field = false;    // outfalls: the tailwater came from the outfall's own field
   std::size_t governing_outflow = model::no_index;  // conduit that set the level (diversions)
   double loss_m = 0.0;                  // structure loss on the governing outflow
   double k_effective = 0.0;
   double outflow_velocity_m_s = 0.0;    // V_o at the governing outflow's inlet: K multiplies V_o^2/2g
-  hydraulics::StructureEnergy energy = hydraulics::StructureEnergy::whole_loss;  // its bookkeeping
   std::vector<hydraulics::LossTerm> loss_terms;
 };
 
