@@ -37,6 +37,7 @@ class GpkgRows {
   // given no rows is left as GDAL wrote it.
   void finish();
 
+  void expect_rows(std::size_t n) { envelopes_.reserve(n); }  // no doubling copies of the envelopes
   SpatialIndexRequest index_request() &&;  // envelopes of the rows with a geometry
   std::int64_t rows() const { return rows_; }
 

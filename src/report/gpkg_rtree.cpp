@@ -98,7 +98,7 @@ std::string triggers_sql(const std::string& t, const std::string& g, const std::
          trig("delete", "AFTER DELETE ON " + T + " WHEN OLD." + G + " NOT NULL", "DELETE FROM " + R + " WHERE id = OLD." + I);
 }
 
-void write_index(SqliteDb& db, const SpatialIndexRequest& rq) {
+void write_index(SqliteDb& db, SpatialIndexRequest& rq) {
   const std::string rt = "rtree_" + rq.table + "_" + rq.geometry_column;
   db.exec("CREATE VIRTUAL TABLE " + sql_quoted(rt) + " USING rtree(id, minx, maxx, miny, maxy)", rq.table);
   // SQLite sized the root node for this file's page size; every node must have that size.
@@ -110,14 +110,16 @@ void write_index(SqliteDb& db, const SpatialIndexRequest& rq) {
   constexpr int cell_bytes = 8 + 4 * 4;
   if (node_bytes < 4 + 3 * cell_bytes) db.fail(rq.table, "spatial index: unexpected R-tree node size");
   const auto capacity = static_cast<std::size_t>((node_bytes - 4) / cell_bytes);
-  const auto nodes = pack_rtree(rq.envelopes, capacity);
+  const std::size_t features = rq.envelopes.size();
+  const auto nodes = pack_rtree(std::move(rq.envelopes), capacity);  // no second copy of the envelopes
+  rq.envelopes = {};
 
   db.exec("DELETE FROM " + sql_quoted(rt + "_node"), rq.table);
   SqliteStmt put_node = db.prepare("INSERT INTO " + sql_quoted(rt + "_node") + "(nodeno, data) VALUES (?, ?)", rq.table);
   SqliteStmt put_parent = db.prepare("INSERT INTO " + sql_quoted(rt + "_parent") + "(nodeno, parentnode) VALUES (?, ?)", rq.table);
   std::vector<unsigned char> blob(static_cast<std::size_t>(node_bytes));
   std::vector<std::pair<std::int64_t, std::int64_t>> rowid_node;  // feature fid -> leaf node number
-  rowid_node.reserve(rq.envelopes.size());
+  rowid_node.reserve(features);
   for (std::size_t k = 0; k < nodes.size(); ++k) {
     const auto nodeno = static_cast<std::int64_t>(k + 1);
     const auto& n = nodes[k];
@@ -161,6 +163,7 @@ std::vector<PackedNode> pack_rtree(std::vector<Envelope> envelopes, std::size_t 
   // Levels from the leaves up; a level's node k is referred to by its index until numbered.
   std::vector<std::vector<std::vector<Envelope>>> levels;
   levels.push_back(pack_level(envelopes, capacity));
+  std::vector<Envelope>().swap(envelopes);  // the leaves hold their own copies now
   if (levels.back().empty()) levels.back().emplace_back();  // an empty index is one empty leaf
   while (levels.back().size() > 1) {
     std::vector<Envelope> parents;
@@ -201,19 +204,22 @@ std::vector<PackedNode> pack_rtree(std::vector<Envelope> envelopes, std::size_t 
   return out;
 }
 
-void add_gpkg_spatial_indexes(SqliteDb& db, const std::vector<SpatialIndexRequest>& requests) {
+void add_gpkg_spatial_indexes(SqliteDb& db, std::vector<SpatialIndexRequest> requests) {
   if (requests.empty()) return;
   db.exec("CREATE TABLE IF NOT EXISTS gpkg_extensions (table_name TEXT, column_name TEXT, extension_name TEXT NOT NULL, "
           "definition TEXT NOT NULL, scope TEXT NOT NULL, CONSTRAINT ge_tce UNIQUE (table_name, column_name, extension_name))",
           "");
-  for (const auto& rq : requests) write_index(db, rq);
+  for (auto& rq : requests) {
+    write_index(db, rq);
+    rq = {};
+  }
 }
 
-void add_gpkg_spatial_indexes(const std::string& path, const std::vector<SpatialIndexRequest>& requests) {
+void add_gpkg_spatial_indexes(const std::string& path, std::vector<SpatialIndexRequest> requests) {
   if (requests.empty()) return;
   SqliteDb db(path);
   db.exec("BEGIN", "");
-  add_gpkg_spatial_indexes(db, requests);
+  add_gpkg_spatial_indexes(db, std::move(requests));
   db.exec("COMMIT", "");
 }
 

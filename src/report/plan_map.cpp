@@ -3,6 +3,7 @@
 #include <algorithm>
 #include <cmath>
 #include <map>
+#include <sstream>
 #include <nlohmann/json.hpp>
 
 #include "base/number_text.hpp"
@@ -355,23 +356,30 @@ std::string legend() {
 
 }  // namespace
 
-std::string plan_map_section(const run::CheckRun& run, const FeatureLinks& links) {
+void write_plan_map_section(std::ostream& out, const run::CheckRun& run, const FeatureLinks& links) {
   const PlanMap m = plan_map(run, links);
   const auto& net = run.read.network;
-  std::string h = "<section id=\"plan\"><h2>Plan</h2>\n<p>The whole network from above (grid north up; " +
-                  esc(net.crs_description.empty() ? std::string("run CRS") : net.crs_description) + "), each structure and "
-                  "pipe in its result over the tailwater cases (the case that governs it); a ring marks a feature with "
-                  "a warning or an error. " +
-                  std::to_string(m.structures_drawn) + " of " + std::to_string(net.structures.size()) +
-                  " structures and " + std::to_string(m.conduits_drawn) + " of " + std::to_string(net.conduits.size()) +
-                  " pipes drawn" + (m.simplified ? " (simplified)" : "") + ". Hover a feature for its name; click it for its "
-                  "figures and links to its profile and exception rows.</p>\n";
-  if (m.simplified) h += "<p class=\"note\" id=\"plan-simplified\">" + esc(m.note) + "</p>\n";
-  h += "<div class=\"plan-wrap\"><figure id=\"plan-map\">" + m.svg + "</figure>\n<aside id=\"map-info\" aria-live=\"polite\">"
-       "<p>Click a structure or pipe on the map to see its figures here (the tables below list every feature).</p></aside></div>\n";
-  h += legend() + "\n<script type=\"application/json\" id=\"plan-data\">" + m.data_json + "</script>\n<script>" +
-       plan_script + "</script>\n</section>\n";
-  return h;
+  out << "<section id=\"plan\"><h2>Plan</h2>\n<p>The whole network from above (grid north up; "
+      << esc(net.crs_description.empty() ? std::string("run CRS") : net.crs_description)
+      << "), each structure and pipe in its result over the tailwater cases (the case that governs it); a ring marks a "
+         "feature with a warning or an error. "
+      << std::to_string(m.structures_drawn) << " of " << std::to_string(net.structures.size()) << " structures and "
+      << std::to_string(m.conduits_drawn) << " of " << std::to_string(net.conduits.size()) << " pipes drawn" << (m.simplified ? " (simplified)" : "")
+      << ". Hover a feature for its name; click it for its figures and links to its profile and exception rows.</p>\n";
+  if (m.simplified) out << "<p class=\"note\" id=\"plan-simplified\">" << esc(m.note) << "</p>\n";
+  // The map and its data go out as they are: at 10^6 pipes they are tens of MB each, and joining
+  // them into one string first held a second copy at the run's peak of memory.
+  out << "<div class=\"plan-wrap\"><figure id=\"plan-map\">" << m.svg
+      << "</figure>\n<aside id=\"map-info\" aria-live=\"polite\">"
+         "<p>Click a structure or pipe on the map to see its figures here (the tables below list every feature).</p></aside></div>\n";
+  out << legend() << "\n<script type=\"application/json\" id=\"plan-data\">" << m.data_json << "</script>\n<script>"
+      << plan_script << "</script>\n</section>\n";
+}
+
+std::string plan_map_section(const run::CheckRun& run, const FeatureLinks& links) {
+  std::ostringstream out;
+  write_plan_map_section(out, run, links);
+  return std::move(out).str();
 }
 
 }  // namespace rimline::report

@@ -8,6 +8,7 @@
 // structures grouped into grid cells and pipes as one segment between cells, each group in its worst
 // status; the page says so, and the tables and results.gpkg keep every feature.
 #include <cstddef>
+#include <ostream>
 #include <string>
 #include <vector>
 
@@ -47,7 +48,8 @@ struct PlanMap {
 };
 PlanMap plan_map(const run::CheckRun& run, const FeatureLinks& links);
 
-// The <section id="plan"> of report.html.
+// The <section id="plan"> of report.html, written to `out` as it is made; as a string for tests.
+void write_plan_map_section(std::ostream& out, const run::CheckRun& run, const FeatureLinks& links);
 std::string plan_map_section(const run::CheckRun& run, const FeatureLinks& links);
 
 }  // namespace rimline::report

@@ -360,7 +360,8 @@ void write_report_html(std::ostream& out, const run::CheckRun& run, const std::v
        "<a href=\"#results\">Results</a> <a href=\"#profiles\">Profiles</a> <a href=\"#data-findings\">Data findings</a>" +
        std::string(run.catchment_flows ? " <a href=\"#design-flows\">Design flows</a>" : "") + "</nav>\n";
   const FeatureLinks links(run, profiles);
-  out << h << verdict_section(run) << plan_map_section(run, links);
+  out << h << verdict_section(run);
+  write_plan_map_section(out, run, links);
   out << summary_section(run, date) << more_sections << inputs_section(run) << methods_section(run) << design_flows_section(run)
       << network_solve_section(run);
   out << "<section id=\"exceptions\"><h2>Exception list</h2>\n<p>Design criteria not met, worst case over the "

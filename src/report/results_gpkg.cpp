@@ -73,7 +73,7 @@ class Writer {
     write_structure_rows(db, indexes);
     write_conduit_rows(db, indexes);
     for (auto& [layer, rq] : indexes_) indexes.push_back(std::move(rq));
-    add_gpkg_spatial_indexes(db, indexes);
+    add_gpkg_spatial_indexes(db, std::move(indexes));
     write_layer_styles(db);
     db.exec("COMMIT", "");
   }
@@ -236,6 +236,7 @@ class Writer {
               required = rows.column("required_freeboard"), loss = rows.column("structure_loss"),
               k_eff = rows.column("k_effective");
     const auto& net = run_.read.network;
+    rows.expect_rows(net.structures.size());
     for (std::size_t s = 0; s < net.structures.size(); ++s) {
       const auto& st = net.structures[s];
       rows.text(id, st.id);
@@ -357,6 +358,7 @@ class Writer {
     const ConduitColumns col(solved_rows);  // the two tables have the same columns
     const DesignColumns design = design_columns_of(solved_rows);
     const auto& net = run_.read.network;
+    solved_rows.expect_rows(net.conduits.size());  // nearly all of them, as a rule
     std::vector<bool> with_station(net.conduits.size(), false);
     for (const auto& st : run_.pump_stations)
       if (st.layout.ok)
