@@ -145,18 +145,19 @@ void PipeReader::read_section(OGRFeature& feature, model::Conduit& c, const Feat
 // A roughness value from its field, else from the material table, else the default.
 // `lo`/`hi` bound the plausible SI value; `name` is "n" or "ks".
 void PipeReader::read_roughness(OGRFeature& feature, model::Conduit& c, const FeatureRef& who) {
-  c.material = read_text(feature, col_.material).value_or("");
+  // The material only chooses the roughness here; no later stage reads it, so the pipe does not keep it.
+  const std::string material = read_text(feature, col_.material).value_or("");
   c.roughness.law = p_.methods.friction;
   const bool manning = p_.methods.friction == hydraulics::FrictionLaw::manning;
   const FieldRef n_ref{f_.manning_n, units::Unit::one};
   if (auto n = roughness(feature, col_.manning_n, n_ref, "manning_n", "n", p_.plausibility.manning_n_min,
                          p_.plausibility.manning_n_max, p_.pipe_defaults.manning_n_by_material,
-                         p_.pipe_defaults.manning_n, c.material, manning, who))
+                         p_.pipe_defaults.manning_n, material, manning, who))
     c.roughness.manning_n = *n;
   else if (manning)
     c.usable = false;
   if (auto ks = roughness(feature, col_.ks, f_.ks, "ks", "ks", 0.0, p_.plausibility.ks_max_m,
-                          p_.pipe_defaults.ks_m_by_material, p_.pipe_defaults.ks_m, c.material, !manning, who))
+                          p_.pipe_defaults.ks_m_by_material, p_.pipe_defaults.ks_m, material, !manning, who))
     c.roughness.ks_m = *ks;
   else if (!manning)
     c.usable = false;

@@ -48,7 +48,6 @@ struct Conduit {
   std::size_t to = no_index;      // downstream end
   hydraulics::Section section;
   hydraulics::Roughness roughness;
-  std::string material;
   OptionalDouble invert_up_m;
   OptionalDouble invert_down_m;
   double length_m = 0.0;          // mapped length field if present and plausible, else geometry length
