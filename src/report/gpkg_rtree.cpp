@@ -98,7 +98,8 @@ std::string triggers_sql(const std::string& t, const std::string& g, const std::
          trig("delete", "AFTER DELETE ON " + T + " WHEN OLD." + G + " NOT NULL", "DELETE FROM " + R + " WHERE id = OLD." + I);
 }
 
-void write_index(SqliteDb& db, SpatialIndexRequest& rq) {
+// Takes the request: its envelopes go into the packer and are gone when the index is written.
+void write_index(SqliteDb& db, SpatialIndexRequest rq) {
   const std::string rt = "rtree_" + rq.table + "_" + rq.geometry_column;
   db.exec("CREATE VIRTUAL TABLE " + sql_quoted(rt) + " USING rtree(id, minx, maxx, miny, maxy)", rq.table);
   // SQLite sized the root node for this file's page size; every node must have that size.
@@ -112,7 +113,6 @@ void write_index(SqliteDb& db, SpatialIndexRequest& rq) {
   const auto capacity = static_cast<std::size_t>((node_bytes - 4) / cell_bytes);
   const std::size_t features = rq.envelopes.size();
   const auto nodes = pack_rtree(std::move(rq.envelopes), capacity);  // no second copy of the envelopes
-  rq.envelopes = {};
 
   db.exec("DELETE FROM " + sql_quoted(rt + "_node"), rq.table);
   SqliteStmt put_node = db.prepare("INSERT INTO " + sql_quoted(rt + "_node") + "(nodeno, data) VALUES (?, ?)", rq.table);
@@ -209,10 +209,7 @@ void add_gpkg_spatial_indexes(SqliteDb& db, std::vector<SpatialIndexRequest> req
   db.exec("CREATE TABLE IF NOT EXISTS gpkg_extensions (table_name TEXT, column_name TEXT, extension_name TEXT NOT NULL, "
           "definition TEXT NOT NULL, scope TEXT NOT NULL, CONSTRAINT ge_tce UNIQUE (table_name, column_name, extension_name))",
           "");
-  for (auto& rq : requests) {
-    write_index(db, rq);
-    rq = {};
-  }
+  for (auto& rq : requests) write_index(db, std::move(rq));
 }
 
 void add_gpkg_spatial_indexes(const std::string& path, std::vector<SpatialIndexRequest> requests) {
